@@ -1,0 +1,240 @@
+//! The largest stable Δt: screening on the grid, exact first-exit times at the
+//! candidates, refinement in continuous θ; and the same along each wave direction.
+
+use super::first_exit::{min_over_modes, ExitTimes};
+use super::refine::{compass_minimise, golden_minimise};
+use crate::linalg::EigSolver;
+use crate::operator::Operator;
+use crate::sample::{ray_length, Grid};
+use num_complex::Complex64 as C64;
+use rayon::prelude::*;
+use std::cell::RefCell;
+use std::f64::consts::PI;
+
+/// What kind of limit the scheme has.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum LimitKind {
+    /// A finite largest stable Δt.
+    Bounded,
+    /// Stable for every Δt > 0.
+    Unconditional,
+    /// Unstable for every Δt > 0.
+    None,
+}
+
+impl LimitKind {
+    /// The name used in summary.json.
+    pub fn as_str(&self) -> &'static str {
+        match self {
+            LimitKind::Bounded => "bounded",
+            LimitKind::Unconditional => "unconditional",
+            LimitKind::None => "none",
+        }
+    }
+}
+
+/// The overall limit.
+#[derive(Debug, Clone)]
+pub struct Limit {
+    /// Kind.
+    pub kind: LimitKind,
+    /// Largest stable Δt (∞ for unconditional, 0 for none).
+    pub dt_max: f64,
+    /// The wavevector that sets it, wrapped into [−π, π]^d.
+    pub wavevector: Vec<f64>,
+}
+
+/// Exact min over modes of t*(μ(θ)) at any θ.
+pub struct Evaluator<'a> {
+    op: &'a Operator,
+    exits: &'a ExitTimes<'a>,
+    work: RefCell<(EigSolver, Vec<C64>, Vec<C64>)>,
+}
+
+impl<'a> Evaluator<'a> {
+    /// For an operator and its method's exit times.
+    pub fn new(op: &'a Operator, exits: &'a ExitTimes<'a>) -> Self {
+        let m = op.m;
+        Self {
+            op,
+            exits,
+            work: RefCell::new((
+                EigSolver::new(m),
+                vec![C64::new(0.0, 0.0); m * m],
+                vec![C64::new(0.0, 0.0); m],
+            )),
+        }
+    }
+
+    fn eval(&self, theta: &[f64], exact: bool) -> (f64, f64) {
+        let mut w = self.work.borrow_mut();
+        let (solver, sym, eig) = &mut *w;
+        self.op.symbol_into(theta, sym);
+        if solver.eigenvalues(sym, eig).is_err() {
+            return (f64::NAN, 0.0);
+        }
+        if exact {
+            min_over_modes(eig, |mu| self.exits.exact(mu))
+        } else {
+            min_over_modes(eig, |mu| self.exits.estimate(mu))
+        }
+    }
+
+    /// Exact first-exit time at θ.
+    pub fn exact(&self, theta: &[f64]) -> f64 {
+        self.eval(theta, true).0
+    }
+
+    /// Screening value at θ.
+    pub fn estimate(&self, theta: &[f64]) -> f64 {
+        self.eval(theta, false).0
+    }
+}
+
+/// Wraps an angle into [−π, π].
+pub fn wrap(x: f64) -> f64 {
+    let y = (x + PI).rem_euclid(2.0 * PI) - PI;
+    if y == -PI && x > 0.0 {
+        PI
+    } else {
+        y
+    }
+}
+
+/// How many separated grid candidates are refined.
+const CANDIDATES: usize = 8;
+
+/// The overall limit from per-node screening values `(t*, |μ|)`.
+pub fn overall(op: &Operator, exits: &ExitTimes, grid: &Grid, nodes: &[(f64, f64)]) -> Limit {
+    let dims = grid.points.len();
+    let mut order: Vec<usize> = (0..nodes.len()).filter(|&i| !nodes[i].0.is_nan()).collect();
+    let key = |i: usize| (nodes[i].0, -nodes[i].1);
+    let keep = order.len().min(4096);
+    if keep == 0 {
+        return Limit {
+            kind: LimitKind::None,
+            dt_max: f64::NAN,
+            wavevector: vec![0.0; dims],
+        };
+    }
+    order.select_nth_unstable_by(keep - 1, |a, b| key(*a).partial_cmp(&key(*b)).unwrap());
+    order.truncate(keep);
+    order.sort_by(|a, b| key(*a).partial_cmp(&key(*b)).unwrap());
+    let mut idx = vec![0usize; dims];
+    let mut chosen: Vec<Vec<usize>> = Vec::new();
+    for &i in &order {
+        grid.unravel(i, &mut idx);
+        let far = chosen.iter().all(|c| {
+            c.iter().zip(&idx).enumerate().any(|(d, (a, b))| {
+                let n = grid.points[d] - 1;
+                let diff = a.abs_diff(*b) % n;
+                diff.min(n - diff) > 2
+            })
+        });
+        if far {
+            chosen.push(idx.clone());
+            if chosen.len() == CANDIDATES {
+                break;
+            }
+        }
+    }
+    let best_node = order[0];
+    grid.unravel(best_node, &mut idx);
+    let best_theta = grid.theta(&idx);
+    let eval = Evaluator::new(op, exits);
+    if nodes[best_node].0 == 0.0 {
+        return Limit {
+            kind: LimitKind::None,
+            dt_max: 0.0,
+            wavevector: best_theta,
+        };
+    }
+    if nodes[best_node].0 == f64::INFINITY {
+        return Limit {
+            kind: LimitKind::Unconditional,
+            dt_max: f64::INFINITY,
+            wavevector: best_theta,
+        };
+    }
+    let step = (0..dims).map(|d| grid.step(d)).fold(f64::INFINITY, f64::min);
+    let f = |x: &[f64]| {
+        let v = eval.exact(x);
+        if v.is_nan() {
+            f64::INFINITY
+        } else {
+            v
+        }
+    };
+    let mut best = (f(&best_theta), best_theta);
+    for c in &chosen {
+        let x0 = grid.theta(c);
+        let (x, v) = compass_minimise(&f, &x0, step, 1e-11, 2000);
+        if v < best.0 {
+            best = (v, x);
+        }
+    }
+    let (dt, theta) = best;
+    let kind = if dt == 0.0 {
+        LimitKind::None
+    } else if dt.is_infinite() {
+        LimitKind::Unconditional
+    } else {
+        LimitKind::Bounded
+    };
+    Limit {
+        kind,
+        dt_max: dt,
+        wavevector: theta.iter().map(|x| wrap(*x)).collect(),
+    }
+}
+
+/// The limit along each direction: min over the ray θ = s n, 0 < s ≤ s_max.
+/// Returns, per direction, Δt and the wavevector that sets it.
+pub fn by_direction(
+    op: &Operator,
+    exits: &ExitTimes,
+    directions: &[Vec<f64>],
+    samples: usize,
+    bar: Option<&indicatif::ProgressBar>,
+) -> Vec<(f64, Vec<f64>)> {
+    directions
+        .par_iter()
+        .map(|n| {
+            let eval = Evaluator::new(op, exits);
+            let smax = ray_length(n);
+            let at = |s: f64| -> Vec<f64> { n.iter().map(|x| x * s).collect() };
+            let mut best = (f64::INFINITY, 1usize);
+            for k in 1..=samples {
+                let v = eval.estimate(&at(smax * k as f64 / samples as f64));
+                if v < best.0 {
+                    best = (v, k);
+                }
+            }
+            if let Some(b) = bar {
+                b.inc(1);
+            }
+            let k = best.1;
+            let s_k = smax * k as f64 / samples as f64;
+            let exact_k = eval.exact(&at(s_k));
+            if !(exact_k.is_finite() && exact_k > 0.0) {
+                return (exact_k, at(s_k));
+            }
+            let lo = smax * (k - 1) as f64 / samples as f64;
+            let hi = (smax * (k + 1) as f64 / samples as f64).min(smax);
+            let g = |s: f64| {
+                let v = eval.exact(&at(s));
+                if v.is_nan() {
+                    f64::INFINITY
+                } else {
+                    v
+                }
+            };
+            let (s, v) = golden_minimise(&g, lo.max(1e-12 * smax), hi);
+            if v < exact_k {
+                (v, at(s))
+            } else {
+                (exact_k, at(s_k))
+            }
+        })
+        .collect()
+}

@@ -1,0 +1,261 @@
+//! Analyses of a validated case: the spectral-radius map at the case's Δt and the
+//! largest stable Δt, overall and per wave direction, from one sweep of the
+//! operator's eigenvalues over the wavevector grid.
+
+pub mod first_exit;
+pub mod limit;
+pub mod refine;
+
+use crate::case::{Analysis, Case};
+use crate::operator::{Operator, OperatorError};
+use crate::sample::{self, Grid, Par};
+use first_exit::{min_over_modes, ExitTimes};
+use indicatif::{ProgressBar, ProgressDrawTarget, ProgressStyle};
+pub use limit::{Limit, LimitKind};
+use num_complex::Complex64 as C64;
+
+/// How to run.
+#[derive(Debug, Clone, Copy)]
+pub struct Options {
+    /// Parallelism.
+    pub par: Par,
+    /// Whether progress bars may be shown (they also need a terminal).
+    pub progress: bool,
+}
+
+impl Default for Options {
+    fn default() -> Self {
+        Options {
+            par: Par::Threads(0),
+            progress: false,
+        }
+    }
+}
+
+/// The spectral-radius map and its maximum.
+#[derive(Debug, Clone)]
+pub struct RadiusResult {
+    /// ρ(G) per grid node, C order.
+    pub map: Vec<f64>,
+    /// Largest value (NaN nodes ignored).
+    pub max: f64,
+    /// Where it is attained.
+    pub wavevector: Vec<f64>,
+    /// max ≤ 1 + tolerance.
+    pub stable: bool,
+}
+
+/// Wave directions and the limit along each.
+#[derive(Debug, Clone)]
+pub struct DirectionalLimit {
+    /// Unit vectors in θ-space.
+    pub directions: Vec<Vec<f64>>,
+    /// Largest stable Δt along each.
+    pub dt: Vec<f64>,
+    /// The wavevector setting each.
+    pub wavevector: Vec<Vec<f64>>,
+}
+
+/// Amplification matrices at sample nodes, for external cross-checks.
+#[derive(Debug, Clone)]
+pub struct Samples {
+    /// Flat indices of the nodes.
+    pub index: Vec<usize>,
+    /// θ at each node.
+    pub theta: Vec<Vec<f64>>,
+    /// L(θ), row-major m×m each.
+    pub symbol: Vec<Vec<C64>>,
+    /// G(θ, Δt), row-major M×M each.
+    pub amplification: Vec<Vec<C64>>,
+    /// M.
+    pub size: usize,
+}
+
+/// Everything the analyses produced.
+#[derive(Debug, Clone)]
+pub struct Results {
+    /// The wavevector grid.
+    pub grid: Grid,
+    /// The case's Δt.
+    pub dt: f64,
+    /// Spectral radius, if asked.
+    pub radius: Option<RadiusResult>,
+    /// Overall limit, if asked.
+    pub limit: Option<Limit>,
+    /// Per-direction limit, if asked.
+    pub directional: Option<DirectionalLimit>,
+    /// Sampled matrices, if asked.
+    pub samples: Option<Samples>,
+    /// Nodes where the eigenvalue kernel failed (their values are NaN).
+    pub failures: usize,
+}
+
+/// A progress bar on stderr, drawn only when allowed and stderr is a terminal.
+pub fn progress_bar(len: u64, msg: &str, show: bool) -> ProgressBar {
+    if !show {
+        return ProgressBar::hidden();
+    }
+    let bar = ProgressBar::with_draw_target(Some(len), ProgressDrawTarget::stderr());
+    if let Ok(style) = ProgressStyle::with_template(
+        "{msg:>12} [{bar:36}] {percent:>3}% {per_sec:>12} eta {eta}",
+    ) {
+        bar.set_style(style.progress_chars("=> "));
+    }
+    bar.set_message(msg.to_string());
+    bar
+}
+
+/// Wave directions for a dimension: ±x in 1D, angles in 2D, sphere points in 3D.
+pub fn directions(dims: usize, count: usize) -> Vec<Vec<f64>> {
+    match dims {
+        1 => vec![vec![1.0], vec![-1.0]],
+        2 => sample::circle_directions(count)
+            .into_iter()
+            .map(|a| vec![a.cos(), a.sin()])
+            .collect(),
+        _ => sample::sphere_directions(count)
+            .into_iter()
+            .map(|v| v.to_vec())
+            .collect(),
+    }
+}
+
+/// Size scale of the operator, for the "zero eigenvalue" threshold.
+fn operator_scale(op: &Operator) -> f64 {
+    let constant: f64 = op.constant.iter().map(|z| z.norm_sqr()).sum::<f64>().sqrt();
+    let terms: f64 = op
+        .terms
+        .iter()
+        .map(|t| {
+            let c: f64 = t.matrix.iter().map(|z| z.norm_sqr()).sum::<f64>().sqrt();
+            let f = (0..64)
+                .map(|k| t.factor.eval(std::f64::consts::PI * k as f64 / 63.0).norm())
+                .fold(0.0, f64::max);
+            c * f
+        })
+        .sum();
+    constant + terms
+}
+
+/// Runs every analysis the case asks for.
+pub fn analyse(case: &Case, opts: &Options) -> Result<Results, OperatorError> {
+    let op = Operator::assemble(&case.system, &case.spacing, &case.space)?;
+    let grid = Grid::new(&case.scan.points);
+    let dt = case.dt();
+    let method = &case.method;
+    let tol = case.scan.tolerance;
+    let exits = ExitTimes::new(method, tol, 1e-13 * operator_scale(&op));
+    let want_radius = case.scan.analyses.contains(&Analysis::Radius);
+    let want_limit = case.scan.analyses.contains(&Analysis::Limit);
+    let bar = progress_bar(grid.len() as u64, "wavevectors", opts.progress);
+    let nodes: Vec<(f64, f64, f64)> = sample::sweep(&op, &grid, opts.par, Some(&bar), |node| {
+        match node.eigenvalues {
+            Err(_) => (f64::NAN, f64::NAN, 0.0),
+            Ok(eig) => {
+                let radius = if want_radius {
+                    eig.iter()
+                        .map(|mu| method.amplification_radius(*mu * dt))
+                        .fold(0.0, f64::max)
+                } else {
+                    0.0
+                };
+                let (t, w) = if want_limit {
+                    min_over_modes(eig, |mu| exits.estimate(mu))
+                } else {
+                    (0.0, 0.0)
+                };
+                (radius, t, w)
+            }
+        }
+    });
+    bar.finish_and_clear();
+    let failures = nodes.iter().filter(|n| n.0.is_nan()).count();
+    let dims = grid.points.len();
+    let mut idx = vec![0usize; dims];
+    let radius = want_radius.then(|| {
+        let map: Vec<f64> = nodes.iter().map(|n| n.0).collect();
+        let (imax, max) = map
+            .iter()
+            .enumerate()
+            .filter(|(_, v)| !v.is_nan())
+            .fold((0, f64::NEG_INFINITY), |b, (i, v)| if *v > b.1 { (i, *v) } else { b });
+        grid.unravel(imax, &mut idx);
+        RadiusResult {
+            max,
+            wavevector: grid.theta(&idx),
+            stable: max <= 1.0 + tol,
+            map,
+        }
+    });
+    let (limit, directional) = if want_limit {
+        let screen: Vec<(f64, f64)> = nodes.iter().map(|n| (n.1, n.2)).collect();
+        let overall = opts.par.run(|| limit::overall(&op, &exits, &grid, &screen));
+        let dirs = directions(dims, case.scan.directions);
+        let per_ray = (grid.points.iter().max().copied().unwrap_or(2) / 2).max(16);
+        let dbar = progress_bar(dirs.len() as u64, "directions", opts.progress);
+        let res = opts
+            .par
+            .run(|| limit::by_direction(&op, &exits, &dirs, per_ray, Some(&dbar)));
+        dbar.finish_and_clear();
+        let (dt, wavevector) = res.into_iter().unzip();
+        (
+            Some(overall),
+            Some(DirectionalLimit {
+                directions: dirs,
+                dt,
+                wavevector,
+            }),
+        )
+    } else {
+        (None, None)
+    };
+    let samples = (case.scan.matrices > 0).then(|| sample_matrices(case, &op, &grid, dt));
+    Ok(Results {
+        grid,
+        dt,
+        radius,
+        limit,
+        directional,
+        samples,
+        failures,
+    })
+}
+
+/// Amplification matrices at `case.scan.matrices` nodes spread evenly over the grid.
+fn sample_matrices(case: &Case, op: &Operator, grid: &Grid, dt: f64) -> Samples {
+    let k = case.scan.matrices.min(grid.len());
+    let n = grid.len();
+    let index: Vec<usize> = (0..k)
+        .map(|j| {
+            if k == 1 {
+                n / 2
+            } else {
+                // a stride coprime-ish with the row length so samples cover all axes
+                ((j as u128 * (n as u128 - 1) * 7919 / (k as u128 - 1)) % n as u128) as usize
+            }
+        })
+        .collect();
+    let dims = grid.points.len();
+    let mut idx = vec![0usize; dims];
+    let mut theta = Vec::new();
+    let mut symbol = Vec::new();
+    let mut amplification = Vec::new();
+    let mut size = op.m;
+    for &i in &index {
+        grid.unravel(i, &mut idx);
+        let th = grid.theta(&idx);
+        let l = op.symbol_matrix(&th);
+        let g = case.method.amplification_matrix(&(l.clone() * C64::new(dt, 0.0)));
+        size = g.nrows();
+        symbol.push(crate::linalg::from_matrix(&l));
+        amplification.push(crate::linalg::from_matrix(&g));
+        theta.push(th);
+    }
+    Samples {
+        index,
+        theta,
+        symbol,
+        amplification,
+        size,
+    }
+}

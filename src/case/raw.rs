@@ -1,0 +1,125 @@
+//! The serde mirror of the case file: every table refuses unknown keys, so a
+//! misspelt key is an error that names it, with its line and column.
+
+use serde::Deserialize;
+use std::collections::BTreeMap;
+
+/// The whole case file as written.
+#[derive(Debug, Clone, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct RawCase {
+    pub name: Option<String>,
+    pub description: Option<String>,
+    pub grid: RawGrid,
+    pub model: RawModel,
+    #[serde(default)]
+    pub space: RawSpace,
+    pub time: RawTime,
+    #[serde(default)]
+    pub scan: RawScan,
+}
+
+#[derive(Debug, Clone, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct RawGrid {
+    pub spacing: Vec<f64>,
+}
+
+/// A number or one number per axis.
+#[derive(Debug, Clone, Deserialize)]
+#[serde(untagged)]
+pub enum OneOrMany<T> {
+    One(T),
+    Many(Vec<T>),
+}
+
+/// A matrix entry: a real number or [re, im].
+#[derive(Debug, Clone, Copy, Deserialize)]
+#[serde(untagged)]
+pub enum Entry {
+    Real(f64),
+    Complex([f64; 2]),
+}
+
+pub type RawMatrix = Vec<Vec<Entry>>;
+
+#[derive(Debug, Clone, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct RawModel {
+    pub kind: String,
+    pub velocity: Option<Vec<f64>>,
+    pub diffusivity: Option<OneOrMany<f64>>,
+    pub sound_speed: Option<f64>,
+    pub density: Option<f64>,
+    pub pressure: Option<f64>,
+    pub gamma: Option<f64>,
+    pub gravity: Option<f64>,
+    pub depth: Option<f64>,
+    pub coriolis: Option<f64>,
+    pub speed: Option<f64>,
+    pub polarization: Option<String>,
+    pub variables: Option<Vec<String>>,
+    pub flux: Option<Vec<RawMatrix>>,
+    pub diffusion: Option<Vec<RawMatrix>>,
+    pub source: Option<RawMatrix>,
+}
+
+#[derive(Debug, Clone, Default, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct RawSpace {
+    pub first: Option<OneOrMany<String>>,
+    pub second: Option<OneOrMany<String>>,
+    pub upwind: Option<String>,
+    pub dissipation: Option<RawDissipation>,
+    pub arrangement: Option<String>,
+    #[serde(default)]
+    pub stencils: BTreeMap<String, RawStencil>,
+}
+
+#[derive(Debug, Clone, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct RawDissipation {
+    pub order: i64,
+    pub strength: f64,
+}
+
+#[derive(Debug, Clone, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct RawStencil {
+    pub derivative: i64,
+    pub offsets: Vec<f64>,
+    pub weights: Vec<f64>,
+    pub implicit_offsets: Option<Vec<f64>>,
+    pub implicit_weights: Option<Vec<f64>>,
+}
+
+#[derive(Debug, Clone, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct RawTime {
+    pub method: String,
+    pub courant: Option<f64>,
+    pub dt: Option<f64>,
+    pub theta: Option<f64>,
+    pub tableau: Option<RawTableau>,
+    pub first: Option<Vec<String>>,
+    pub splitting: Option<String>,
+}
+
+#[derive(Debug, Clone, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct RawTableau {
+    pub a: Vec<Vec<f64>>,
+    pub b: Vec<f64>,
+    pub c: Option<Vec<f64>>,
+}
+
+#[derive(Debug, Clone, Default, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct RawScan {
+    pub points: Option<OneOrMany<i64>>,
+    pub directions: Option<i64>,
+    pub steps: Option<i64>,
+    pub tolerance: Option<f64>,
+    pub analyses: Option<Vec<String>>,
+    pub matrices: Option<i64>,
+}

@@ -1,0 +1,166 @@
+//! Text for `kgain check` (the assembled problem) and `kgain list` (built-ins).
+
+use crate::case::Case;
+use crate::operator::{Operator, OperatorError};
+use crate::stencil::catalogue;
+use crate::time;
+use std::fmt::Write;
+
+fn fmt_c(z: num_complex::Complex64) -> String {
+    format!("{:+.6e}{:+.6e}i", z.re, z.im)
+}
+
+fn limit_text(x: f64) -> String {
+    if x.is_infinite() {
+        "unbounded".into()
+    } else if x == 0.0 {
+        "0 (unstable)".into()
+    } else {
+        format!("{x:.10}")
+    }
+}
+
+/// The assembled problem of a case, as `kgain check` prints it.
+pub fn check(case: &Case) -> Result<String, OperatorError> {
+    let op = Operator::assemble(&case.system, &case.spacing, &case.space)?;
+    let mut s = String::new();
+    let _ = writeln!(s, "case          {} ({})", case.name, case.file.display());
+    if let Some(d) = &case.description {
+        let _ = writeln!(s, "description   {d}");
+    }
+    let _ = writeln!(s, "dimensions    {} (spacing {:?})", case.dims(), case.spacing);
+    let _ = writeln!(s, "model         {}", case.system.kind);
+    let _ = writeln!(s, "variables     {}", case.system.variables.join(", "));
+    let _ = writeln!(
+        s,
+        "ref. speed    s = {:.10e} (largest characteristic speed), h = {:.6e}",
+        case.system.reference_speed,
+        case.reference_spacing()
+    );
+    if let Some(d) = case.system.diffusivity_max {
+        let _ = writeln!(s, "diffusivity   D_max = {d:.6e}");
+    }
+    let _ = writeln!(s, "stencils");
+    for (d, st) in case.space.first.iter().enumerate() {
+        let kind = if st.is_central() { "central" } else { "biased, upwinded" };
+        let _ = writeln!(
+            s,
+            "  first  axis {d}: {} (order {}, {kind}, offsets {:?})",
+            st.name, st.order, st.offsets
+        );
+    }
+    if case.system.diffusivity_max.is_some() {
+        for (d, st) in case.space.second.iter().enumerate() {
+            let _ = writeln!(s, "  second axis {d}: {} (order {})", st.name, st.order);
+        }
+    }
+    let _ = writeln!(s, "terms of L(theta)");
+    for t in &op.terms {
+        let _ = writeln!(s, "  {}", t.label);
+    }
+    if op.constant.iter().any(|z| z.norm() != 0.0) {
+        let _ = writeln!(s, "  S (source)");
+    }
+    let m = &case.method;
+    let _ = writeln!(
+        s,
+        "time method   {} (order {}, {}, {} level(s); imaginary-axis limit {}, real-axis limit {})",
+        m.name,
+        m.order,
+        if m.explicit { "explicit" } else { "implicit" },
+        m.levels(),
+        limit_text(m.imaginary_limit()),
+        limit_text(m.real_limit())
+    );
+    let dt = case.dt();
+    let _ = writeln!(
+        s,
+        "time step     dt = {dt:.6e}{}",
+        case.courant_of(dt).map(|c| format!(" (Courant {c:.6})")).unwrap_or_default()
+    );
+    let sample: Vec<f64> = (0..case.dims()).map(|d| [0.7, 1.3, 2.1][d]).collect();
+    let l = op.symbol_matrix(&sample);
+    let _ = writeln!(s, "symbol L at theta = {sample:?}:");
+    for i in 0..op.m {
+        let row: Vec<String> = (0..op.m).map(|j| fmt_c(l[(i, j)])).collect();
+        let _ = writeln!(s, "  [{}]", row.join("  "));
+    }
+    let eig = crate::linalg::eigenvalues(&crate::linalg::from_matrix(&l), op.m).unwrap_or_default();
+    let ev: Vec<String> = eig.iter().map(|z| fmt_c(*z)).collect();
+    let _ = writeln!(s, "  eigenvalues: {}", ev.join(", "));
+    let _ = writeln!(
+        s,
+        "scan          points {:?}, {} directions, tolerance {:e}",
+        case.scan.points, case.scan.directions, case.scan.tolerance
+    );
+    Ok(s)
+}
+
+/// Built-in models.
+pub fn list_models() -> String {
+    let mut s = String::from("models (variables; keys)\n");
+    for (k, v, keys) in [
+        ("advection", "q", "velocity, diffusivity"),
+        ("acoustics", "p, u[, v, w]", "sound_speed, density, velocity"),
+        ("euler", "rho, u[, v, w], p", "density, velocity, pressure, gamma"),
+        ("linear", "user-named", "variables, flux, diffusion, source"),
+    ] {
+        let _ = writeln!(s, "  {k:<12}{v:<20}{keys}");
+    }
+    s
+}
+
+/// Built-in stencils with their properties.
+pub fn list_stencils() -> String {
+    let mut s = format!(
+        "stencils\n  {:<10}{:>6}{:>7}{:>10}  {:<30}{}\n",
+        "name", "deriv", "order", "max k*h", "offsets", "description"
+    );
+    for (st, summary) in catalogue::all() {
+        let (kmax, _) = st.max_modified_wavenumber();
+        let offs = format!("{:?}", st.offsets);
+        let _ = writeln!(
+            s,
+            "  {:<10}{:>6}{:>7}{:>10.5}  {:<30}{}",
+            st.name, st.derivative, st.order, kmax, offs, summary
+        );
+        let w: Vec<String> = st.weights.iter().map(|w| format!("{w:.10}")).collect();
+        let _ = writeln!(s, "  {:<23}weights [{}]", "", w.join(", "));
+        if st.is_compact() {
+            let _ = writeln!(
+                s,
+                "  {:<23}implicit offsets {:?}, weights {:?}",
+                "", st.implicit_offsets, st.implicit_weights
+            );
+        }
+    }
+    s
+}
+
+/// Built-in time methods with their stability intervals, computed here.
+pub fn list_methods() -> String {
+    let mut s = format!(
+        "time methods (stability limits computed from each method's region)\n  {:<16}{:>6}{:>10}{:>8}{:>18}{:>18}\n",
+        "name", "order", "kind", "levels", "imaginary axis", "negative real"
+    );
+    for name in time::method_names() {
+        let m = match name {
+            "theta" => time::methods::theta(0.5).expect("valid theta"),
+            "tableau" => continue,
+            n => time::builtin(n).expect("listed methods exist"),
+        };
+        let label = if name == "theta" { "theta (0.5)" } else { name };
+        let _ = writeln!(
+            s,
+            "  {:<16}{:>6}{:>10}{:>8}{:>18}{:>18}",
+            label,
+            m.order,
+            if m.explicit { "explicit" } else { "implicit" },
+            m.levels(),
+            limit_text(m.imaginary_limit()),
+            limit_text(m.real_limit())
+        );
+    }
+    s.push_str("  tableau: any Butcher tableau (time.tableau = { a = [[..]], b = [..] })\n");
+    s
+}

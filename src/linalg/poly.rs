@@ -1,0 +1,164 @@
+//! Polynomials with coefficients in ascending order: evaluation, products and roots.
+//!
+//! Roots come from the eigenvalues of the companion matrix (degree ≥ 3) or closed
+//! forms (degree 1 and 2), then one Newton polish. Used for stability functions,
+//! the characteristic polynomials of multistep methods and first-exit radii.
+
+use super::{eigenvalues, LinalgError};
+use num_complex::Complex64 as C64;
+
+/// p(z) by Horner's rule; `c[j]` multiplies z^j.
+pub fn eval(c: &[C64], z: C64) -> C64 {
+    c.iter().rev().fold(C64::new(0.0, 0.0), |acc, &cj| acc * z + cj)
+}
+
+/// p(x) for real coefficients.
+pub fn eval_real(c: &[f64], x: f64) -> f64 {
+    c.iter().rev().fold(0.0, |acc, &cj| acc * x + cj)
+}
+
+/// Product of two polynomials.
+pub fn mul(a: &[C64], b: &[C64]) -> Vec<C64> {
+    if a.is_empty() || b.is_empty() {
+        return Vec::new();
+    }
+    let mut out = vec![C64::new(0.0, 0.0); a.len() + b.len() - 1];
+    for (i, ai) in a.iter().enumerate() {
+        for (j, bj) in b.iter().enumerate() {
+            out[i + j] += ai * bj;
+        }
+    }
+    out
+}
+
+/// Derivative coefficients.
+pub fn derivative(c: &[C64]) -> Vec<C64> {
+    c.iter()
+        .enumerate()
+        .skip(1)
+        .map(|(j, cj)| cj * j as f64)
+        .collect()
+}
+
+/// Drops leading (highest-degree) coefficients that are zero relative to the largest.
+pub fn trim(c: &[C64]) -> &[C64] {
+    let scale = c.iter().map(|z| z.norm()).fold(0.0, f64::max);
+    let mut n = c.len();
+    while n > 0 && c[n - 1].norm() <= 1e-15 * scale {
+        n -= 1;
+    }
+    &c[..n]
+}
+
+/// All complex roots of a polynomial (after trimming zero leading coefficients).
+pub fn roots(c: &[C64]) -> Result<Vec<C64>, LinalgError> {
+    let c = trim(c);
+    let n = c.len().saturating_sub(1);
+    match n {
+        0 => Ok(Vec::new()),
+        1 => Ok(vec![-c[0] / c[1]]),
+        2 => {
+            let (r1, r2) = quadratic(c[2], c[1], c[0]);
+            Ok(vec![r1, r2])
+        }
+        _ => {
+            let lead = c[n];
+            let mut comp = vec![C64::new(0.0, 0.0); n * n];
+            for j in 0..n {
+                comp[j] = -c[n - 1 - j] / lead;
+            }
+            for i in 1..n {
+                comp[i * n + i - 1] = C64::new(1.0, 0.0);
+            }
+            let mut r = eigenvalues(&comp, n)?;
+            let dc = derivative(c);
+            for z in r.iter_mut() {
+                let d = eval(&dc, *z);
+                if d.norm() > 0.0 {
+                    let step = eval(c, *z) / d;
+                    if step.norm() < 1e-6 * z.norm().max(1.0) {
+                        *z -= step;
+                    }
+                }
+            }
+            Ok(r)
+        }
+    }
+}
+
+/// Roots of a z² + b z + c without cancellation.
+pub fn quadratic(a: C64, b: C64, c: C64) -> (C64, C64) {
+    let disc = (b * b - a * c * 4.0).sqrt();
+    let q = if (b.conj() * disc).re >= 0.0 {
+        (b + disc) * -0.5
+    } else {
+        (b - disc) * -0.5
+    };
+    if q.norm() == 0.0 {
+        return (C64::new(0.0, 0.0), C64::new(0.0, 0.0));
+    }
+    (q / a, c / q)
+}
+
+/// Largest root modulus of a polynomial.
+pub fn max_root_modulus(c: &[C64]) -> Result<f64, LinalgError> {
+    Ok(roots(c)?.iter().map(|z| z.norm()).fold(0.0, f64::max))
+}
+
+/// Positive real roots of a real polynomial, sorted ascending, each polished by Newton.
+pub fn positive_real_roots(c: &[f64]) -> Result<Vec<f64>, LinalgError> {
+    let cc: Vec<C64> = c.iter().map(|&x| C64::new(x, 0.0)).collect();
+    let all = roots(&cc)?;
+    let dc: Vec<f64> = c
+        .iter()
+        .enumerate()
+        .skip(1)
+        .map(|(j, &cj)| cj * j as f64)
+        .collect();
+    let mut out: Vec<f64> = all
+        .iter()
+        .filter(|z| z.re > 0.0 && z.im.abs() <= 1e-6 * z.norm().max(1e-300))
+        .map(|z| {
+            let mut x = z.re;
+            for _ in 0..3 {
+                let d = eval_real(&dc, x);
+                if d == 0.0 {
+                    break;
+                }
+                let step = eval_real(c, x) / d;
+                if !(step.abs() < 1e-3 * x) {
+                    break;
+                }
+                x -= step;
+            }
+            x
+        })
+        .collect();
+    out.sort_by(|a, b| a.total_cmp(b));
+    out.dedup_by(|a, b| (*a - *b).abs() <= 1e-12 * b.abs());
+    Ok(out)
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn positive_roots_of_known_quartic() {
+        let f = |r: f64| [C64::new(-r, 0.0), C64::new(1.0, 0.0)];
+        let p = mul(&mul(&f(1.0), &f(2.0)), &mul(&f(-3.0), &f(0.5)));
+        let pr: Vec<f64> = p.iter().map(|z| z.re).collect();
+        let r = positive_real_roots(&pr).unwrap();
+        assert_eq!(r.len(), 3);
+        for (x, want) in r.iter().zip([0.5, 1.0, 2.0]) {
+            assert!((x - want).abs() < 1e-12, "{x} vs {want}");
+        }
+    }
+
+    #[test]
+    fn quadratic_is_accurate_for_small_root() {
+        let (r1, r2) = quadratic(C64::new(1.0, 0.0), C64::new(-1e8, 0.0), C64::new(1.0, 0.0));
+        let small = if r1.norm() < r2.norm() { r1 } else { r2 };
+        assert!((small.re - 1e-8).abs() < 1e-20);
+    }
+}

@@ -1,0 +1,183 @@
+//! The `kgain` command line: parses arguments, calls the library, renders errors
+//! once and maps them to exit codes (0 ok, 1 other failure, 2 invalid case or
+//! arguments, 3 unstable with --require-stable).
+
+use clap::{Parser, Subcommand, ValueEnum};
+use kgain::analysis::{self, Options};
+use kgain::case::Case;
+use kgain::report;
+use kgain::sample::Par;
+use std::io::{IsTerminal, Write};
+use std::path::PathBuf;
+use std::process::ExitCode;
+
+#[derive(Parser, Debug)]
+#[command(name = "kgain", version, about = "Fourier stability and dispersion analysis of grid-based PDE schemes")]
+struct Cli {
+    #[command(subcommand)]
+    command: Command,
+}
+
+#[derive(Subcommand, Debug)]
+enum Command {
+    /// Run every analysis the case asks for and write the output folder.
+    Run {
+        /// The case file (TOML).
+        case: PathBuf,
+        /// Output folder (default: output/<name>/).
+        #[arg(long)]
+        out: Option<PathBuf>,
+        /// Override a key by its dotted path, e.g. --set time.courant=0.9 (repeatable).
+        #[arg(long = "set", value_name = "KEY=VALUE")]
+        set: Vec<String>,
+        /// Worker threads (default: one per core).
+        #[arg(long)]
+        threads: Option<usize>,
+        /// Print nothing on success, show no progress.
+        #[arg(long)]
+        quiet: bool,
+        /// Replace an existing output folder.
+        #[arg(long)]
+        force: bool,
+        /// Exit with status 3 when the scheme is unstable at the case's time step.
+        #[arg(long)]
+        require_stable: bool,
+        /// Print summary.json on stdout instead of the table.
+        #[arg(long)]
+        json: bool,
+    },
+    /// Validate a case and print the assembled problem; compute nothing heavy.
+    Check {
+        /// The case file (TOML).
+        case: PathBuf,
+        /// Override a key by its dotted path (repeatable).
+        #[arg(long = "set", value_name = "KEY=VALUE")]
+        set: Vec<String>,
+    },
+    /// List built-in models, stencils and time methods.
+    List {
+        /// What to list (default: everything).
+        what: Option<ListWhat>,
+    },
+}
+
+#[derive(ValueEnum, Clone, Copy, Debug)]
+enum ListWhat {
+    Models,
+    Stencils,
+    Methods,
+}
+
+enum Failure {
+    Input(String),
+    Other(String),
+    Unstable,
+}
+
+fn main() -> ExitCode {
+    let cli = match Cli::try_parse() {
+        Ok(c) => c,
+        Err(e) => {
+            let code = if e.use_stderr() { 2 } else { 0 };
+            let _ = e.print();
+            return ExitCode::from(code);
+        }
+    };
+    match run(cli) {
+        Ok(()) => ExitCode::SUCCESS,
+        Err(Failure::Unstable) => ExitCode::from(3),
+        Err(Failure::Input(m)) => {
+            eprintln!("kgain: error: {m}");
+            ExitCode::from(2)
+        }
+        Err(Failure::Other(m)) => {
+            eprintln!("kgain: error: {m}");
+            ExitCode::from(1)
+        }
+    }
+}
+
+/// Writes to stdout; a closed pipe is a normal end.
+fn emit(text: &str) {
+    let mut out = std::io::stdout().lock();
+    let _ = out.write_all(text.as_bytes());
+    let _ = out.flush();
+}
+
+fn run(cli: Cli) -> Result<(), Failure> {
+    match cli.command {
+        Command::List { what } => {
+            let text = match what {
+                Some(ListWhat::Models) => kgain::describe::list_models(),
+                Some(ListWhat::Stencils) => kgain::describe::list_stencils(),
+                Some(ListWhat::Methods) => kgain::describe::list_methods(),
+                None => format!(
+                    "{}\n{}\n{}",
+                    kgain::describe::list_models(),
+                    kgain::describe::list_stencils(),
+                    kgain::describe::list_methods()
+                ),
+            };
+            emit(&text);
+            Ok(())
+        }
+        Command::Check { case, set } => {
+            let case = Case::load(&case, &set).map_err(|e| Failure::Input(e.to_string()))?;
+            let text = kgain::describe::check(&case)
+                .map_err(|e| Failure::Input(format!("{}: {e}", case.file.display())))?;
+            emit(&text);
+            Ok(())
+        }
+        Command::Run {
+            case,
+            out,
+            set,
+            threads,
+            quiet,
+            force,
+            require_stable,
+            json,
+        } => {
+            let case = Case::load(&case, &set).map_err(|e| Failure::Input(e.to_string()))?;
+            let out = out.unwrap_or_else(|| PathBuf::from("output").join(&case.name));
+            report::check_destination(&out, &case, force).map_err(|e| Failure::Input(e.to_string()))?;
+            let opts = Options {
+                par: match threads {
+                    Some(0) => return Err(Failure::Input("--threads must be at least 1".into())),
+                    Some(n) => Par::Threads(n),
+                    None => Par::Threads(0),
+                },
+                progress: !quiet && std::io::stderr().is_terminal(),
+            };
+            let results = analysis::analyse(&case, &opts)
+                .map_err(|e| Failure::Input(format!("{}: {e}", case.file.display())))?;
+            let written = report::write(&out, &case, &results).map_err(|e| Failure::Other(e.to_string()))?;
+            if json {
+                let s = report::summary_json(&case, &results);
+                emit(&(serde_json::to_string_pretty(&s).expect("JSON serialises") + "\n"));
+            } else if !quiet {
+                emit(&report::human_summary(&case, &results, Some(&written)));
+            }
+            let unstable = results.radius.as_ref().is_some_and(|r| !r.stable)
+                || results
+                    .limit
+                    .as_ref()
+                    .is_some_and(|l| l.kind == analysis::LimitKind::None || (l.kind == analysis::LimitKind::Bounded && results.dt > l.dt_max));
+            if require_stable && unstable {
+                return Err(Failure::Unstable);
+            }
+            Ok(())
+        }
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use clap::CommandFactory;
+
+    #[test]
+    fn command_definition_is_valid() {
+        Cli::command().debug_assert();
+    }
+}

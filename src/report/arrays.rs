@@ -1,0 +1,221 @@
+//! NPY arrays (little-endian float64 / complex128, C order) and the manifest that
+//! describes each: file, shape, dtype, dims, coords, units, long_name.
+
+use super::ReportError;
+use crate::analysis::Results;
+use crate::case::Case;
+use ndarray::{ArrayD, IxDyn};
+use num_complex::Complex64 as C64;
+use serde_json::{json, Map, Value};
+use std::path::Path;
+
+const AXES: [&str; 3] = ["theta_x", "theta_y", "theta_z"];
+
+struct Writer<'a> {
+    dir: &'a Path,
+    entries: Map<String, Value>,
+}
+
+struct Meta<'a> {
+    dims: Vec<&'a str>,
+    units: &'a str,
+    long_name: &'a str,
+}
+
+impl Writer<'_> {
+    fn entry(&mut self, name: &str, shape: &[usize], dtype: &str, meta: Meta) {
+        let coords: Map<String, Value> = meta
+            .dims
+            .iter()
+            .map(|d| {
+                let file = if AXES.contains(d) || *d == "direction" {
+                    Value::from(format!("{}.npy", if *d == "direction" { "directions" } else { d }))
+                } else {
+                    Value::Null
+                };
+                (d.to_string(), file)
+            })
+            .collect();
+        self.entries.insert(
+            name.to_string(),
+            json!({
+                "file": format!("{name}.npy"),
+                "shape": shape,
+                "dtype": dtype,
+                "dims": meta.dims,
+                "coords": coords,
+                "units": meta.units,
+                "long_name": meta.long_name,
+            }),
+        );
+    }
+
+    fn real(&mut self, name: &str, shape: &[usize], data: Vec<f64>, meta: Meta) -> Result<(), ReportError> {
+        let path = self.dir.join(format!("{name}.npy"));
+        let arr = ArrayD::from_shape_vec(IxDyn(shape), data).expect("shape matches data");
+        ndarray_npy::write_npy(&path, &arr).map_err(|e| ReportError::Npy {
+            path: path.display().to_string(),
+            message: e.to_string(),
+        })?;
+        self.entry(name, shape, "float64", meta);
+        Ok(())
+    }
+
+    fn complex(&mut self, name: &str, shape: &[usize], data: Vec<C64>, meta: Meta) -> Result<(), ReportError> {
+        let path = self.dir.join(format!("{name}.npy"));
+        let arr = ArrayD::from_shape_vec(IxDyn(shape), data).expect("shape matches data");
+        ndarray_npy::write_npy(&path, &arr).map_err(|e| ReportError::Npy {
+            path: path.display().to_string(),
+            message: e.to_string(),
+        })?;
+        self.entry(name, shape, "complex128", meta);
+        Ok(())
+    }
+}
+
+/// Writes every array of the results into `dir`; returns manifest.json's content.
+pub fn write_arrays(dir: &Path, case: &Case, r: &Results) -> Result<Value, ReportError> {
+    let mut w = Writer {
+        dir,
+        entries: Map::new(),
+    };
+    let dims = r.grid.points.len();
+    let grid_dims: Vec<&str> = AXES[..dims].to_vec();
+    for d in 0..dims {
+        w.real(
+            AXES[d],
+            &[r.grid.points[d]],
+            r.grid.coords[d].clone(),
+            Meta {
+                dims: vec![AXES[d]],
+                units: "radian",
+                long_name: ["wavevector k_x h_x", "wavevector k_y h_y", "wavevector k_z h_z"][d],
+            },
+        )?;
+    }
+    if let Some(rad) = &r.radius {
+        w.real(
+            "radius",
+            &r.grid.points,
+            rad.map.clone(),
+            Meta {
+                dims: grid_dims.clone(),
+                units: "1",
+                long_name: "spectral radius of the amplification matrix at the case time step",
+            },
+        )?;
+    }
+    if let Some(dl) = &r.directional {
+        let n = dl.directions.len();
+        if dims == 3 {
+            let flat: Vec<f64> = dl.directions.iter().flatten().copied().collect();
+            w.real(
+                "directions",
+                &[n, 3],
+                flat,
+                Meta {
+                    dims: vec!["direction", "component"],
+                    units: "1",
+                    long_name: "wave direction unit vectors in wavevector space",
+                },
+            )?;
+        } else {
+            let ang: Vec<f64> = dl.directions.iter().map(|v| v.get(1).copied().unwrap_or(0.0).atan2(v[0])).collect();
+            w.real(
+                "directions",
+                &[n],
+                ang.iter().map(|a| a.rem_euclid(std::f64::consts::TAU)).collect(),
+                Meta {
+                    dims: vec!["direction"],
+                    units: "radian",
+                    long_name: "wave direction angle in wavevector space",
+                },
+            )?;
+        }
+        w.real(
+            "limit_by_direction",
+            &[n],
+            dl.dt.clone(),
+            Meta {
+                dims: vec!["direction"],
+                units: "s",
+                long_name: "largest stable time step along the wave direction (inf: unconditional)",
+            },
+        )?;
+        let flat: Vec<f64> = dl.wavevector.iter().flatten().copied().collect();
+        w.real(
+            "limit_wavevector_by_direction",
+            &[n, dims],
+            flat,
+            Meta {
+                dims: vec!["direction", "axis"],
+                units: "radian",
+                long_name: "wavevector that sets the limit along each direction",
+            },
+        )?;
+        if case.system.reference_speed > 0.0 {
+            let h = case.reference_spacing();
+            let s = case.system.reference_speed;
+            w.real(
+                "courant_by_direction",
+                &[n],
+                dl.dt.iter().map(|dt| s * dt / h).collect(),
+                Meta {
+                    dims: vec!["direction"],
+                    units: "1",
+                    long_name: "largest stable Courant number along the wave direction",
+                },
+            )?;
+        }
+    }
+    if let Some(s) = &r.samples {
+        let k = s.index.len();
+        let m = case.system.size();
+        w.real(
+            "sample_index",
+            &[k],
+            s.index.iter().map(|&i| i as f64).collect(),
+            Meta {
+                dims: vec!["sample"],
+                units: "1",
+                long_name: "flat C-order grid index of each sampled wavevector",
+            },
+        )?;
+        w.real(
+            "sample_theta",
+            &[k, dims],
+            s.theta.iter().flatten().copied().collect(),
+            Meta {
+                dims: vec!["sample", "axis"],
+                units: "radian",
+                long_name: "sampled wavevectors",
+            },
+        )?;
+        w.complex(
+            "sample_symbol",
+            &[k, m, m],
+            s.symbol.iter().flatten().copied().collect(),
+            Meta {
+                dims: vec!["sample", "row", "col"],
+                units: "s-1",
+                long_name: "spatial symbol L at the sampled wavevectors",
+            },
+        )?;
+        w.complex(
+            "sample_amplification",
+            &[k, s.size, s.size],
+            s.amplification.iter().flatten().copied().collect(),
+            Meta {
+                dims: vec!["sample", "row", "col"],
+                units: "1",
+                long_name: "amplification matrix G at the sampled wavevectors and the case time step",
+            },
+        )?;
+    }
+    Ok(json!({
+        "format": "kgain output",
+        "version": 1,
+        "case": case.name,
+        "arrays": Value::Object(w.entries),
+    }))
+}

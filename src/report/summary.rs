@@ -1,0 +1,156 @@
+//! summary.json: the headline results with their definitions and cautions.
+//! Strict JSON: a non-finite number becomes null, and the surrounding keys say why.
+
+use crate::analysis::{LimitKind, Results};
+use crate::case::{Case, Step};
+use serde_json::{json, Value};
+
+/// A finite number, or null.
+pub fn num(x: f64) -> Value {
+    if x.is_finite() {
+        json!(x)
+    } else {
+        Value::Null
+    }
+}
+
+fn vec_num(v: &[f64]) -> Value {
+    Value::Array(v.iter().map(|x| num(*x)).collect())
+}
+
+/// Direction of a wavevector in degrees: the angle in 1D/2D, (azimuth, elevation) in 3D.
+pub fn direction_deg(theta: &[f64]) -> (f64, Option<f64>) {
+    match theta.len() {
+        1 => (if theta[0] < 0.0 { 180.0 } else { 0.0 }, None),
+        2 => (theta[1].atan2(theta[0]).to_degrees().rem_euclid(360.0), None),
+        _ => {
+            let r = theta.iter().map(|x| x * x).sum::<f64>().sqrt();
+            let az = theta[1].atan2(theta[0]).to_degrees().rem_euclid(360.0);
+            let el = if r > 0.0 { (theta[2] / r).asin().to_degrees() } else { 0.0 };
+            (az, Some(el))
+        }
+    }
+}
+
+/// The cautions every summary carries, plus case-specific ones.
+pub fn cautions(case: &Case, r: &Results) -> Vec<String> {
+    let mut c = vec![
+        "Von Neumann analysis of a linear, constant-coefficient problem on a periodic grid: a necessary condition for the stability of a real solver, not a sufficient one (boundaries, variable coefficients, nonlinearity and filters can each destabilise a scheme that passes here).".to_string(),
+        "Use a safety margin on any time step reported here, e.g. 0.8 to 0.9 times dt_max.".to_string(),
+    ];
+    if r.failures > 0 {
+        c.push(format!(
+            "the eigenvalue kernel did not converge at {} wavevector(s); their values are NaN and they were skipped",
+            r.failures
+        ));
+    }
+    if let Some(l) = &r.limit {
+        if l.kind == LimitKind::None {
+            c.push(format!(
+                "no time step is stable: the {} method amplifies some wavevector for every dt > 0",
+                case.method.name
+            ));
+        }
+    }
+    if let Some(rad) = &r.radius {
+        if !rad.stable {
+            c.push(format!(
+                "unstable at the case time step: max |lambda| = {:.6} exceeds 1 + tolerance",
+                rad.max
+            ));
+        }
+    }
+    c
+}
+
+/// The content of summary.json.
+pub fn summary_json(case: &Case, r: &Results) -> Value {
+    let dt = r.dt;
+    let mut s = json!({
+        "name": case.name,
+        "description": case.description,
+        "case_file": super::case_identity(case),
+        "dims": case.dims(),
+        "variables": case.system.variables,
+        "model": case.system.kind,
+        "method": case.method.name,
+        "stencils": {
+            "first": case.space.first.iter().map(|s| s.name.clone()).collect::<Vec<_>>(),
+            "second": case.space.second.iter().map(|s| s.name.clone()).collect::<Vec<_>>(),
+        },
+        "spacing": case.spacing,
+        "points": r.grid.points,
+        "dt": num(dt),
+        "dt_given_as": match case.step { Step::Dt(_) => "dt", Step::Courant(_) => "courant" },
+        "courant": case.courant_of(dt).map(num).unwrap_or(Value::Null),
+        "diffusion_number": case.diffusion_number_of(dt).map(num).unwrap_or(Value::Null),
+        "reference_speed": num(case.system.reference_speed),
+        "reference_spacing": num(case.reference_spacing()),
+        "tolerance": case.scan.tolerance,
+        "definitions": {
+            "theta": "wavevector coordinates theta_d = k_d h_d, radians, over [-pi, pi]",
+            "reference_speed": "s = largest characteristic speed of the continuous system over all directions",
+            "reference_spacing": "h = min_d h_d",
+            "courant": "nu = s dt / h",
+            "diffusion_number": "r = dt D_max / h^2, D_max the largest diffusivity",
+            "stable": "every eigenvalue of G satisfies |lambda| <= 1 + tolerance",
+            "dt_max": "largest dt such that every dt in (0, dt_max] is stable at every wavevector, from the first exit of each eigenvalue of the spatial operator from the method's stability region",
+        },
+        "failures": r.failures,
+    });
+    if let Some(rad) = &r.radius {
+        let (deg, el) = direction_deg(&rad.wavevector);
+        s["radius"] = json!({
+            "max": num(rad.max),
+            "wavevector": vec_num(&rad.wavevector),
+            "direction_deg": deg,
+            "elevation_deg": el,
+            "stable": rad.stable,
+        });
+    }
+    if let Some(l) = &r.limit {
+        let (deg, el) = direction_deg(&l.wavevector);
+        let dt_max = match l.kind {
+            LimitKind::Unconditional => Value::Null,
+            LimitKind::None => json!(0.0),
+            LimitKind::Bounded => num(l.dt_max),
+        };
+        let scaled = |f: Option<f64>| match (l.kind, f) {
+            (LimitKind::Bounded, Some(x)) => num(x),
+            (LimitKind::None, Some(_)) => json!(0.0),
+            _ => Value::Null,
+        };
+        s["limit"] = json!({
+            "kind": l.kind.as_str(),
+            "dt_max": dt_max,
+            "courant_max": scaled(case.courant_of(l.dt_max)),
+            "diffusion_number_max": scaled(case.diffusion_number_of(l.dt_max)),
+            "wavevector": vec_num(&l.wavevector),
+            "direction_deg": deg,
+            "elevation_deg": el,
+            "stable_at_case_dt": match l.kind {
+                LimitKind::Bounded => dt <= l.dt_max,
+                LimitKind::Unconditional => true,
+                LimitKind::None => false,
+            },
+            "found_by": "first exit from the exact stability region, refined in continuous wavevector space",
+        });
+    }
+    if let Some(d) = &r.directional {
+        let (imin, vmin) = d
+            .dt
+            .iter()
+            .enumerate()
+            .fold((0, f64::INFINITY), |b, (i, v)| if *v < b.1 { (i, *v) } else { b });
+        let (deg, el) = direction_deg(&d.directions[imin]);
+        s["limit_by_direction"] = json!({
+            "count": d.directions.len(),
+            "dt_min": num(vmin),
+            "worst_direction_deg": deg,
+            "worst_elevation_deg": el,
+            "dt_max": num(d.dt.iter().copied().fold(0.0, f64::max)),
+        });
+    }
+    s["cautions"] = json!(cautions(case, r));
+    s
+}

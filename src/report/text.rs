@@ -1,0 +1,111 @@
+//! The short aligned table `kgain run` prints on stdout.
+
+use super::summary::{cautions, direction_deg};
+use crate::analysis::{LimitKind, Results};
+use crate::case::Case;
+use std::fmt::Write;
+
+fn theta(v: &[f64]) -> String {
+    let parts: Vec<String> = v.iter().map(|x| format!("{x:+.4}")).collect();
+    format!("({})", parts.join(", "))
+}
+
+fn dir(v: &[f64]) -> String {
+    match direction_deg(v) {
+        (az, Some(el)) => format!("azimuth {az:.1} deg, elevation {el:.1} deg"),
+        (a, None) => format!("{a:.1} deg"),
+    }
+}
+
+/// The human summary of a run.
+pub fn human_summary(case: &Case, r: &Results, out: Option<&std::path::Path>) -> String {
+    let mut s = String::new();
+    let row = |s: &mut String, k: &str, v: String| {
+        let _ = writeln!(s, "  {k:<14}{v}");
+    };
+    let _ = writeln!(
+        s,
+        "kgain: {} ({}-D {}, variables {})",
+        case.name,
+        case.dims(),
+        case.system.kind,
+        case.system.variables.join(" ")
+    );
+    let names: Vec<&str> = case.space.first.iter().map(|s| s.name.as_str()).collect();
+    row(&mut s, "scheme", format!("{} in space, {} in time", names.join("/"), case.method.name));
+    let courant = case
+        .courant_of(r.dt)
+        .map(|c| format!(", Courant {c:.6}"))
+        .unwrap_or_default();
+    let diffn = case
+        .diffusion_number_of(r.dt)
+        .map(|d| format!(", diffusion number {d:.6}"))
+        .unwrap_or_default();
+    row(&mut s, "time step", format!("dt = {:.6e}{courant}{diffn}", r.dt));
+    if let Some(rad) = &r.radius {
+        let verdict = if rad.stable { "STABLE" } else { "UNSTABLE" };
+        row(
+            &mut s,
+            "at this dt",
+            format!(
+                "{verdict}: max |lambda| = {:.12} at theta = {}",
+                rad.max,
+                theta(&rad.wavevector)
+            ),
+        );
+    }
+    if let Some(l) = &r.limit {
+        let v = match l.kind {
+            LimitKind::Unconditional => "unconditional: stable for every dt > 0".to_string(),
+            LimitKind::None => format!(
+                "none: unstable for every dt > 0 (e.g. at theta = {})",
+                theta(&l.wavevector)
+            ),
+            LimitKind::Bounded => {
+                let c = case
+                    .courant_of(l.dt_max)
+                    .map(|c| format!(", Courant {c:.10}"))
+                    .unwrap_or_default();
+                let d = case
+                    .diffusion_number_of(l.dt_max)
+                    .map(|d| format!(", diffusion number {d:.10}"))
+                    .unwrap_or_default();
+                format!("dt_max = {:.10e}{c}{d}", l.dt_max)
+            }
+        };
+        row(&mut s, "largest dt", v);
+        if l.kind == LimitKind::Bounded {
+            row(
+                &mut s,
+                "set by",
+                format!("theta = {}, direction {}", theta(&l.wavevector), dir(&l.wavevector)),
+            );
+        }
+    }
+    if let Some(d) = &r.directional {
+        let (imin, vmin) = d
+            .dt
+            .iter()
+            .enumerate()
+            .fold((0, f64::INFINITY), |b, (i, v)| if *v < b.1 { (i, *v) } else { b });
+        let vmax = d.dt.iter().copied().fold(0.0, f64::max);
+        if vmin.is_finite() {
+            row(
+                &mut s,
+                "by direction",
+                format!(
+                    "{} directions: dt from {vmin:.6e} ({}) to {vmax:.6e}",
+                    d.directions.len(),
+                    dir(&d.directions[imin])
+                ),
+            );
+        }
+    }
+    if let Some(o) = out {
+        row(&mut s, "output", format!("{}/", o.display()));
+    }
+    for c in cautions(case, r) {
+        row(&mut s, "caution", c);
+    }
+    s
+}

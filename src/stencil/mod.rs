@@ -1,0 +1,290 @@
+//! Finite-difference stencils: explicit and compact (Padé-type), their Fourier
+//! symbols, their order of accuracy from Taylor moments, and their largest
+//! modified wavenumber.
+//!
+//! A stencil for the d-th derivative on a unit grid (h = 1) is
+//! Σ_k a_k f^{(d)}(x + p_k) ≈ Σ_j w_j f(x + o_j). Substituting f = e^{iθx} gives
+//! the symbol S(θ) = Σ_j w_j e^{iθ o_j} / Σ_k a_k e^{iθ p_k} ≈ (iθ)^d. On a grid of
+//! spacing h the symbol of the derivative is S(θ)/h^d.
+//!
+//! Consistency and order follow from the Taylor moments: the coefficient of
+//! f^{(n)} is Σ_j w_j o_j^n/n! on the right and Σ_k a_k p_k^{n−d}/(n−d)! on the
+//! left; the order is the first n where they differ, minus d.
+
+pub mod catalogue;
+
+use num_complex::Complex64 as C64;
+
+/// A finite-difference stencil on a unit grid.
+#[derive(Debug, Clone, PartialEq)]
+pub struct Stencil {
+    /// Name, as used in case files.
+    pub name: String,
+    /// Which derivative it approximates (1 or 2).
+    pub derivative: u32,
+    /// Offsets of the right-hand side, in cells.
+    pub offsets: Vec<f64>,
+    /// Weights of the right-hand side.
+    pub weights: Vec<f64>,
+    /// Offsets of the implicit (compact) left-hand side; `[0]` for explicit stencils.
+    pub implicit_offsets: Vec<f64>,
+    /// Weights of the implicit left-hand side; `[1]` for explicit stencils.
+    pub implicit_weights: Vec<f64>,
+    /// Formal order of accuracy, from the Taylor moments.
+    pub order: u32,
+}
+
+/// Why a stencil was refused.
+#[derive(Debug, Clone, PartialEq, thiserror::Error)]
+pub enum StencilError {
+    /// Offsets and weights differ in length, or are empty.
+    #[error("stencil '{name}': {what}")]
+    Shape {
+        /// Stencil name.
+        name: String,
+        /// What is wrong.
+        what: String,
+    },
+    /// The stencil does not approximate its derivative.
+    #[error(
+        "stencil '{name}' is not consistent with derivative {derivative}: the Taylor moment of order {moment} is {got:.6e} but should be {want:.6e}"
+    )]
+    Inconsistent {
+        /// Stencil name.
+        name: String,
+        /// Derivative it claims.
+        derivative: u32,
+        /// Moment index that fails.
+        moment: u32,
+        /// Value found.
+        got: f64,
+        /// Value needed.
+        want: f64,
+    },
+}
+
+/// Largest moment examined when computing the order of accuracy.
+const MAX_MOMENT: u32 = 24;
+
+impl Stencil {
+    /// Builds a stencil and computes its order; refuses inconsistent ones.
+    pub fn new(
+        name: &str,
+        derivative: u32,
+        offsets: Vec<f64>,
+        weights: Vec<f64>,
+        implicit: Option<(Vec<f64>, Vec<f64>)>,
+    ) -> Result<Self, StencilError> {
+        let shape = |what: &str| StencilError::Shape {
+            name: name.to_string(),
+            what: what.to_string(),
+        };
+        if !(1..=2).contains(&derivative) {
+            return Err(shape("derivative must be 1 or 2"));
+        }
+        if offsets.is_empty() || offsets.len() != weights.len() {
+            return Err(shape("offsets and weights must be non-empty and of equal length"));
+        }
+        let (io, iw) = implicit.unwrap_or((vec![0.0], vec![1.0]));
+        if io.is_empty() || io.len() != iw.len() {
+            return Err(shape(
+                "implicit_offsets and implicit_weights must be non-empty and of equal length",
+            ));
+        }
+        let all = offsets.iter().chain(&weights).chain(&io).chain(&iw);
+        if all.clone().any(|x| !x.is_finite()) {
+            return Err(shape("offsets and weights must be finite numbers"));
+        }
+        let mut s = Stencil {
+            name: name.to_string(),
+            derivative,
+            offsets,
+            weights,
+            implicit_offsets: io,
+            implicit_weights: iw,
+            order: 0,
+        };
+        s.order = s.order_of_accuracy()?;
+        Ok(s)
+    }
+
+    /// Whether the stencil has an implicit left-hand side.
+    pub fn is_compact(&self) -> bool {
+        !(self.implicit_offsets.len() == 1 && self.implicit_offsets[0] == 0.0)
+    }
+
+    /// Taylor-moment order of accuracy (see the module documentation).
+    fn order_of_accuracy(&self) -> Result<u32, StencilError> {
+        let d = self.derivative;
+        let mut fact = 1.0_f64;
+        for n in 0..=MAX_MOMENT {
+            if n > 0 {
+                fact *= n as f64;
+            }
+            let rhs_terms = self
+                .offsets
+                .iter()
+                .zip(&self.weights)
+                .map(|(o, w)| w * o.powi(n as i32) / fact);
+            let rhs: f64 = rhs_terms.clone().sum();
+            let mut scale: f64 = rhs_terms.map(f64::abs).sum();
+            let lhs = if n >= d {
+                let k = n - d;
+                let kf: f64 = (1..=k).map(|x| x as f64).product();
+                let terms = self
+                    .implicit_offsets
+                    .iter()
+                    .zip(&self.implicit_weights)
+                    .map(|(p, a)| a * p.powi(k as i32) / kf);
+                scale += terms.clone().map(f64::abs).sum::<f64>();
+                terms.sum()
+            } else {
+                0.0
+            };
+            // Relative 1e-7: published coefficients are often quoted to eight digits.
+            let tol = 1e-7 * scale.max(1e-300) + 1e-14;
+            if (rhs - lhs).abs() > tol {
+                if n <= d {
+                    return Err(StencilError::Inconsistent {
+                        name: self.name.clone(),
+                        derivative: d,
+                        moment: n,
+                        got: rhs,
+                        want: lhs,
+                    });
+                }
+                return Ok(n - d);
+            }
+        }
+        Ok(MAX_MOMENT - d + 1)
+    }
+
+    /// The symbol S(θ) on a unit grid (≈ (iθ)^d for small θ).
+    pub fn symbol(&self, theta: f64) -> C64 {
+        let num: C64 = self
+            .offsets
+            .iter()
+            .zip(&self.weights)
+            .map(|(o, w)| C64::from_polar(*w, theta * o))
+            .sum();
+        if !self.is_compact() {
+            return num / self.implicit_weights[0];
+        }
+        let den: C64 = self
+            .implicit_offsets
+            .iter()
+            .zip(&self.implicit_weights)
+            .map(|(p, a)| C64::from_polar(*a, theta * p))
+            .sum();
+        num / den
+    }
+
+    /// The modified wavenumber: −i·S(θ) for a first derivative, −S(θ) for a second,
+    /// so that it approximates θ or θ² respectively.
+    pub fn modified_wavenumber(&self, theta: f64) -> C64 {
+        match self.derivative {
+            1 => self.symbol(theta) * C64::new(0.0, -1.0),
+            _ => -self.symbol(theta),
+        }
+    }
+
+    /// The mirror image (offsets negated), which approximates the same derivative:
+    /// used for the left-going part of an upwinded flux.
+    pub fn mirror(&self) -> Stencil {
+        let sign = if self.derivative % 2 == 1 { -1.0 } else { 1.0 };
+        Stencil {
+            name: format!("{}-mirror", self.name),
+            derivative: self.derivative,
+            offsets: self.offsets.iter().map(|o| -o).collect(),
+            weights: self.weights.iter().map(|w| sign * w).collect(),
+            implicit_offsets: self.implicit_offsets.iter().map(|o| -o).collect(),
+            implicit_weights: self.implicit_weights.clone(),
+            order: self.order,
+        }
+    }
+
+    /// Whether the stencil equals its mirror image (central): its symbol is then
+    /// purely imaginary (first derivative) or real (second), i.e. non-dissipative.
+    pub fn is_central(&self) -> bool {
+        let m = self.mirror();
+        (0..16).all(|k| {
+            let t = 0.1 + 0.19 * k as f64;
+            (self.symbol(t) - m.symbol(t)).norm() <= 1e-12 * (1.0 + self.symbol(t).norm())
+        })
+    }
+
+    /// The largest |modified wavenumber| over θ ∈ [0, π] (real part of the modified
+    /// wavenumber for first derivatives, the value itself for second), and where it is.
+    /// Found on a fine grid and refined by golden-section search.
+    pub fn max_modified_wavenumber(&self) -> (f64, f64) {
+        let f = |t: f64| self.modified_wavenumber(t).norm();
+        let n = 2048;
+        let (mut best_t, mut best) = (0.0, f(0.0));
+        for i in 1..=n {
+            let t = std::f64::consts::PI * i as f64 / n as f64;
+            let v = f(t);
+            if v > best {
+                best = v;
+                best_t = t;
+            }
+        }
+        let h = std::f64::consts::PI / n as f64;
+        let (t, v) = golden_max(
+            &f,
+            (best_t - h).max(0.0),
+            (best_t + h).min(std::f64::consts::PI),
+        );
+        if v > best {
+            (v, t)
+        } else {
+            (best, best_t)
+        }
+    }
+}
+
+/// Golden-section search for a maximum of a unimodal function on [a, b].
+pub fn golden_max(f: &impl Fn(f64) -> f64, mut a: f64, mut b: f64) -> (f64, f64) {
+    let g = 0.5 * (5f64.sqrt() - 1.0);
+    let mut c = b - g * (b - a);
+    let mut d = a + g * (b - a);
+    let (mut fc, mut fd) = (f(c), f(d));
+    for _ in 0..100 {
+        if (b - a).abs() < 1e-13 {
+            break;
+        }
+        if fc > fd {
+            b = d;
+            d = c;
+            fd = fc;
+            c = b - g * (b - a);
+            fc = f(c);
+        } else {
+            a = c;
+            c = d;
+            fc = fd;
+            d = a + g * (b - a);
+            fd = f(d);
+        }
+    }
+    let t = 0.5 * (a + b);
+    (t, f(t))
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn inconsistent_stencil_is_refused() {
+        let e = Stencil::new("bad", 1, vec![-1.0, 1.0], vec![-1.0, 1.0], None);
+        assert!(matches!(e, Err(StencilError::Inconsistent { .. })));
+    }
+
+    #[test]
+    fn mirror_of_upwind_is_consistent() {
+        let s = Stencil::new("up", 1, vec![-1.0, 0.0], vec![-1.0, 1.0], None).unwrap();
+        let m = s.mirror();
+        let again = Stencil::new("m", 1, m.offsets.clone(), m.weights.clone(), None).unwrap();
+        assert_eq!(again.order, 1);
+    }
+}

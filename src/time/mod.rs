@@ -1,0 +1,186 @@
+//! Time integrators as maps from the spatial symbol to the amplification matrix,
+//! and their exact stability regions.
+//!
+//! * One-step methods (Runge–Kutta, θ-methods, any Butcher tableau) act through
+//!   their stability function R(z) = P(z)/Q(z): G = Q(ΔtL)⁻¹P(ΔtL), and the
+//!   eigenvalues of G are R(Δt μ) for the eigenvalues μ of L.
+//! * Linear multistep methods Σ_j α_j u^{n+j} = Δt Σ_j β_j f^{n+j} act through the
+//!   block companion matrix of size m·s; the eigenvalues of G are the roots ζ of
+//!   Σ_j (α_j − Δt μ β_j) ζ^j.
+//!
+//! `exit` computes the first-exit radius r*(φ) of each region along a ray, the
+//! quantity behind the stability limit (DESIGN.md §3).
+
+mod exit;
+pub mod methods;
+
+use nalgebra::DMatrix;
+use num_complex::Complex64 as C64;
+
+pub use methods::{builtin, method_names, MethodError};
+
+/// A one-step method through its stability function R = P/Q (ascending coefficients).
+#[derive(Debug, Clone, PartialEq)]
+pub struct OneStep {
+    /// Numerator coefficients of R.
+    pub p: Vec<f64>,
+    /// Denominator coefficients of R (q[0] = 1).
+    pub q: Vec<f64>,
+}
+
+/// A linear multistep method Σ_j α_j u^{n+j} = Δt Σ_j β_j f^{n+j}, j = 0..s.
+#[derive(Debug, Clone, PartialEq)]
+pub struct Multistep {
+    /// α_0..α_s.
+    pub alpha: Vec<f64>,
+    /// β_0..β_s.
+    pub beta: Vec<f64>,
+}
+
+/// How the method advances a linear system.
+#[derive(Debug, Clone, PartialEq)]
+pub enum Scheme {
+    /// Through a stability function.
+    OneStep(OneStep),
+    /// Through a companion matrix.
+    Multistep(Multistep),
+}
+
+/// A named time integrator.
+#[derive(Debug, Clone, PartialEq)]
+pub struct Method {
+    /// Name, as in case files.
+    pub name: String,
+    /// Order of accuracy on linear problems.
+    pub order: u32,
+    /// Whether each step needs no linear solve.
+    pub explicit: bool,
+    /// The scheme.
+    pub scheme: Scheme,
+}
+
+impl Method {
+    /// Number of time levels the state carries (1 for one-step methods).
+    pub fn levels(&self) -> usize {
+        match &self.scheme {
+            Scheme::OneStep(_) => 1,
+            Scheme::Multistep(ms) => ms.alpha.len() - 1,
+        }
+    }
+
+    /// Largest modulus among the amplification eigenvalues belonging to one
+    /// eigenvalue z = Δt μ of the spatial operator.
+    pub fn amplification_radius(&self, z: C64) -> f64 {
+        match &self.scheme {
+            Scheme::OneStep(os) => os.r(z).norm(),
+            Scheme::Multistep(ms) => {
+                crate::linalg::poly::max_root_modulus(&ms.characteristic(z)).unwrap_or(f64::NAN)
+            }
+        }
+    }
+
+    /// The amplification eigenvalues belonging to z = Δt μ (one for one-step methods,
+    /// s for multistep methods).
+    pub fn amplification_eigenvalues(&self, z: C64) -> Vec<C64> {
+        match &self.scheme {
+            Scheme::OneStep(os) => vec![os.r(z)],
+            Scheme::Multistep(ms) => {
+                let c = ms.characteristic(z);
+                let mut r = crate::linalg::poly::roots(&c)
+                    .unwrap_or_else(|_| vec![C64::new(f64::NAN, f64::NAN); self.levels()]);
+                r.resize(self.levels(), C64::new(0.0, 0.0));
+                r
+            }
+        }
+    }
+
+    /// The amplification matrix G for Z = Δt·L (size m·levels). Built from the
+    /// matrices themselves, independently of any eigenvalue computation.
+    pub fn amplification_matrix(&self, z: &DMatrix<C64>) -> DMatrix<C64> {
+        let m = z.nrows();
+        let id = DMatrix::<C64>::identity(m, m);
+        let poly = |c: &[f64]| {
+            // Horner with matrices
+            let mut acc = DMatrix::<C64>::zeros(m, m);
+            for cj in c.iter().rev() {
+                acc = &acc * z + &id * C64::new(*cj, 0.0);
+            }
+            acc
+        };
+        match &self.scheme {
+            Scheme::OneStep(os) => {
+                let p = poly(&os.p);
+                if os.q.len() == 1 {
+                    return p / C64::new(os.q[0], 0.0);
+                }
+                let q = poly(&os.q);
+                q.lu().solve(&p).unwrap_or_else(|| {
+                    DMatrix::from_element(m, m, C64::new(f64::NAN, f64::NAN))
+                })
+            }
+            Scheme::Multistep(ms) => {
+                let s = ms.alpha.len() - 1;
+                let lead = &id * C64::new(ms.alpha[s], 0.0) - z * C64::new(ms.beta[s], 0.0);
+                let lu = lead.lu();
+                let mut g = DMatrix::<C64>::zeros(m * s, m * s);
+                for c in 0..s {
+                    let j = s - 1 - c;
+                    let rhs = z * C64::new(ms.beta[j], 0.0) - &id * C64::new(ms.alpha[j], 0.0);
+                    let blk = lu.solve(&rhs).unwrap_or_else(|| {
+                        DMatrix::from_element(m, m, C64::new(f64::NAN, f64::NAN))
+                    });
+                    g.view_mut((0, c * m), (m, m)).copy_from(&blk);
+                }
+                for r in 1..s {
+                    g.view_mut((r * m, (r - 1) * m), (m, m)).copy_from(&id);
+                }
+                g
+            }
+        }
+    }
+
+    /// First-exit radius of the stability region along the ray t·w, w a unit
+    /// complex number: the largest r such that every point t·w, 0 < t < r, is
+    /// stable. `f64::INFINITY` when the whole ray is stable, 0 when points
+    /// arbitrarily close to the origin are unstable.
+    pub fn exit_radius(&self, w: C64) -> f64 {
+        match &self.scheme {
+            Scheme::OneStep(os) => exit::one_step(os, w),
+            Scheme::Multistep(ms) => exit::multistep(ms, w),
+        }
+    }
+
+    /// Stability interval on the imaginary axis, [0, y*): r* in direction +i.
+    pub fn imaginary_limit(&self) -> f64 {
+        self.exit_radius(C64::new(0.0, 1.0))
+            .min(self.exit_radius(C64::new(0.0, -1.0)))
+    }
+
+    /// Stability interval on the negative real axis, (−x*, 0]: r* in direction −1.
+    pub fn real_limit(&self) -> f64 {
+        self.exit_radius(C64::new(-1.0, 0.0))
+    }
+}
+
+impl OneStep {
+    /// R(z).
+    pub fn r(&self, z: C64) -> C64 {
+        let p = self.p.iter().rev().fold(C64::new(0.0, 0.0), |a, c| a * z + c);
+        if self.q.len() == 1 {
+            return p / self.q[0];
+        }
+        let q = self.q.iter().rev().fold(C64::new(0.0, 0.0), |a, c| a * z + c);
+        p / q
+    }
+}
+
+impl Multistep {
+    /// Coefficients of the characteristic polynomial Σ_j (α_j − z β_j) ζ^j.
+    pub fn characteristic(&self, z: C64) -> Vec<C64> {
+        self.alpha
+            .iter()
+            .zip(&self.beta)
+            .map(|(a, b)| C64::new(*a, 0.0) - z * b)
+            .collect()
+    }
+}
