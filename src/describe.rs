@@ -113,7 +113,7 @@ pub fn list_models() -> String {
 /// Built-in stencils with their properties.
 pub fn list_stencils() -> String {
     let mut s = format!(
-        "stencils\n  {:<10}{:>6}{:>7}{:>10}  {:<30}{}\n",
+        "stencils\n  {:<10}{:>6}{:>7}{:>10}  {:<46}{}\n",
         "name", "deriv", "order", "max k*h", "offsets", "description"
     );
     for (st, summary) in catalogue::all() {
@@ -121,7 +121,7 @@ pub fn list_stencils() -> String {
         let offs = format!("{:?}", st.offsets);
         let _ = writeln!(
             s,
-            "  {:<10}{:>6}{:>7}{:>10.5}  {:<30}{}",
+            "  {:<10}{:>6}{:>7}{:>10.5}  {:<46}{}",
             st.name, st.derivative, st.order, kmax, offs, summary
         );
         let w: Vec<String> = st.weights.iter().map(|w| format!("{w:.10}")).collect();
