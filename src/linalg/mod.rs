@@ -73,8 +73,11 @@ impl EigSolver {
                     return Err(LinalgError::NotConverged);
                 }
                 let mat = std::mem::replace(&mut self.work, DMatrix::zeros(0, 0));
-                let schur = nalgebra::linalg::Schur::try_new(mat, f64::EPSILON, 200 * m)
-                    .ok_or(LinalgError::NotConverged)?;
+                let Some(schur) = nalgebra::linalg::Schur::try_new(mat, 4.0 * f64::EPSILON, 1000 * m)
+                else {
+                    self.work = DMatrix::zeros(m, m);
+                    return Err(LinalgError::NotConverged);
+                };
                 let (_, t) = schur.unpack();
                 for (i, o) in out.iter_mut().enumerate() {
                     *o = t[(i, i)];

@@ -1,0 +1,162 @@
+#!/usr/bin/env python3
+"""Independent cross-check of kgain with numpy (run by .ci/run).
+
+For several cases kgain writes the spatial symbols L and amplification matrices G
+at a sample of grid wavevectors (`--set scan.matrices=N`). numpy then
+  1. recomputes the spectral radius of each G with numpy.linalg.eigvals and
+     compares it with kgain's radius map at the same node (to 1e-10);
+  2. rebuilds G from L with its own formula for the time method (Runge-Kutta
+     polynomial, Crank-Nicolson solve, multistep companion matrix) and compares;
+  3. for the peer case, rebuilds L itself from the C4 modified wavenumber;
+  4. compares kgain's whole radius map with the NumPy peer script's map, and its
+     Courant limit with the closed form 2*sqrt(2)/(M (|u.(1,1)| + c sqrt(2))),
+     M the largest C4 modified wavenumber (found here by a fine search).
+Exits non-zero on any disagreement.
+"""
+import json
+import os
+import subprocess
+import sys
+import tempfile
+
+import numpy as np
+
+ROOT = os.path.dirname(os.path.dirname(os.path.abspath(__file__)))
+KGAIN = os.path.join(ROOT, "target", "release", "kgain")
+PEER = os.path.join(ROOT, "..", "shared", "bench", "peer_sweep.py")
+failures = []
+
+
+def check(ok, what):
+    print(("ok   " if ok else "FAIL ") + what)
+    if not ok:
+        failures.append(what)
+
+
+def run(case, out, *sets):
+    cmd = [KGAIN, "run", os.path.join(ROOT, case), "--out", out, "--quiet", "--force"]
+    for s in sets:
+        cmd += ["--set", s]
+    subprocess.run(cmd, check=True)
+    load = lambda n: np.load(os.path.join(out, n + ".npy"))
+    with open(os.path.join(out, "summary.json")) as f:
+        summary = json.load(f)
+    with open(os.path.join(out, "manifest.json")) as f:
+        manifest = json.load(f)
+    return load, summary, manifest
+
+
+def rk_poly(Z, coeffs):
+    m = Z.shape[-1]
+    I = np.broadcast_to(np.eye(m), Z.shape)
+    G = np.zeros_like(Z)
+    for c in reversed(coeffs):
+        G = G @ Z + c * I
+    return G
+
+
+def companion(Z, alpha, beta):
+    """Block companion matrix of sum_j alpha_j u^{n+j} = sum_j beta_j Z u^{n+j}."""
+    k, m, _ = Z.shape
+    s = len(alpha) - 1
+    I = np.broadcast_to(np.eye(m), Z.shape)
+    lead = alpha[s] * I - beta[s] * Z
+    G = np.zeros((k, m * s, m * s), complex)
+    for c in range(s):
+        j = s - 1 - c
+        G[:, :m, c * m:(c + 1) * m] = np.linalg.solve(lead, beta[j] * Z - alpha[j] * I)
+    for r in range(1, s):
+        G[:, r * m:(r + 1) * m, (r - 1) * m:r * m] = np.eye(m)
+    return G
+
+
+METHODS = {
+    "euler": lambda Z: rk_poly(Z, [1, 1]),
+    "ssprk3": lambda Z: rk_poly(Z, [1, 1, 1 / 2, 1 / 6]),
+    "rk4": lambda Z: rk_poly(Z, [1, 1, 1 / 2, 1 / 6, 1 / 24]),
+    "crank-nicolson": lambda Z: np.linalg.solve(
+        np.eye(Z.shape[-1]) - Z / 2, np.eye(Z.shape[-1]) + Z / 2),
+    "leapfrog": lambda Z: companion(Z, [-1, 0, 1], [0, 2, 0]),
+    "ab3": lambda Z: companion(Z, [0, 0, -1, 1], [5 / 12, -16 / 12, 23 / 12, 0]),
+    "bdf2": lambda Z: companion(Z, [1 / 3, -4 / 3, 1], [0, 0, 2 / 3]),
+}
+
+
+def check_samples(case, tmp):
+    load, summary, manifest = run(case, tmp, "scan.matrices=64")
+    name = summary["name"]
+    idx = load("sample_index").astype(np.int64)
+    G = load("sample_amplification")
+    L = load("sample_symbol")
+    radius = load("radius").ravel()
+    rho = np.abs(np.linalg.eigvals(G)).max(-1)
+    err = np.abs(rho - radius[idx]).max()
+    check(err <= 1e-10, f"{name}: numpy spectral radius of G vs radius map, max diff {err:.2e}")
+    method = summary["method"]
+    Gn = METHODS[method](summary["dt"] * L)
+    gerr = (np.abs(Gn - G).max(axis=(1, 2)) / (1 + np.abs(G).max(axis=(1, 2)))).max()
+    check(gerr <= 1e-12, f"{name}: G rebuilt by numpy from L ({method}), rel diff {gerr:.2e}")
+    for key, entry in manifest["arrays"].items():
+        arr = load(key)
+        ok = list(arr.shape) == entry["shape"] and str(arr.dtype) == entry["dtype"]
+        if not ok:
+            check(False, f"{name}: manifest entry {key} matches its file")
+    return load, summary
+
+
+def peer_case():
+    with tempfile.TemporaryDirectory() as tmp:
+        case = "bench/peer-euler2d.toml"
+        load, summary = check_samples(case, os.path.join(tmp, "k"))
+        # L rebuilt from the peer's own formula at the sampled wavevectors
+        th = load("sample_theta")
+        L = load("sample_symbol")
+        rho, gam, p = 1.0, 1.4, 1 / 1.4
+        u, v = 0.5, 0.2
+        A = np.array([[u, rho, 0, 0], [0, u, 0, 1 / rho], [0, 0, u, 0], [0, gam * p, 0, u]], complex)
+        B = np.array([[v, 0, rho, 0], [0, v, 0, 0], [0, 0, v, 1 / rho], [0, 0, gam * p, v]], complex)
+        mk = lambda t: (8 * np.sin(t) - np.sin(2 * t)) / 6
+        Ln = -1j * (mk(th[:, 0])[:, None, None] * A + mk(th[:, 1])[:, None, None] * B)
+        lerr = np.abs(Ln - L).max()
+        check(lerr <= 1e-13, f"peer: symbol L rebuilt from the C4 modified wavenumber, max diff {lerr:.2e}")
+        # whole map against the NumPy peer script
+        if os.path.exists(PEER):
+            pdir = os.path.join(tmp, "peer")
+            subprocess.run([sys.executable, PEER, "radius", "--points", "129", "--out", pdir],
+                           check=True, stdout=subprocess.DEVNULL)
+            peer = np.load(os.path.join(pdir, "radius.npy"))
+            ours = load("radius")
+            d = np.abs(peer - ours).max()
+            check(np.allclose(peer, ours, rtol=0, atol=1e-9), f"peer: radius map vs peer_sweep.py, max diff {d:.2e}")
+        else:
+            check(False, f"peer script not found at {PEER}")
+        # Courant limit against the closed form
+        t = np.linspace(0, np.pi, 200001)
+        i = np.argmax(mk(t))
+        lo, hi = t[max(i - 1, 0)], t[min(i + 1, len(t) - 1)]
+        for _ in range(200):  # golden-section refinement of the maximum
+            a, b = lo + 0.382 * (hi - lo), lo + 0.618 * (hi - lo)
+            lo, hi = (a, hi) if mk(a) < mk(b) else (lo, b)
+        M = mk(0.5 * (lo + hi))
+        speed = np.hypot(u, v) + 1.0
+        closed = 2 * np.sqrt(2) / (M * ((u + v) + np.sqrt(2))) * speed
+        got = summary["limit"]["courant_max"]
+        check(abs(got - closed) <= 1e-9 * closed,
+              f"peer: Courant limit {got:.12f} vs closed form {closed:.12f}")
+
+
+def main():
+    if not os.path.exists(KGAIN):
+        sys.exit(f"build kgain first: {KGAIN} not found (cargo build --release)")
+    peer_case()
+    for case in ["cases/lake-rotating-waves.toml", "cases/feedline-telegraph.toml",
+                 "cases/harbour-dye.toml", "cases/kiln-wall-heat.toml",
+                 "cases/duct-acoustics.toml"]:
+        with tempfile.TemporaryDirectory() as tmp:
+            check_samples(case, os.path.join(tmp, "k"))
+    print(f"{len(failures)} failed" if failures else "numpy cross-check: all agree")
+    sys.exit(1 if failures else 0)
+
+
+if __name__ == "__main__":
+    main()
