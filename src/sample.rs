@@ -131,8 +131,25 @@ pub struct Node<'a> {
     pub eigenvalues: Result<&'a [C64], LinalgError>,
 }
 
+/// Whether the sweep may use the conjugate symmetry L(−θ) = conj L(θ).
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum Symmetry {
+    /// The caller's value at −θ equals its value at θ: compute half the grid
+    /// and mirror (the θ grid is symmetric, so −θ of flat index f is N−1−f).
+    Even,
+    /// Compute every node.
+    None,
+}
+
 /// Evaluates `f` at every grid node in C order.
-pub fn sweep<T, F>(op: &Operator, grid: &Grid, par: Par, bar: Option<&ProgressBar>, f: F) -> Vec<T>
+pub fn sweep<T, F>(
+    op: &Operator,
+    grid: &Grid,
+    par: Par,
+    symmetry: Symmetry,
+    bar: Option<&ProgressBar>,
+    f: F,
+) -> Vec<T>
 where
     T: Send + Clone + Default,
     F: Fn(&Node) -> T + Sync,
@@ -173,18 +190,32 @@ where
             b.inc(chunk.len() as u64);
         }
     };
+    let rows = grid.len() / row;
+    let computed_rows = match symmetry {
+        Symmetry::Even => rows.div_ceil(2),
+        Symmetry::None => rows,
+    };
+    let (head, tail) = out.split_at_mut(computed_rows * row);
     match par {
         Par::Seq => {
             let mut ws = init();
-            for item in out.chunks_mut(row).enumerate() {
+            for item in head.chunks_mut(row).enumerate() {
                 work(&mut ws, item);
             }
         }
         Par::Threads(_) => par.run(|| {
-            out.par_chunks_mut(row)
+            head.par_chunks_mut(row)
                 .enumerate()
                 .for_each_init(init, |ws, item| work(ws, item));
         }),
+    }
+    let total = grid.len();
+    for (k, slot) in tail.iter_mut().enumerate() {
+        let f = computed_rows * row + k;
+        *slot = head[total - 1 - f].clone();
+    }
+    if let Some(b) = bar {
+        b.inc(tail.len() as u64);
     }
     out
 }

@@ -189,52 +189,92 @@ pub fn overall(op: &Operator, exits: &ExitTimes, grid: &Grid, nodes: &[(f64, f64
 }
 
 /// The limit along each direction: min over the ray θ = s n, 0 < s ≤ s_max.
-/// Returns, per direction, Δt and the wavevector that sets it.
+/// Returns, per direction, Δt and the wavevector that sets it. With `even`
+/// (a real-coefficient scheme), directions n and −n share their limit, and a
+/// direction whose opposite is also in the list is computed once.
 pub fn by_direction(
     op: &Operator,
     exits: &ExitTimes,
     directions: &[Vec<f64>],
     samples: usize,
+    even: bool,
     bar: Option<&indicatif::ProgressBar>,
 ) -> Vec<(f64, Vec<f64>)> {
-    directions
+    let opposite: Vec<Option<usize>> = directions
+        .iter()
+        .enumerate()
+        .map(|(i, n)| {
+            if !even {
+                return None;
+            }
+            directions[..i].iter().position(|o| {
+                o.iter().zip(n).all(|(a, b)| (a + b).abs() <= 1e-12)
+            })
+        })
+        .collect();
+    let computed: Vec<(f64, Vec<f64>)> = directions
         .par_iter()
-        .map(|n| {
-            let eval = Evaluator::new(op, exits);
-            let smax = ray_length(n);
-            let at = |s: f64| -> Vec<f64> { n.iter().map(|x| x * s).collect() };
-            let mut best = (f64::INFINITY, 1usize);
-            for k in 1..=samples {
-                let v = eval.estimate(&at(smax * k as f64 / samples as f64));
-                if v < best.0 {
-                    best = (v, k);
+        .zip(&opposite)
+        .map(|(n, opp)| {
+            if opp.is_some() {
+                if let Some(b) = bar {
+                    b.inc(1);
                 }
+                return (f64::NAN, Vec::new());
             }
-            if let Some(b) = bar {
-                b.inc(1);
-            }
-            let k = best.1;
-            let s_k = smax * k as f64 / samples as f64;
-            let exact_k = eval.exact(&at(s_k));
-            if !(exact_k.is_finite() && exact_k > 0.0) {
-                return (exact_k, at(s_k));
-            }
-            let lo = smax * (k - 1) as f64 / samples as f64;
-            let hi = (smax * (k + 1) as f64 / samples as f64).min(smax);
-            let g = |s: f64| {
-                let v = eval.exact(&at(s));
-                if v.is_nan() {
-                    f64::INFINITY
-                } else {
-                    v
-                }
-            };
-            let (s, v) = golden_minimise(&g, lo.max(1e-12 * smax), hi);
-            if v < exact_k {
-                (v, at(s))
-            } else {
-                (exact_k, at(s_k))
-            }
+            ray_limit(op, exits, n, samples, bar)
+        })
+        .collect();
+    computed
+        .iter()
+        .zip(&opposite)
+        .map(|(c, opp)| match opp {
+            Some(j) => (computed[*j].0, computed[*j].1.iter().map(|x| -x).collect()),
+            None => c.clone(),
         })
         .collect()
+}
+
+fn ray_limit(
+    op: &Operator,
+    exits: &ExitTimes,
+    n: &[f64],
+    samples: usize,
+    bar: Option<&indicatif::ProgressBar>,
+) -> (f64, Vec<f64>) {
+    let eval = Evaluator::new(op, exits);
+    let smax = ray_length(n);
+    let at = |s: f64| -> Vec<f64> { n.iter().map(|x| x * s).collect() };
+    let mut best = (f64::INFINITY, 1usize);
+    for k in 1..=samples {
+        let v = eval.estimate(&at(smax * k as f64 / samples as f64));
+        if v < best.0 {
+            best = (v, k);
+        }
+    }
+    if let Some(b) = bar {
+        b.inc(1);
+    }
+    let k = best.1;
+    let s_k = smax * k as f64 / samples as f64;
+    let exact_k = eval.exact(&at(s_k));
+    if !(exact_k.is_finite() && exact_k > 0.0) {
+        return (exact_k, at(s_k));
+    }
+    let lo = smax * (k - 1) as f64 / samples as f64;
+    let hi = (smax * (k + 1) as f64 / samples as f64).min(smax);
+    let g = |s: f64| {
+        let v = eval.exact(&at(s));
+        if v.is_nan() {
+            f64::INFINITY
+        } else {
+            v
+        }
+    };
+    let (s, v) = golden_minimise(&g, lo.max(1e-12 * smax), hi);
+    if v < exact_k {
+        (v, at(s))
+    } else {
+        (exact_k, at(s_k))
+    }
 }

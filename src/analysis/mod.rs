@@ -148,7 +148,14 @@ pub fn analyse(case: &Case, opts: &Options) -> Result<Results, OperatorError> {
     let want_radius = case.scan.analyses.contains(&Analysis::Radius);
     let want_limit = case.scan.analyses.contains(&Analysis::Limit);
     let bar = progress_bar(grid.len() as u64, "wavevectors", opts.progress);
-    let nodes: Vec<(f64, f64, f64)> = sample::sweep(&op, &grid, opts.par, Some(&bar), |node| {
+    // Real coefficients: eig L(−θ) = conj eig L(θ), and every method here has a
+    // real stability function, so radius and first-exit times are even in θ.
+    let symmetry = if op.real_coefficients {
+        sample::Symmetry::Even
+    } else {
+        sample::Symmetry::None
+    };
+    let nodes: Vec<(f64, f64, f64)> = sample::sweep(&op, &grid, opts.par, symmetry, Some(&bar), |node| {
         match node.eigenvalues {
             Err(_) => (f64::NAN, f64::NAN, 0.0),
             Ok(eig) => {
@@ -193,9 +200,9 @@ pub fn analyse(case: &Case, opts: &Options) -> Result<Results, OperatorError> {
         let dirs = directions(dims, case.scan.directions);
         let per_ray = (grid.points.iter().max().copied().unwrap_or(2) / 2).max(16);
         let dbar = progress_bar(dirs.len() as u64, "directions", opts.progress);
-        let res = opts
-            .par
-            .run(|| limit::by_direction(&op, &exits, &dirs, per_ray, Some(&dbar)));
+        let res = opts.par.run(|| {
+            limit::by_direction(&op, &exits, &dirs, per_ray, op.real_coefficients, Some(&dbar))
+        });
         dbar.finish_and_clear();
         let (dt, wavevector) = res.into_iter().unzip();
         (
