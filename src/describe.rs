@@ -28,7 +28,12 @@ pub fn check(case: &Case) -> Result<String, OperatorError> {
     if let Some(d) = &case.description {
         let _ = writeln!(s, "description   {d}");
     }
-    let _ = writeln!(s, "dimensions    {} (spacing {:?})", case.dims(), case.spacing);
+    let _ = writeln!(
+        s,
+        "dimensions    {} (spacing {:?})",
+        case.dims(),
+        case.spacing
+    );
     let _ = writeln!(s, "model         {}", case.system.kind);
     let _ = writeln!(s, "variables     {}", case.system.variables.join(", "));
     let _ = writeln!(
@@ -42,7 +47,11 @@ pub fn check(case: &Case) -> Result<String, OperatorError> {
     }
     let _ = writeln!(s, "stencils");
     for (d, st) in case.space.first.iter().enumerate() {
-        let kind = if st.is_central() { "central" } else { "biased, upwinded" };
+        let kind = if st.is_central() {
+            "central"
+        } else {
+            "biased, upwinded"
+        };
         let _ = writeln!(
             s,
             "  first  axis {d}: {} (order {}, {kind}, offsets {:?})",
@@ -76,7 +85,9 @@ pub fn check(case: &Case) -> Result<String, OperatorError> {
     let _ = writeln!(
         s,
         "time step     dt = {dt:.6e}{}",
-        case.courant_of(dt).map(|c| format!(" (Courant {c:.6})")).unwrap_or_default()
+        case.courant_of(dt)
+            .map(|c| format!(" (Courant {c:.6})"))
+            .unwrap_or_default()
     );
     let sample: Vec<f64> = (0..case.dims()).map(|d| [0.7, 1.3, 2.1][d]).collect();
     let l = op.symbol_matrix(&sample);
@@ -101,8 +112,16 @@ pub fn list_models() -> String {
     let mut s = String::from("models (variables; keys)\n");
     for (k, v, keys) in [
         ("advection", "q", "velocity, diffusivity"),
-        ("acoustics", "p, u[, v, w]", "sound_speed, density, velocity"),
-        ("euler", "rho, u[, v, w], p", "density, velocity, pressure, gamma"),
+        (
+            "acoustics",
+            "p, u[, v, w]",
+            "sound_speed, density, velocity",
+        ),
+        (
+            "euler",
+            "rho, u[, v, w], p",
+            "density, velocity, pressure, gamma",
+        ),
         ("linear", "user-named", "variables, flux, diffusion, source"),
     ] {
         let _ = writeln!(s, "  {k:<12}{v:<20}{keys}");

@@ -12,7 +12,11 @@ use std::path::PathBuf;
 use std::process::ExitCode;
 
 #[derive(Parser, Debug)]
-#[command(name = "kgain", version, about = "Fourier stability and dispersion analysis of grid-based PDE schemes")]
+#[command(
+    name = "kgain",
+    version,
+    about = "Fourier stability and dispersion analysis of grid-based PDE schemes"
+)]
 struct Cli {
     #[command(subcommand)]
     command: Command,
@@ -140,7 +144,8 @@ fn run(cli: Cli) -> Result<(), Failure> {
         } => {
             let case = Case::load(&case, &set).map_err(|e| Failure::Input(e.to_string()))?;
             let out = out.unwrap_or_else(|| PathBuf::from("output").join(&case.name));
-            report::check_destination(&out, &case, force).map_err(|e| Failure::Input(e.to_string()))?;
+            report::check_destination(&out, &case, force)
+                .map_err(|e| Failure::Input(e.to_string()))?;
             let opts = Options {
                 par: match threads {
                     Some(0) => return Err(Failure::Input("--threads must be at least 1".into())),
@@ -151,7 +156,8 @@ fn run(cli: Cli) -> Result<(), Failure> {
             };
             let results = analysis::analyse(&case, &opts)
                 .map_err(|e| Failure::Input(format!("{}: {e}", case.file.display())))?;
-            let written = report::write(&out, &case, &results).map_err(|e| Failure::Other(e.to_string()))?;
+            let written =
+                report::write(&out, &case, &results).map_err(|e| Failure::Other(e.to_string()))?;
             if json {
                 let s = report::summary_json(&case, &results);
                 emit(&(serde_json::to_string_pretty(&s).expect("JSON serialises") + "\n"));
@@ -159,10 +165,10 @@ fn run(cli: Cli) -> Result<(), Failure> {
                 emit(&report::human_summary(&case, &results, Some(&written)));
             }
             let unstable = results.radius.as_ref().is_some_and(|r| !r.stable)
-                || results
-                    .limit
-                    .as_ref()
-                    .is_some_and(|l| l.kind == analysis::LimitKind::None || (l.kind == analysis::LimitKind::Bounded && results.dt > l.dt_max));
+                || results.limit.as_ref().is_some_and(|l| {
+                    l.kind == analysis::LimitKind::None
+                        || (l.kind == analysis::LimitKind::Bounded && results.dt > l.dt_max)
+                });
             if require_stable && unstable {
                 return Err(Failure::Unstable);
             }

@@ -138,10 +138,10 @@ impl Operator {
             }
         };
         let axis_name = |d: usize| ["x", "y", "z"][d];
-        for d in 0..dims {
+        for (d, &hd) in h.iter().enumerate() {
             let a = &sys.flux[d];
             let st = &space.first[d];
-            let scale = -1.0 / h[d];
+            let scale = -1.0 / hd;
             if st.is_central() {
                 push(
                     d,
@@ -153,7 +153,8 @@ impl Operator {
                     format!("-A_{} d/d{} ({})", axis_name(d), axis_name(d), st.name),
                 );
             } else {
-                let (ap, am) = split_flux(a, space.upwind).ok_or(OperatorError::NotDiagonalisable { axis: d })?;
+                let (ap, am) = split_flux(a, space.upwind)
+                    .ok_or(OperatorError::NotDiagonalisable { axis: d })?;
                 push(
                     d,
                     ap,
@@ -181,7 +182,7 @@ impl Operator {
                 k.clone(),
                 Factor::Stencil {
                     stencil: st2.clone(),
-                    scale: 1.0 / (h[d] * h[d]),
+                    scale: 1.0 / (hd * hd),
                 },
                 format!("K_{} d2/d{}2 ({})", axis_name(d), axis_name(d), st2.name),
             );
@@ -190,7 +191,7 @@ impl Operator {
                     d,
                     DMatrix::identity(m, m),
                     Factor::Dissipation {
-                        coeff: dis.strength * sys.reference_speed / h[d],
+                        coeff: dis.strength * sys.reference_speed / hd,
                         order: dis.order,
                     },
                     format!(
@@ -264,21 +265,22 @@ impl Operator {
 fn split_flux(a: &DMatrix<C64>, how: Upwind) -> Option<(DMatrix<C64>, DMatrix<C64>)> {
     let m = a.nrows();
     let half = C64::new(0.5, 0.0);
-    let abs_a = match how {
-        Upwind::Rusanov => {
-            let rho = crate::linalg::spectral_radius(&flat(a), m).ok()?;
-            DMatrix::identity(m, m) * C64::new(rho, 0.0)
-        }
-        Upwind::Characteristic => {
-            let cluster = 1e-9 * a.norm().max(1e-300);
-            crate::linalg::diagonalisable_function(a, cluster, |l| {
-                if l.re >= 0.0 {
-                    l
-                } else {
-                    -l
-                }
-            })?
-        }
-    };
+    let abs_a =
+        match how {
+            Upwind::Rusanov => {
+                let rho = crate::linalg::spectral_radius(&flat(a), m).ok()?;
+                DMatrix::identity(m, m) * C64::new(rho, 0.0)
+            }
+            Upwind::Characteristic => {
+                let cluster = 1e-9 * a.norm().max(1e-300);
+                crate::linalg::diagonalisable_function(a, cluster, |l| {
+                    if l.re >= 0.0 {
+                        l
+                    } else {
+                        -l
+                    }
+                })?
+            }
+        };
     Some(((a + &abs_a) * half, (a - &abs_a) * half))
 }

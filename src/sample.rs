@@ -55,7 +55,10 @@ pub struct Grid {
 impl Grid {
     /// A grid with the given number of points per axis (each ≥ 2).
     pub fn new(points: &[usize]) -> Grid {
-        assert!(points.iter().all(|&n| n >= 2), "grid axes need at least 2 points");
+        assert!(
+            points.iter().all(|&n| n >= 2),
+            "grid axes need at least 2 points"
+        );
         Grid {
             points: points.to_vec(),
             coords: points.iter().map(|&n| axis_coords(n)).collect(),
@@ -82,10 +85,7 @@ impl Grid {
 
     /// θ at per-axis indices.
     pub fn theta(&self, idx: &[usize]) -> Vec<f64> {
-        idx.iter()
-            .zip(&self.coords)
-            .map(|(i, c)| c[*i])
-            .collect()
+        idx.iter().zip(&self.coords).map(|(i, c)| c[*i]).collect()
     }
 
     /// Spacing of axis d.

@@ -156,7 +156,9 @@ pub fn overall(op: &Operator, exits: &ExitTimes, grid: &Grid, nodes: &[(f64, f64
             wavevector: best_theta,
         };
     }
-    let step = (0..dims).map(|d| grid.step(d)).fold(f64::INFINITY, f64::min);
+    let step = (0..dims)
+        .map(|d| grid.step(d))
+        .fold(f64::INFINITY, f64::min);
     let f = |x: &[f64]| {
         let v = eval.exact(x);
         if v.is_nan() {
@@ -207,9 +209,9 @@ pub fn by_direction(
             if !even {
                 return None;
             }
-            directions[..i].iter().position(|o| {
-                o.iter().zip(n).all(|(a, b)| (a + b).abs() <= 1e-12)
-            })
+            directions[..i]
+                .iter()
+                .position(|o| o.iter().zip(n).all(|(a, b)| (a + b).abs() <= 1e-12))
         })
         .collect();
     let computed: Vec<(f64, Vec<f64>)> = directions

@@ -96,9 +96,9 @@ pub fn progress_bar(len: u64, msg: &str, show: bool) -> ProgressBar {
         return ProgressBar::hidden();
     }
     let bar = ProgressBar::with_draw_target(Some(len), ProgressDrawTarget::stderr());
-    if let Ok(style) = ProgressStyle::with_template(
-        "{msg:>12} [{bar:36}] {percent:>3}% {per_sec:>12} eta {eta}",
-    ) {
+    if let Ok(style) =
+        ProgressStyle::with_template("{msg:>12} [{bar:36}] {percent:>3}% {per_sec:>12} eta {eta}")
+    {
         bar.set_style(style.progress_chars("=> "));
     }
     bar.set_message(msg.to_string());
@@ -155,8 +155,13 @@ pub fn analyse(case: &Case, opts: &Options) -> Result<Results, OperatorError> {
     } else {
         sample::Symmetry::None
     };
-    let nodes: Vec<(f64, f64, f64)> = sample::sweep(&op, &grid, opts.par, symmetry, Some(&bar), |node| {
-        match node.eigenvalues {
+    let nodes: Vec<(f64, f64, f64)> = sample::sweep(
+        &op,
+        &grid,
+        opts.par,
+        symmetry,
+        Some(&bar),
+        |node| match node.eigenvalues {
             Err(_) => (f64::NAN, f64::NAN, 0.0),
             Ok(eig) => {
                 let radius = if want_radius {
@@ -173,19 +178,18 @@ pub fn analyse(case: &Case, opts: &Options) -> Result<Results, OperatorError> {
                 };
                 (radius, t, w)
             }
-        }
-    });
+        },
+    );
     bar.finish_and_clear();
     let failures = nodes.iter().filter(|n| n.0.is_nan()).count();
     let dims = grid.points.len();
     let mut idx = vec![0usize; dims];
     let radius = want_radius.then(|| {
         let map: Vec<f64> = nodes.iter().map(|n| n.0).collect();
-        let (imax, max) = map
-            .iter()
-            .enumerate()
-            .filter(|(_, v)| !v.is_nan())
-            .fold((0, f64::NEG_INFINITY), |b, (i, v)| if *v > b.1 { (i, *v) } else { b });
+        let (imax, max) = map.iter().enumerate().filter(|(_, v)| !v.is_nan()).fold(
+            (0, f64::NEG_INFINITY),
+            |b, (i, v)| if *v > b.1 { (i, *v) } else { b },
+        );
         grid.unravel(imax, &mut idx);
         RadiusResult {
             max,
@@ -201,7 +205,14 @@ pub fn analyse(case: &Case, opts: &Options) -> Result<Results, OperatorError> {
         let per_ray = (grid.points.iter().max().copied().unwrap_or(2) / 2).max(16);
         let dbar = progress_bar(dirs.len() as u64, "directions", opts.progress);
         let res = opts.par.run(|| {
-            limit::by_direction(&op, &exits, &dirs, per_ray, op.real_coefficients, Some(&dbar))
+            limit::by_direction(
+                &op,
+                &exits,
+                &dirs,
+                per_ray,
+                op.real_coefficients,
+                Some(&dbar),
+            )
         });
         dbar.finish_and_clear();
         let (dt, wavevector) = res.into_iter().unzip();
@@ -252,7 +263,9 @@ fn sample_matrices(case: &Case, op: &Operator, grid: &Grid, dt: f64) -> Samples 
         grid.unravel(i, &mut idx);
         let th = grid.theta(&idx);
         let l = op.symbol_matrix(&th);
-        let g = case.method.amplification_matrix(&(l.clone() * C64::new(dt, 0.0)));
+        let g = case
+            .method
+            .amplification_matrix(&(l.clone() * C64::new(dt, 0.0)));
         size = g.nrows();
         symbol.push(crate::linalg::from_matrix(&l));
         amplification.push(crate::linalg::from_matrix(&g));

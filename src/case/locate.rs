@@ -41,10 +41,7 @@ pub fn apply_overrides(text: &str, file: &str, overrides: &[String]) -> Result<S
         return Ok(text.to_string());
     }
     let mut doc: DocumentMut = text.parse().map_err(|e: toml_edit::TomlError| {
-        let (line, col) = e
-            .span()
-            .map(|s| line_col(text, s.start))
-            .unwrap_or((1, 1));
+        let (line, col) = e.span().map(|s| line_col(text, s.start)).unwrap_or((1, 1));
         CaseError::Syntax {
             file: file.to_string(),
             line,

@@ -68,7 +68,9 @@ fn at(line: &Option<(usize, usize)>) -> String {
 }
 
 fn hint_text(hint: &Option<String>) -> String {
-    hint.as_ref().map(|h| format!(" (hint: {h})")).unwrap_or_default()
+    hint.as_ref()
+        .map(|h| format!(" (hint: {h})"))
+        .unwrap_or_default()
 }
 
 /// The time step as the case gives it.

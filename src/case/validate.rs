@@ -42,7 +42,12 @@ impl Ctx<'_> {
         }
     }
 
-    fn err_hint(&self, key: &str, message: impl Into<String>, hint: impl Into<String>) -> CaseError {
+    fn err_hint(
+        &self,
+        key: &str,
+        message: impl Into<String>,
+        hint: impl Into<String>,
+    ) -> CaseError {
         let mut e = self.err(key, message);
         if let CaseError::Invalid { hint: h, .. } = &mut e {
             *h = Some(hint.into());
@@ -50,7 +55,7 @@ impl Ctx<'_> {
         e
     }
 
-    fn unknown<'c>(&self, key: &str, what: &str, got: &str, valid: &[&'c str]) -> CaseError {
+    fn unknown(&self, key: &str, what: &str, got: &str, valid: &[&str]) -> CaseError {
         let list = valid.join(", ");
         match nearest(got, valid.iter().copied()) {
             Some(n) => self.err_hint(
@@ -58,7 +63,11 @@ impl Ctx<'_> {
                 format!("unknown {what} '{got}'"),
                 format!("did you mean '{n}'? valid: {list}"),
             ),
-            None => self.err_hint(key, format!("unknown {what} '{got}'"), format!("valid: {list}")),
+            None => self.err_hint(
+                key,
+                format!("unknown {what} '{got}'"),
+                format!("valid: {list}"),
+            ),
         }
     }
 
@@ -183,12 +192,19 @@ fn model(cx: &Ctx, m: &RawModel, dims: usize) -> Result<System, CaseError> {
         }
     }
     let need = |key: &str, v: Option<f64>| {
-        v.ok_or_else(|| cx.err(&format!("model.{key}"), format!("is required for model kind '{kind}'")))
+        v.ok_or_else(|| {
+            cx.err(
+                &format!("model.{key}"),
+                format!("is required for model kind '{kind}'"),
+            )
+        })
     };
     let velocity = |required: bool| -> Result<Vec<f64>, CaseError> {
         match &m.velocity {
             Some(v) => cx.per_axis("model.velocity", v, dims),
-            None if required => Err(cx.err("model.velocity", "is required for model kind 'advection'")),
+            None if required => {
+                Err(cx.err("model.velocity", "is required for model kind 'advection'"))
+            }
             None => Ok(vec![0.0; dims]),
         }
     };
@@ -224,7 +240,10 @@ fn model(cx: &Ctx, m: &RawModel, dims: usize) -> Result<System, CaseError> {
 
 fn matrix(cx: &Ctx, key: &str, raw: &RawMatrix, n: usize) -> Result<DMatrix<C64>, CaseError> {
     if raw.len() != n || raw.iter().any(|r| r.len() != n) {
-        return Err(cx.err(key, format!("must be a {n}×{n} matrix (one row per variable)")));
+        return Err(cx.err(
+            key,
+            format!("must be a {n}×{n} matrix (one row per variable)"),
+        ));
     }
     let mut out = DMatrix::zeros(n, n);
     for (i, row) in raw.iter().enumerate() {
@@ -251,20 +270,21 @@ fn linear(cx: &Ctx, m: &RawModel, dims: usize) -> Result<System, CaseError> {
         return Err(cx.err("model.variables", "needs between 1 and 16 variable names"));
     }
     let n = vars.len();
-    let per_axis = |key: &str, list: &Option<Vec<RawMatrix>>, required: bool| {
-        match list {
-            None if required => Err(cx.err(key, "is required for model kind 'linear'")),
-            None => Ok((0..dims).map(|_| DMatrix::zeros(n, n)).collect()),
-            Some(l) if l.len() != dims => Err(cx.err(
-                key,
-                format!("needs one {n}×{n} matrix per axis ({dims}), got {}", l.len()),
-            )),
-            Some(l) => l
-                .iter()
-                .enumerate()
-                .map(|(d, a)| matrix(cx, &format!("{key}.{d}"), a, n))
-                .collect(),
-        }
+    let per_axis = |key: &str, list: &Option<Vec<RawMatrix>>, required: bool| match list {
+        None if required => Err(cx.err(key, "is required for model kind 'linear'")),
+        None => Ok((0..dims).map(|_| DMatrix::zeros(n, n)).collect()),
+        Some(l) if l.len() != dims => Err(cx.err(
+            key,
+            format!(
+                "needs one {n}×{n} matrix per axis ({dims}), got {}",
+                l.len()
+            ),
+        )),
+        Some(l) => l
+            .iter()
+            .enumerate()
+            .map(|(d, a)| matrix(cx, &format!("{key}.{d}"), a, n))
+            .collect(),
     };
     let flux = per_axis("model.flux", &m.flux, true)?;
     let diffusion = per_axis("model.diffusion", &m.diffusion, false)?;
@@ -292,8 +312,14 @@ fn user_stencils(cx: &Ctx, s: &RawSpace) -> Result<BTreeMap<String, Stencil>, Ca
         if !(1..=2).contains(&r.derivative) {
             return Err(cx.err(&format!("{key}.derivative"), "must be 1 or 2"));
         }
-        let st = Stencil::new(name, r.derivative as u32, r.offsets.clone(), r.weights.clone(), implicit)
-            .map_err(|e| cx.err(&key, e.to_string()))?;
+        let st = Stencil::new(
+            name,
+            r.derivative as u32,
+            r.offsets.clone(),
+            r.weights.clone(),
+            implicit,
+        )
+        .map_err(|e| cx.err(&key, e.to_string()))?;
         out.insert(name.clone(), st);
     }
     Ok(out)
@@ -314,7 +340,10 @@ fn stencils(
         Some(OneOrMany::Many(v)) => {
             return Err(cx.err(
                 key,
-                format!("needs one stencil name or one per axis ({dims}), got {}", v.len()),
+                format!(
+                    "needs one stencil name or one per axis ({dims}), got {}",
+                    v.len()
+                ),
             ))
         }
     };
@@ -356,14 +385,22 @@ fn space(cx: &Ctx, s: &RawSpace, dims: usize, kind: &str) -> Result<Space, CaseE
         "characteristic" => Upwind::Characteristic,
         "rusanov" => Upwind::Rusanov,
         other => {
-            return Err(cx.unknown("space.upwind", "upwinding", other, &["characteristic", "rusanov"]))
+            return Err(cx.unknown(
+                "space.upwind",
+                "upwinding",
+                other,
+                &["characteristic", "rusanov"],
+            ))
         }
     };
     let dissipation = match &s.dissipation {
         None => None,
         Some(d) => {
             if d.order < 2 || d.order % 2 != 0 || d.order > 16 {
-                return Err(cx.err("space.dissipation.order", "must be an even power between 2 and 16"));
+                return Err(cx.err(
+                    "space.dissipation.order",
+                    "must be an even power between 2 and 16",
+                ));
             }
             let strength = cx.finite("space.dissipation.strength", d.strength)?;
             if strength < 0.0 {
@@ -381,7 +418,11 @@ fn space(cx: &Ctx, s: &RawSpace, dims: usize, kind: &str) -> Result<Space, CaseE
         return Err(cx.unknown("space.arrangement", "arrangement", arrangement, &all));
     }
     if arrangement != "collocated" && arrangement != "a" {
-        let owner = if arrangement == "yee" { "maxwell" } else { "shallow-water" };
+        let owner = if arrangement == "yee" {
+            "maxwell"
+        } else {
+            "shallow-water"
+        };
         return Err(cx.err_hint(
             "space.arrangement",
             format!("arrangement '{arrangement}' belongs to the {owner} model; model '{kind}' is collocated"),
@@ -403,7 +444,9 @@ fn method(cx: &Ctx, t: &RawTime) -> Result<Method, CaseError> {
     if COMPOSITE_METHODS.contains(&name) {
         return Err(cx.err(
             "time.method",
-            format!("method '{name}' (a composite scheme) is not available in this version of kgain"),
+            format!(
+                "method '{name}' (a composite scheme) is not available in this version of kgain"
+            ),
         ));
     }
     if let Some(s) = t.splitting.as_deref() {
@@ -415,11 +458,21 @@ fn method(cx: &Ctx, t: &RawTime) -> Result<Method, CaseError> {
                     format!("dimension splitting '{s}' is not available in this version of kgain"),
                 ))
             }
-            other => return Err(cx.unknown("time.splitting", "splitting", other, &["none", "lie", "strang"])),
+            other => {
+                return Err(cx.unknown(
+                    "time.splitting",
+                    "splitting",
+                    other,
+                    &["none", "lie", "strang"],
+                ))
+            }
         }
     }
     if t.first.is_some() {
-        return Err(cx.err("time.first", "is only used with method = \"forward-backward\""));
+        return Err(cx.err(
+            "time.first",
+            "is only used with method = \"forward-backward\"",
+        ));
     }
     if name != "theta" && t.theta.is_some() {
         return Err(cx.err("time.theta", "is only used with method = \"theta\""));
@@ -441,7 +494,9 @@ fn method(cx: &Ctx, t: &RawTime) -> Result<Method, CaseError> {
                 .ok_or_else(|| cx.err("time.tableau", "is required for method = \"tableau\""))?;
             if let Some(c) = &tb.c {
                 let rows_ok = c.len() == tb.a.len()
-                    && c.iter().zip(&tb.a).all(|(ci, row)| (ci - row.iter().sum::<f64>()).abs() <= 1e-10);
+                    && c.iter()
+                        .zip(&tb.a)
+                        .all(|(ci, row)| (ci - row.iter().sum::<f64>()).abs() <= 1e-10);
                 if !rows_ok {
                     return Err(cx.err(
                         "time.tableau.c",
@@ -451,7 +506,8 @@ fn method(cx: &Ctx, t: &RawTime) -> Result<Method, CaseError> {
             }
             time::methods::tableau(&tb.a, &tb.b).map_err(|e| cx.err("time.tableau", e.to_string()))
         }
-        _ => time::builtin(name).ok_or_else(|| cx.unknown("time.method", "time method", name, &valid)),
+        _ => time::builtin(name)
+            .ok_or_else(|| cx.unknown("time.method", "time method", name, &valid)),
     }
 }
 
@@ -497,7 +553,10 @@ fn scan(cx: &Ctx, s: &RawScan, dims: usize) -> Result<Scan, CaseError> {
     };
     for (i, n) in points.iter().enumerate() {
         if *n < 2 {
-            return Err(cx.err(&format!("scan.points.{i}"), format!("must be at least 2, got {n}")));
+            return Err(cx.err(
+                &format!("scan.points.{i}"),
+                format!("must be at least 2, got {n}"),
+            ));
         }
     }
     let points: Vec<usize> = points.iter().map(|&n| n as usize).collect();

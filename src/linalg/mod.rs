@@ -73,7 +73,8 @@ impl EigSolver {
                     return Err(LinalgError::NotConverged);
                 }
                 let mat = std::mem::replace(&mut self.work, DMatrix::zeros(0, 0));
-                let Some(schur) = nalgebra::linalg::Schur::try_new(mat, 4.0 * f64::EPSILON, 1000 * m)
+                let Some(schur) =
+                    nalgebra::linalg::Schur::try_new(mat, 4.0 * f64::EPSILON, 1000 * m)
                 else {
                     self.work = DMatrix::zeros(m, m);
                     return Err(LinalgError::NotConverged);
@@ -175,7 +176,7 @@ pub fn diagonalisable_function(
         let mut term = id.clone() * f(*li);
         for (j, lj) in distinct.iter().enumerate() {
             if i != j {
-                term = term * ((a - &id * *lj) / (li - lj));
+                term *= (a - &id * *lj) / (li - lj);
             }
         }
         out += term;

@@ -100,7 +100,10 @@ pub fn advection(velocity: &[f64], diffusivity: &[f64]) -> System {
 }
 
 fn velocity_names(dims: usize) -> Vec<String> {
-    ["u", "v", "w"][..dims].iter().map(|s| s.to_string()).collect()
+    ["u", "v", "w"][..dims]
+        .iter()
+        .map(|s| s.to_string())
+        .collect()
 }
 
 /// Linear acoustics p_t + U·∇p + ρc²∇·u = 0, u_t + U·∇u + ∇p/ρ = 0.
@@ -126,7 +129,14 @@ pub fn acoustics(sound_speed: f64, density: f64, mean_flow: &[f64]) -> System {
     vars.extend(velocity_names(dims));
     let speed = mean_flow.iter().map(|a| a * a).sum::<f64>().sqrt() + sound_speed;
     let zero = (0..dims).map(|_| real(m, |_, _| 0.0)).collect();
-    System::from_parts("acoustics", vars, flux, zero, real(m, |_, _| 0.0), Some(speed))
+    System::from_parts(
+        "acoustics",
+        vars,
+        flux,
+        zero,
+        real(m, |_, _| 0.0),
+        Some(speed),
+    )
 }
 
 /// Linearised Euler equations in primitive variables (ρ, u.., p).

@@ -29,7 +29,10 @@ impl Writer<'_> {
             .iter()
             .map(|d| {
                 let file = if AXES.contains(d) || *d == "direction" {
-                    Value::from(format!("{}.npy", if *d == "direction" { "directions" } else { d }))
+                    Value::from(format!(
+                        "{}.npy",
+                        if *d == "direction" { "directions" } else { d }
+                    ))
                 } else {
                     Value::Null
                 };
@@ -50,7 +53,13 @@ impl Writer<'_> {
         );
     }
 
-    fn real(&mut self, name: &str, shape: &[usize], data: Vec<f64>, meta: Meta) -> Result<(), ReportError> {
+    fn real(
+        &mut self,
+        name: &str,
+        shape: &[usize],
+        data: Vec<f64>,
+        meta: Meta,
+    ) -> Result<(), ReportError> {
         let path = self.dir.join(format!("{name}.npy"));
         let arr = ArrayD::from_shape_vec(IxDyn(shape), data).expect("shape matches data");
         ndarray_npy::write_npy(&path, &arr).map_err(|e| ReportError::Npy {
@@ -61,7 +70,13 @@ impl Writer<'_> {
         Ok(())
     }
 
-    fn complex(&mut self, name: &str, shape: &[usize], data: Vec<C64>, meta: Meta) -> Result<(), ReportError> {
+    fn complex(
+        &mut self,
+        name: &str,
+        shape: &[usize],
+        data: Vec<C64>,
+        meta: Meta,
+    ) -> Result<(), ReportError> {
         let path = self.dir.join(format!("{name}.npy"));
         let arr = ArrayD::from_shape_vec(IxDyn(shape), data).expect("shape matches data");
         ndarray_npy::write_npy(&path, &arr).map_err(|e| ReportError::Npy {
@@ -89,7 +104,11 @@ pub fn write_arrays(dir: &Path, case: &Case, r: &Results) -> Result<Value, Repor
             Meta {
                 dims: vec![AXES[d]],
                 units: "radian",
-                long_name: ["wavevector k_x h_x", "wavevector k_y h_y", "wavevector k_z h_z"][d],
+                long_name: [
+                    "wavevector k_x h_x",
+                    "wavevector k_y h_y",
+                    "wavevector k_z h_z",
+                ][d],
             },
         )?;
     }
@@ -120,11 +139,17 @@ pub fn write_arrays(dir: &Path, case: &Case, r: &Results) -> Result<Value, Repor
                 },
             )?;
         } else {
-            let ang: Vec<f64> = dl.directions.iter().map(|v| v.get(1).copied().unwrap_or(0.0).atan2(v[0])).collect();
+            let ang: Vec<f64> = dl
+                .directions
+                .iter()
+                .map(|v| v.get(1).copied().unwrap_or(0.0).atan2(v[0]))
+                .collect();
             w.real(
                 "directions",
                 &[n],
-                ang.iter().map(|a| a.rem_euclid(std::f64::consts::TAU)).collect(),
+                ang.iter()
+                    .map(|a| a.rem_euclid(std::f64::consts::TAU))
+                    .collect(),
                 Meta {
                     dims: vec!["direction"],
                     units: "radian",
@@ -208,7 +233,8 @@ pub fn write_arrays(dir: &Path, case: &Case, r: &Results) -> Result<Value, Repor
             Meta {
                 dims: vec!["sample", "row", "col"],
                 units: "1",
-                long_name: "amplification matrix G at the sampled wavevectors and the case time step",
+                long_name:
+                    "amplification matrix G at the sampled wavevectors and the case time step",
             },
         )?;
     }

@@ -22,11 +22,18 @@ fn vec_num(v: &[f64]) -> Value {
 pub fn direction_deg(theta: &[f64]) -> (f64, Option<f64>) {
     match theta.len() {
         1 => (if theta[0] < 0.0 { 180.0 } else { 0.0 }, None),
-        2 => (theta[1].atan2(theta[0]).to_degrees().rem_euclid(360.0), None),
+        2 => (
+            theta[1].atan2(theta[0]).to_degrees().rem_euclid(360.0),
+            None,
+        ),
         _ => {
             let r = theta.iter().map(|x| x * x).sum::<f64>().sqrt();
             let az = theta[1].atan2(theta[0]).to_degrees().rem_euclid(360.0);
-            let el = if r > 0.0 { (theta[2] / r).asin().to_degrees() } else { 0.0 };
+            let el = if r > 0.0 {
+                (theta[2] / r).asin().to_degrees()
+            } else {
+                0.0
+            };
             (az, Some(el))
         }
     }
@@ -137,11 +144,11 @@ pub fn summary_json(case: &Case, r: &Results) -> Value {
         });
     }
     if let Some(d) = &r.directional {
-        let (imin, vmin) = d
-            .dt
-            .iter()
-            .enumerate()
-            .fold((0, f64::INFINITY), |b, (i, v)| if *v < b.1 { (i, *v) } else { b });
+        let (imin, vmin) =
+            d.dt.iter().enumerate().fold(
+                (0, f64::INFINITY),
+                |b, (i, v)| if *v < b.1 { (i, *v) } else { b },
+            );
         let (deg, el) = direction_deg(&d.directions[imin]);
         s["limit_by_direction"] = json!({
             "count": d.directions.len(),

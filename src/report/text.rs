@@ -32,7 +32,11 @@ pub fn human_summary(case: &Case, r: &Results, out: Option<&std::path::Path>) ->
         case.system.variables.join(" ")
     );
     let names: Vec<&str> = case.space.first.iter().map(|s| s.name.as_str()).collect();
-    row(&mut s, "scheme", format!("{} in space, {} in time", names.join("/"), case.method.name));
+    row(
+        &mut s,
+        "scheme",
+        format!("{} in space, {} in time", names.join("/"), case.method.name),
+    );
     let courant = case
         .courant_of(r.dt)
         .map(|c| format!(", Courant {c:.6}"))
@@ -41,7 +45,11 @@ pub fn human_summary(case: &Case, r: &Results, out: Option<&std::path::Path>) ->
         .diffusion_number_of(r.dt)
         .map(|d| format!(", diffusion number {d:.6}"))
         .unwrap_or_default();
-    row(&mut s, "time step", format!("dt = {:.6e}{courant}{diffn}", r.dt));
+    row(
+        &mut s,
+        "time step",
+        format!("dt = {:.6e}{courant}{diffn}", r.dt),
+    );
     if let Some(rad) = &r.radius {
         let verdict = if rad.stable { "STABLE" } else { "UNSTABLE" };
         row(
@@ -78,16 +86,20 @@ pub fn human_summary(case: &Case, r: &Results, out: Option<&std::path::Path>) ->
             row(
                 &mut s,
                 "set by",
-                format!("theta = {}, direction {}", theta(&l.wavevector), dir(&l.wavevector)),
+                format!(
+                    "theta = {}, direction {}",
+                    theta(&l.wavevector),
+                    dir(&l.wavevector)
+                ),
             );
         }
     }
     if let Some(d) = &r.directional {
-        let (imin, vmin) = d
-            .dt
-            .iter()
-            .enumerate()
-            .fold((0, f64::INFINITY), |b, (i, v)| if *v < b.1 { (i, *v) } else { b });
+        let (imin, vmin) =
+            d.dt.iter().enumerate().fold(
+                (0, f64::INFINITY),
+                |b, (i, v)| if *v < b.1 { (i, *v) } else { b },
+            );
         let vmax = d.dt.iter().copied().fold(0.0, f64::max);
         if vmin.is_finite() {
             row(

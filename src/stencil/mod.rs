@@ -83,7 +83,9 @@ impl Stencil {
             return Err(shape("derivative must be 1 or 2"));
         }
         if offsets.is_empty() || offsets.len() != weights.len() {
-            return Err(shape("offsets and weights must be non-empty and of equal length"));
+            return Err(shape(
+                "offsets and weights must be non-empty and of equal length",
+            ));
         }
         let (io, iw) = implicit.unwrap_or((vec![0.0], vec![1.0]));
         if io.is_empty() || io.len() != iw.len() {

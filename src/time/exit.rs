@@ -43,10 +43,10 @@ pub(super) fn one_step(os: &OneStep, w: C64) -> f64 {
     let (gq, mq) = modulus_squared(&os.q, w);
     let n = gp.len().max(gq.len());
     let mut g = vec![0.0; n];
-    for i in 0..n {
+    for (i, gi) in g.iter_mut().enumerate() {
         let v = gp.get(i).copied().unwrap_or(0.0) - gq.get(i).copied().unwrap_or(0.0);
         let scale = mp.get(i).copied().unwrap_or(0.0) + mq.get(i).copied().unwrap_or(0.0);
-        g[i] = if v.abs() <= 1e-13 * scale { 0.0 } else { v };
+        *gi = if v.abs() <= 1e-13 * scale { 0.0 } else { v };
     }
     let Some(k) = (1..n).find(|&i| g[i] != 0.0) else {
         // |R| = 1 along the whole ray (or R ≡ 1): neutral, never leaves.

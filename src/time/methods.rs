@@ -69,7 +69,13 @@ pub fn builtin(name: &str) -> Option<Method> {
         "euler" => one(name, 1, true, &[1.0, 1.0], &[1.0]),
         "heun" => one(name, 2, true, &[1.0, 1.0, 0.5], &[1.0]),
         "ssprk3" => one(name, 3, true, &[1.0, 1.0, 0.5, 1.0 / 6.0], &[1.0]),
-        "rk4" => one(name, 4, true, &[1.0, 1.0, 0.5, 1.0 / 6.0, 1.0 / 24.0], &[1.0]),
+        "rk4" => one(
+            name,
+            4,
+            true,
+            &[1.0, 1.0, 0.5, 1.0 / 6.0, 1.0 / 24.0],
+            &[1.0],
+        ),
         "backward-euler" => one(name, 1, false, &[1.0], &[1.0, -1.0]),
         "crank-nicolson" => one(name, 2, false, &[1.0, 0.5], &[1.0, -0.5]),
         "ab2" => multi(name, 2, &[0.0, -1.0, 1.0], &[-0.5, 1.5, 0.0]),
@@ -80,7 +86,12 @@ pub fn builtin(name: &str) -> Option<Method> {
             &[5.0 / 12.0, -16.0 / 12.0, 23.0 / 12.0, 0.0],
         ),
         "leapfrog" => multi(name, 2, &[-1.0, 0.0, 1.0], &[0.0, 2.0, 0.0]),
-        "bdf2" => multi(name, 2, &[1.0 / 3.0, -4.0 / 3.0, 1.0], &[0.0, 0.0, 2.0 / 3.0]),
+        "bdf2" => multi(
+            name,
+            2,
+            &[1.0 / 3.0, -4.0 / 3.0, 1.0],
+            &[0.0, 0.0, 2.0 / 3.0],
+        ),
         _ => return None,
     })
 }
@@ -91,7 +102,13 @@ pub fn theta(th: f64) -> Result<Method, MethodError> {
         return Err(MethodError::Theta(th));
     }
     let order = if (th - 0.5).abs() < 1e-15 { 2 } else { 1 };
-    Ok(one("theta", order, th == 0.0, &[1.0, 1.0 - th], &[1.0, -th]))
+    Ok(one(
+        "theta",
+        order,
+        th == 0.0,
+        &[1.0, 1.0 - th],
+        &[1.0, -th],
+    ))
 }
 
 /// A Runge–Kutta method from its Butcher tableau (explicit or implicit).
@@ -108,7 +125,9 @@ pub fn tableau(a: &[Vec<f64>], b: &[f64]) -> Result<Method, MethodError> {
         )));
     }
     if a.iter().flatten().chain(b).any(|x| !x.is_finite()) {
-        return Err(MethodError::Tableau("tableau entries must be finite".into()));
+        return Err(MethodError::Tableau(
+            "tableau entries must be finite".into(),
+        ));
     }
     let sum_b: f64 = b.iter().sum();
     if (sum_b - 1.0).abs() > 1e-10 {
@@ -194,7 +213,9 @@ mod tests {
             vec![0.0, 0.0, 1.0, 0.0],
         ];
         let m = tableau(&a, &[1.0 / 6.0, 1.0 / 3.0, 1.0 / 3.0, 1.0 / 6.0]).unwrap();
-        let Scheme::OneStep(os) = &m.scheme else { panic!() };
+        let Scheme::OneStep(os) = &m.scheme else {
+            panic!()
+        };
         let want = [1.0, 1.0, 0.5, 1.0 / 6.0, 1.0 / 24.0];
         for (g, w) in os.p.iter().zip(want) {
             assert!((g - w).abs() < 1e-13);
@@ -207,7 +228,9 @@ mod tests {
     #[test]
     fn implicit_midpoint_tableau_is_crank_nicolson() {
         let m = tableau(&[vec![0.5]], &[1.0]).unwrap();
-        let Scheme::OneStep(os) = &m.scheme else { panic!() };
+        let Scheme::OneStep(os) = &m.scheme else {
+            panic!()
+        };
         assert!((os.p[1] - 0.5).abs() < 1e-14 && (os.q[1] + 0.5).abs() < 1e-14);
         assert_eq!(m.order, 2);
     }

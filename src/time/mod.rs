@@ -114,9 +114,9 @@ impl Method {
                     return p / C64::new(os.q[0], 0.0);
                 }
                 let q = poly(&os.q);
-                q.lu().solve(&p).unwrap_or_else(|| {
-                    DMatrix::from_element(m, m, C64::new(f64::NAN, f64::NAN))
-                })
+                q.lu()
+                    .solve(&p)
+                    .unwrap_or_else(|| DMatrix::from_element(m, m, C64::new(f64::NAN, f64::NAN)))
             }
             Scheme::Multistep(ms) => {
                 let s = ms.alpha.len() - 1;
@@ -165,11 +165,19 @@ impl Method {
 impl OneStep {
     /// R(z).
     pub fn r(&self, z: C64) -> C64 {
-        let p = self.p.iter().rev().fold(C64::new(0.0, 0.0), |a, c| a * z + c);
+        let p = self
+            .p
+            .iter()
+            .rev()
+            .fold(C64::new(0.0, 0.0), |a, c| a * z + c);
         if self.q.len() == 1 {
             return p / self.q[0];
         }
-        let q = self.q.iter().rev().fold(C64::new(0.0, 0.0), |a, c| a * z + c);
+        let q = self
+            .q
+            .iter()
+            .rev()
+            .fold(C64::new(0.0, 0.0), |a, c| a * z + c);
         p / q
     }
 }
