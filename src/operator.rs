@@ -1,4 +1,5 @@
-//! The spatial symbol L(θ) of a discretised system: model × stencils × upwinding.
+//! The spatial symbol L(θ) of a discretised system: model × stencils × upwinding
+//! × grid arrangement.
 //!
 //! For u_t + Σ A_d u_{x_d} = Σ K_d u_{x_d x_d} + S u discretised with first- and
 //! second-derivative stencils of symbols S¹_d(θ_d), S²_d(θ_d) (unit grid),
@@ -8,8 +9,18 @@
 //!
 //! where a central stencil uses A⁺ = A, A⁻ = 0 and a biased stencil uses the split
 //! A = A⁺ + A⁻ with the mirrored stencil S¹* for A⁻: characteristic
-//! (A± = V Λ± V⁻¹) or Rusanov (A± = (A ± ρ(A) I)/2). Every term depends on one
-//! axis only, so the symbol on a grid is a sum of matrices times per-axis tables.
+//! (A± = V Λ± V⁻¹) or Rusanov (A± = (A ± ρ(A) I)/2).
+//!
+//! On a staggered arrangement each variable sits at its own offset in the cell
+//! (0 or ½ per axis). The coupling of variable j into the equation of variable i
+//! then uses, along the derivative axis, the staggered difference when the two
+//! are half a cell apart (offsets ±½: symbol 2i sin(θ/2) for `central2`) and
+//! the ordinary one otherwise, and a two-point average (symbol cos(θ/2)) along
+//! every other axis where they are half a cell apart. Each variable's Fourier
+//! amplitude is taken at its own location, so staggering is a phase and L is
+//! unitarily similar to the matrix with all amplitudes at the cell centre.
+//! Every term is a constant matrix times a product of one-axis factors, so the
+//! symbol on a grid is assembled from per-axis tables.
 
 use crate::physics::System;
 use crate::stencil::Stencil;
@@ -45,6 +56,10 @@ pub struct Space {
     pub upwind: Upwind,
     /// Optional added dissipation.
     pub dissipation: Option<Dissipation>,
+    /// Name of the grid arrangement.
+    pub arrangement: String,
+    /// Offset of each variable in the cell, per axis (0 or ½); empty when collocated.
+    pub locations: Vec<Vec<f64>>,
 }
 
 /// The one-axis scalar factor of a term.
@@ -64,6 +79,8 @@ pub enum Factor {
         /// Even power.
         order: u32,
     },
+    /// Two-point average across half a cell: cos(θ/2).
+    Average,
 }
 
 impl Factor {
@@ -74,21 +91,46 @@ impl Factor {
             Factor::Dissipation { coeff, order } => {
                 C64::new(-coeff * (0.5 * theta).sin().powi(*order as i32), 0.0)
             }
+            Factor::Average => C64::new((0.5 * theta).cos(), 0.0),
         }
     }
 }
 
-/// One term: a constant matrix times a one-axis factor.
+/// What a term discretises (used to split L for IMEX and splitting schemes).
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum TermKind {
+    /// −A_d ∂_d.
+    Flux,
+    /// K_d ∂_d².
+    Diffusion,
+    /// Added dissipation.
+    Dissipation,
+    /// Source S (with averages on a staggered arrangement).
+    Source,
+}
+
+/// One term: a constant matrix times a product of one-axis factors.
 #[derive(Debug, Clone)]
 pub struct Term {
-    /// Axis the factor depends on.
+    /// What it discretises.
+    pub kind: TermKind,
+    /// The axis it belongs to (its derivative axis; 0 for sources).
     pub axis: usize,
     /// Row-major m×m matrix.
     pub matrix: Vec<C64>,
-    /// The factor.
-    pub factor: Factor,
+    /// The factors and the axis each depends on.
+    pub factors: Vec<(usize, Factor)>,
     /// Human description for `kgain check`.
     pub label: String,
+}
+
+impl Term {
+    /// The product of the factors at θ.
+    pub fn factor_at(&self, theta: &[f64]) -> C64 {
+        self.factors
+            .iter()
+            .fold(C64::new(1.0, 0.0), |acc, (d, f)| acc * f.eval(theta[*d]))
+    }
 }
 
 /// The assembled spatial operator.
@@ -98,7 +140,7 @@ pub struct Operator {
     pub m: usize,
     /// Number of axes.
     pub dims: usize,
-    /// Row-major constant part (source).
+    /// Row-major constant part (source on a collocated arrangement).
     pub constant: Vec<C64>,
     /// θ-dependent terms.
     pub terms: Vec<Term>,
@@ -115,114 +157,293 @@ pub enum OperatorError {
         /// The axis.
         axis: usize,
     },
+    /// A stencil whose offsets do not fit the staggering it is asked to bridge.
+    #[error("stencil '{stencil}' cannot couple variables {shift} cell apart along axis {axis} on the '{arrangement}' arrangement: its offsets must be {need}")]
+    Staggering {
+        /// Stencil name.
+        stencil: String,
+        /// The axis.
+        axis: usize,
+        /// "half a" or "no".
+        shift: &'static str,
+        /// The arrangement.
+        arrangement: String,
+        /// What the offsets must be.
+        need: &'static str,
+    },
 }
 
 fn flat(a: &DMatrix<C64>) -> Vec<C64> {
     crate::linalg::from_matrix(a)
 }
 
+const AXIS: [&str; 3] = ["x", "y", "z"];
+
+/// The staggered counterpart of a central stencil (offsets ±½, ±3⁄2, …).
+fn staggered(st: &Stencil) -> Option<Stencil> {
+    let (o, w): (Vec<f64>, Vec<f64>) = match st.name.as_str() {
+        "central2" => (vec![-0.5, 0.5], vec![-1.0, 1.0]),
+        "central4" => (
+            vec![-1.5, -0.5, 0.5, 1.5],
+            vec![1.0 / 24.0, -9.0 / 8.0, 9.0 / 8.0, -1.0 / 24.0],
+        ),
+        _ => return None,
+    };
+    let mut s = Stencil::new(&format!("{}-staggered", st.name), 1, o, w, None).ok()?;
+    s.name = format!("{} (staggered)", st.name);
+    Some(s)
+}
+
+fn is_half(x: f64) -> bool {
+    ((x.rem_euclid(1.0)) - 0.5).abs() < 1e-12
+}
+
 impl Operator {
     /// Assembles L(θ) for a system on a grid of spacings `h` with a spatial scheme.
     pub fn assemble(sys: &System, h: &[f64], space: &Space) -> Result<Operator, OperatorError> {
         let m = sys.size();
-        let dims = h.len();
-        let mut terms = Vec::new();
-        let mut push = |axis: usize, a: DMatrix<C64>, factor: Factor, label: String| {
-            if a.iter().any(|z| z.norm() != 0.0) {
-                terms.push(Term {
-                    axis,
-                    matrix: flat(&a),
-                    factor,
-                    label,
-                });
-            }
-        };
-        let axis_name = |d: usize| ["x", "y", "z"][d];
-        for (d, &hd) in h.iter().enumerate() {
-            let a = &sys.flux[d];
-            let st = &space.first[d];
-            let scale = -1.0 / hd;
-            if st.is_central() {
-                push(
-                    d,
-                    a.clone(),
-                    Factor::Stencil {
-                        stencil: st.clone(),
-                        scale,
-                    },
-                    format!("-A_{} d/d{} ({})", axis_name(d), axis_name(d), st.name),
-                );
-            } else {
-                let (ap, am) = split_flux(a, space.upwind)
-                    .ok_or(OperatorError::NotDiagonalisable { axis: d })?;
-                push(
-                    d,
-                    ap,
-                    Factor::Stencil {
-                        stencil: st.clone(),
-                        scale,
-                    },
-                    format!("-A+_{} d/d{} ({})", axis_name(d), axis_name(d), st.name),
-                );
-                let mir = st.mirror();
-                push(
-                    d,
-                    am,
-                    Factor::Stencil {
-                        stencil: mir.clone(),
-                        scale,
-                    },
-                    format!("-A-_{} d/d{} ({})", axis_name(d), axis_name(d), mir.name),
-                );
-            }
-            let k = &sys.diffusion[d];
-            let st2 = &space.second[d];
-            push(
-                d,
-                k.clone(),
-                Factor::Stencil {
-                    stencil: st2.clone(),
-                    scale: 1.0 / (hd * hd),
-                },
-                format!("K_{} d2/d{}2 ({})", axis_name(d), axis_name(d), st2.name),
-            );
-            if let Some(dis) = space.dissipation {
-                push(
-                    d,
-                    DMatrix::identity(m, m),
-                    Factor::Dissipation {
-                        coeff: dis.strength * sys.reference_speed / hd,
-                        order: dis.order,
-                    },
-                    format!(
-                        "-sigma s/h_{} sin^{}(theta_{}/2) I",
-                        axis_name(d),
-                        dis.order,
-                        axis_name(d)
-                    ),
-                );
-            }
-        }
         let real_coefficients = sys
             .flux
             .iter()
             .chain(&sys.diffusion)
             .chain(std::iter::once(&sys.source))
             .all(|a| a.iter().all(|z| z.im == 0.0));
+        if !space.locations.is_empty() {
+            return Self::assemble_staggered(sys, h, space, real_coefficients);
+        }
+        let mut terms = Vec::new();
+        let mut push = |kind, axis: usize, a: DMatrix<C64>, factor: Factor, label: String| {
+            if a.iter().any(|z| z.norm() != 0.0) {
+                terms.push(Term {
+                    kind,
+                    axis,
+                    matrix: flat(&a),
+                    factors: vec![(axis, factor)],
+                    label,
+                });
+            }
+        };
+        for (d, &hd) in h.iter().enumerate() {
+            let a = &sys.flux[d];
+            let st = &space.first[d];
+            let scale = -1.0 / hd;
+            let x = AXIS[d];
+            if st.is_central() {
+                let f = Factor::Stencil {
+                    stencil: st.clone(),
+                    scale,
+                };
+                push(TermKind::Flux, d, a.clone(), f, format!("-A_{x} d/d{x} ({})", st.name));
+            } else {
+                let (ap, am) = split_flux(a, space.upwind)
+                    .ok_or(OperatorError::NotDiagonalisable { axis: d })?;
+                let f = Factor::Stencil {
+                    stencil: st.clone(),
+                    scale,
+                };
+                push(TermKind::Flux, d, ap, f, format!("-A+_{x} d/d{x} ({})", st.name));
+                let mir = st.mirror();
+                let label = format!("-A-_{x} d/d{x} ({})", mir.name);
+                let f = Factor::Stencil {
+                    stencil: mir,
+                    scale,
+                };
+                push(TermKind::Flux, d, am, f, label);
+            }
+            let st2 = &space.second[d];
+            let f = Factor::Stencil {
+                stencil: st2.clone(),
+                scale: 1.0 / (hd * hd),
+            };
+            let label = format!("K_{x} d2/d{x}2 ({})", st2.name);
+            push(TermKind::Diffusion, d, sys.diffusion[d].clone(), f, label);
+            if let Some(dis) = space.dissipation {
+                let f = Factor::Dissipation {
+                    coeff: dis.strength * sys.reference_speed / hd,
+                    order: dis.order,
+                };
+                let label = format!("-sigma s/h_{x} sin^{}(theta_{x}/2) I", dis.order);
+                push(TermKind::Dissipation, d, DMatrix::identity(m, m), f, label);
+            }
+        }
         Ok(Operator {
             m,
-            dims,
+            dims: h.len(),
             constant: flat(&sys.source),
             terms,
             real_coefficients,
         })
     }
 
+    /// Entry-by-entry assembly on a staggered arrangement; entries sharing the same
+    /// factors are grouped into one term.
+    fn assemble_staggered(
+        sys: &System,
+        h: &[f64],
+        space: &Space,
+        real_coefficients: bool,
+    ) -> Result<Operator, OperatorError> {
+        let m = sys.size();
+        let dims = h.len();
+        let loc = &space.locations;
+        let mut groups: Vec<(String, Term)> = Vec::new();
+        let mut add = |key: String, kind, axis, i: usize, j: usize, v: C64, factors: Vec<(usize, Factor)>, label: String| {
+            if v.norm() == 0.0 {
+                return;
+            }
+            if let Some((_, t)) = groups.iter_mut().find(|(k, _)| *k == key) {
+                t.matrix[i * m + j] += v;
+            } else {
+                let mut matrix = vec![C64::new(0.0, 0.0); m * m];
+                matrix[i * m + j] = v;
+                groups.push((
+                    key,
+                    Term {
+                        kind,
+                        axis,
+                        matrix,
+                        factors,
+                        label,
+                    },
+                ));
+            }
+        };
+        let averages = |i: usize, j: usize, skip: Option<usize>| -> (Vec<(usize, Factor)>, String) {
+            let mut f = Vec::new();
+            let mut tag = String::new();
+            for e in 0..dims {
+                if Some(e) != skip && is_half(loc[j][e] - loc[i][e]) {
+                    f.push((e, Factor::Average));
+                    tag.push_str(&format!(" avg_{}", AXIS[e]));
+                }
+            }
+            (f, tag)
+        };
+        for (d, &hd) in h.iter().enumerate() {
+            let st = &space.first[d];
+            let st_half = staggered(st);
+            for i in 0..m {
+                for j in 0..m {
+                    let v = sys.flux[d][(i, j)];
+                    if v.norm() == 0.0 {
+                        continue;
+                    }
+                    let half = is_half(loc[j][d] - loc[i][d]);
+                    let stencil = if half {
+                        let fits = st.offsets.iter().all(|o| is_half(*o));
+                        match (&st_half, fits) {
+                            (_, true) => st.clone(),
+                            (Some(s), false) => s.clone(),
+                            (None, false) => {
+                                return Err(OperatorError::Staggering {
+                                    stencil: st.name.clone(),
+                                    axis: d,
+                                    shift: "half a",
+                                    arrangement: space.arrangement.clone(),
+                                    need: "half-integers (use central2 or central4, or a user stencil with offsets such as [-0.5, 0.5])",
+                                })
+                            }
+                        }
+                    } else {
+                        if st.offsets.iter().any(|o| is_half(*o)) || !st.is_central() {
+                            return Err(OperatorError::Staggering {
+                                stencil: st.name.clone(),
+                                axis: d,
+                                shift: "no",
+                                arrangement: space.arrangement.clone(),
+                                need: "integers and central (biased stencils need a collocated arrangement)",
+                            });
+                        }
+                        st.clone()
+                    };
+                    let (mut factors, tag) = averages(i, j, Some(d));
+                    let label = format!("-A_{x} d/d{x} ({}){tag}", stencil.name, x = AXIS[d]);
+                    let key = format!("flux{d}{half}{tag}");
+                    factors.insert(
+                        0,
+                        (
+                            d,
+                            Factor::Stencil {
+                                stencil,
+                                scale: -1.0 / hd,
+                            },
+                        ),
+                    );
+                    add(key, TermKind::Flux, d, i, j, v, factors, label);
+                }
+            }
+            let st2 = &space.second[d];
+            for i in 0..m {
+                for j in 0..m {
+                    let v = sys.diffusion[d][(i, j)];
+                    let (mut factors, tag) = averages(i, j, None);
+                    factors.insert(
+                        0,
+                        (
+                            d,
+                            Factor::Stencil {
+                                stencil: st2.clone(),
+                                scale: 1.0 / (hd * hd),
+                            },
+                        ),
+                    );
+                    let label = format!("K_{x} d2/d{x}2 ({}){tag}", st2.name, x = AXIS[d]);
+                    add(format!("diff{d}{tag}"), TermKind::Diffusion, d, i, j, v, factors, label);
+                }
+            }
+            if let Some(dis) = space.dissipation {
+                for i in 0..m {
+                    let f = Factor::Dissipation {
+                        coeff: dis.strength * sys.reference_speed / hd,
+                        order: dis.order,
+                    };
+                    let label = format!("-sigma s/h_{x} sin^{}(theta_{x}/2) I", dis.order, x = AXIS[d]);
+                    add(format!("dis{d}"), TermKind::Dissipation, d, i, i, C64::new(1.0, 0.0), vec![(d, f)], label);
+                }
+            }
+        }
+        let mut constant = vec![C64::new(0.0, 0.0); m * m];
+        for i in 0..m {
+            for j in 0..m {
+                let v = sys.source[(i, j)];
+                let (factors, tag) = averages(i, j, None);
+                if factors.is_empty() {
+                    constant[i * m + j] = v;
+                } else {
+                    add(format!("src{tag}"), TermKind::Source, 0, i, j, v, factors, format!("S{tag}"));
+                }
+            }
+        }
+        Ok(Operator {
+            m,
+            dims,
+            constant,
+            terms: groups.into_iter().map(|(_, t)| t).collect(),
+            real_coefficients,
+        })
+    }
+
     /// L(θ) into a row-major m×m slice.
     pub fn symbol_into(&self, theta: &[f64], out: &mut [C64]) {
-        out.copy_from_slice(&self.constant);
-        for t in &self.terms {
-            let f = t.factor.eval(theta[t.axis]);
+        self.symbol_filtered_into(theta, |_| true, true, out)
+    }
+
+    /// The part of L(θ) made of the terms `keep` selects (and of the constant part
+    /// when `constant`), into `out`.
+    pub fn symbol_filtered_into(
+        &self,
+        theta: &[f64],
+        keep: impl Fn(&Term) -> bool,
+        constant: bool,
+        out: &mut [C64],
+    ) {
+        if constant {
+            out.copy_from_slice(&self.constant);
+        } else {
+            out.fill(C64::new(0.0, 0.0));
+        }
+        for t in self.terms.iter().filter(|t| keep(t)) {
+            let f = t.factor_at(theta);
             for (o, a) in out.iter_mut().zip(&t.matrix) {
                 *o += a * f;
             }
@@ -241,23 +462,60 @@ impl Operator {
         crate::linalg::to_matrix(&self.symbol(theta), self.m)
     }
 
-    /// Each term's factor tabulated on the per-axis coordinates (`tables[t][i]`).
-    pub fn tabulate(&self, coords: &[Vec<f64>]) -> Vec<Vec<C64>> {
+    /// A part of L(θ) as an nalgebra matrix.
+    pub fn part_matrix(&self, theta: &[f64], keep: impl Fn(&Term) -> bool, constant: bool) -> DMatrix<C64> {
+        let mut out = vec![C64::new(0.0, 0.0); self.m * self.m];
+        self.symbol_filtered_into(theta, keep, constant, &mut out);
+        crate::linalg::to_matrix(&out, self.m)
+    }
+
+    /// Each term's factors tabulated on the per-axis coordinates
+    /// (`tables[t][k][i]`: term t, factor k, grid index i along that factor's axis).
+    pub fn tabulate(&self, coords: &[Vec<f64>]) -> Vec<Vec<Vec<C64>>> {
         self.terms
             .iter()
-            .map(|t| coords[t.axis].iter().map(|&th| t.factor.eval(th)).collect())
+            .map(|t| {
+                t.factors
+                    .iter()
+                    .map(|(d, f)| coords[*d].iter().map(|&th| f.eval(th)).collect())
+                    .collect()
+            })
             .collect()
     }
 
     /// L at the grid node with per-axis indices `idx`, from tabulated factors.
-    pub fn symbol_from_tables(&self, tables: &[Vec<C64>], idx: &[usize], out: &mut [C64]) {
+    pub fn symbol_from_tables(&self, tables: &[Vec<Vec<C64>>], idx: &[usize], out: &mut [C64]) {
         out.copy_from_slice(&self.constant);
         for (t, tab) in self.terms.iter().zip(tables) {
-            let f = tab[idx[t.axis]];
+            let f = t
+                .factors
+                .iter()
+                .zip(tab)
+                .fold(C64::new(1.0, 0.0), |acc, ((d, _), col)| acc * col[idx[*d]]);
             for (o, a) in out.iter_mut().zip(&t.matrix) {
                 *o += a * f;
             }
         }
+    }
+
+    /// Largest |factor product| × ‖matrix‖_F summed over terms, plus ‖constant‖_F:
+    /// a size scale of L(θ) over all θ.
+    pub fn scale(&self) -> f64 {
+        let norm = |v: &[C64]| v.iter().map(|z| z.norm_sqr()).sum::<f64>().sqrt();
+        let probe: Vec<f64> = (0..64).map(|k| std::f64::consts::PI * k as f64 / 63.0).collect();
+        let terms: f64 = self
+            .terms
+            .iter()
+            .map(|t| {
+                let f: f64 = t
+                    .factors
+                    .iter()
+                    .map(|(_, f)| probe.iter().map(|&th| f.eval(th).norm()).fold(0.0, f64::max))
+                    .product();
+                norm(&t.matrix) * f
+            })
+            .sum();
+        norm(&self.constant) + terms
     }
 }
 
@@ -265,22 +523,15 @@ impl Operator {
 fn split_flux(a: &DMatrix<C64>, how: Upwind) -> Option<(DMatrix<C64>, DMatrix<C64>)> {
     let m = a.nrows();
     let half = C64::new(0.5, 0.0);
-    let abs_a =
-        match how {
-            Upwind::Rusanov => {
-                let rho = crate::linalg::spectral_radius(&flat(a), m).ok()?;
-                DMatrix::identity(m, m) * C64::new(rho, 0.0)
-            }
-            Upwind::Characteristic => {
-                let cluster = 1e-9 * a.norm().max(1e-300);
-                crate::linalg::diagonalisable_function(a, cluster, |l| {
-                    if l.re >= 0.0 {
-                        l
-                    } else {
-                        -l
-                    }
-                })?
-            }
-        };
+    let abs_a = match how {
+        Upwind::Rusanov => {
+            let rho = crate::linalg::spectral_radius(&flat(a), m).ok()?;
+            DMatrix::identity(m, m) * C64::new(rho, 0.0)
+        }
+        Upwind::Characteristic => {
+            let cluster = 1e-9 * a.norm().max(1e-300);
+            crate::linalg::diagonalisable_function(a, cluster, |l| if l.re >= 0.0 { l } else { -l })?
+        }
+    };
     Some(((a + &abs_a) * half, (a - &abs_a) * half))
 }

@@ -120,23 +120,6 @@ pub fn directions(dims: usize, count: usize) -> Vec<Vec<f64>> {
     }
 }
 
-/// Size scale of the operator, for the "zero eigenvalue" threshold.
-fn operator_scale(op: &Operator) -> f64 {
-    let constant: f64 = op.constant.iter().map(|z| z.norm_sqr()).sum::<f64>().sqrt();
-    let terms: f64 = op
-        .terms
-        .iter()
-        .map(|t| {
-            let c: f64 = t.matrix.iter().map(|z| z.norm_sqr()).sum::<f64>().sqrt();
-            let f = (0..64)
-                .map(|k| t.factor.eval(std::f64::consts::PI * k as f64 / 63.0).norm())
-                .fold(0.0, f64::max);
-            c * f
-        })
-        .sum();
-    constant + terms
-}
-
 /// Runs every analysis the case asks for.
 pub fn analyse(case: &Case, opts: &Options) -> Result<Results, OperatorError> {
     let op = Operator::assemble(&case.system, &case.spacing, &case.space)?;
@@ -144,7 +127,7 @@ pub fn analyse(case: &Case, opts: &Options) -> Result<Results, OperatorError> {
     let dt = case.dt();
     let method = &case.method;
     let tol = case.scan.tolerance;
-    let exits = ExitTimes::new(method, tol, 1e-13 * operator_scale(&op));
+    let exits = ExitTimes::new(method, tol, 1e-13 * op.scale());
     let want_radius = case.scan.analyses.contains(&Analysis::Radius);
     let want_limit = case.scan.analyses.contains(&Analysis::Limit);
     let bar = progress_bar(grid.len() as u64, "wavevectors", opts.progress);

@@ -434,6 +434,8 @@ fn space(cx: &Ctx, s: &RawSpace, dims: usize, kind: &str) -> Result<Space, CaseE
         second,
         upwind,
         dissipation,
+        arrangement: arrangement.to_string(),
+        locations: Vec::new(),
     })
 }
 
