@@ -233,7 +233,13 @@ impl Operator {
                     stencil: st.clone(),
                     scale,
                 };
-                push(TermKind::Flux, d, a.clone(), f, format!("-A_{x} d/d{x} ({})", st.name));
+                push(
+                    TermKind::Flux,
+                    d,
+                    a.clone(),
+                    f,
+                    format!("-A_{x} d/d{x} ({})", st.name),
+                );
             } else {
                 let (ap, am) = split_flux(a, space.upwind)
                     .ok_or(OperatorError::NotDiagonalisable { axis: d })?;
@@ -241,7 +247,13 @@ impl Operator {
                     stencil: st.clone(),
                     scale,
                 };
-                push(TermKind::Flux, d, ap, f, format!("-A+_{x} d/d{x} ({})", st.name));
+                push(
+                    TermKind::Flux,
+                    d,
+                    ap,
+                    f,
+                    format!("-A+_{x} d/d{x} ({})", st.name),
+                );
                 let mir = st.mirror();
                 let label = format!("-A-_{x} d/d{x} ({})", mir.name);
                 let f = Factor::Stencil {
@@ -287,7 +299,14 @@ impl Operator {
         let dims = h.len();
         let loc = &space.locations;
         let mut groups: Vec<(String, Term)> = Vec::new();
-        let mut add = |key: String, kind, axis, i: usize, j: usize, v: C64, factors: Vec<(usize, Factor)>, label: String| {
+        let mut add = |key: String,
+                       kind,
+                       axis,
+                       i: usize,
+                       j: usize,
+                       v: C64,
+                       factors: Vec<(usize, Factor)>,
+                       label: String| {
             if v.norm() == 0.0 {
                 return;
             }
@@ -308,17 +327,18 @@ impl Operator {
                 ));
             }
         };
-        let averages = |i: usize, j: usize, skip: Option<usize>| -> (Vec<(usize, Factor)>, String) {
-            let mut f = Vec::new();
-            let mut tag = String::new();
-            for e in 0..dims {
-                if Some(e) != skip && is_half(loc[j][e] - loc[i][e]) {
-                    f.push((e, Factor::Average));
-                    tag.push_str(&format!(" avg_{}", AXIS[e]));
+        let averages =
+            |i: usize, j: usize, skip: Option<usize>| -> (Vec<(usize, Factor)>, String) {
+                let mut f = Vec::new();
+                let mut tag = String::new();
+                for e in 0..dims {
+                    if Some(e) != skip && is_half(loc[j][e] - loc[i][e]) {
+                        f.push((e, Factor::Average));
+                        tag.push_str(&format!(" avg_{}", AXIS[e]));
+                    }
                 }
-            }
-            (f, tag)
-        };
+                (f, tag)
+            };
         for (d, &hd) in h.iter().enumerate() {
             let st = &space.first[d];
             let st_half = staggered(st);
@@ -388,7 +408,16 @@ impl Operator {
                         ),
                     );
                     let label = format!("K_{x} d2/d{x}2 ({}){tag}", st2.name, x = AXIS[d]);
-                    add(format!("diff{d}{tag}"), TermKind::Diffusion, d, i, j, v, factors, label);
+                    add(
+                        format!("diff{d}{tag}"),
+                        TermKind::Diffusion,
+                        d,
+                        i,
+                        j,
+                        v,
+                        factors,
+                        label,
+                    );
                 }
             }
             if let Some(dis) = space.dissipation {
@@ -397,8 +426,21 @@ impl Operator {
                         coeff: dis.strength * sys.reference_speed / hd,
                         order: dis.order,
                     };
-                    let label = format!("-sigma s/h_{x} sin^{}(theta_{x}/2) I", dis.order, x = AXIS[d]);
-                    add(format!("dis{d}"), TermKind::Dissipation, d, i, i, C64::new(1.0, 0.0), vec![(d, f)], label);
+                    let label = format!(
+                        "-sigma s/h_{x} sin^{}(theta_{x}/2) I",
+                        dis.order,
+                        x = AXIS[d]
+                    );
+                    add(
+                        format!("dis{d}"),
+                        TermKind::Dissipation,
+                        d,
+                        i,
+                        i,
+                        C64::new(1.0, 0.0),
+                        vec![(d, f)],
+                        label,
+                    );
                 }
             }
         }
@@ -410,7 +452,16 @@ impl Operator {
                 if factors.is_empty() {
                     constant[i * m + j] = v;
                 } else {
-                    add(format!("src{tag}"), TermKind::Source, 0, i, j, v, factors, format!("S{tag}"));
+                    add(
+                        format!("src{tag}"),
+                        TermKind::Source,
+                        0,
+                        i,
+                        j,
+                        v,
+                        factors,
+                        format!("S{tag}"),
+                    );
                 }
             }
         }
@@ -463,7 +514,12 @@ impl Operator {
     }
 
     /// A part of L(θ) as an nalgebra matrix.
-    pub fn part_matrix(&self, theta: &[f64], keep: impl Fn(&Term) -> bool, constant: bool) -> DMatrix<C64> {
+    pub fn part_matrix(
+        &self,
+        theta: &[f64],
+        keep: impl Fn(&Term) -> bool,
+        constant: bool,
+    ) -> DMatrix<C64> {
         let mut out = vec![C64::new(0.0, 0.0); self.m * self.m];
         self.symbol_filtered_into(theta, keep, constant, &mut out);
         crate::linalg::to_matrix(&out, self.m)
@@ -502,7 +558,9 @@ impl Operator {
     /// a size scale of L(θ) over all θ.
     pub fn scale(&self) -> f64 {
         let norm = |v: &[C64]| v.iter().map(|z| z.norm_sqr()).sum::<f64>().sqrt();
-        let probe: Vec<f64> = (0..64).map(|k| std::f64::consts::PI * k as f64 / 63.0).collect();
+        let probe: Vec<f64> = (0..64)
+            .map(|k| std::f64::consts::PI * k as f64 / 63.0)
+            .collect();
         let terms: f64 = self
             .terms
             .iter()
@@ -510,7 +568,12 @@ impl Operator {
                 let f: f64 = t
                     .factors
                     .iter()
-                    .map(|(_, f)| probe.iter().map(|&th| f.eval(th).norm()).fold(0.0, f64::max))
+                    .map(|(_, f)| {
+                        probe
+                            .iter()
+                            .map(|&th| f.eval(th).norm())
+                            .fold(0.0, f64::max)
+                    })
                     .product();
                 norm(&t.matrix) * f
             })
@@ -530,7 +593,11 @@ fn split_flux(a: &DMatrix<C64>, how: Upwind) -> Option<(DMatrix<C64>, DMatrix<C6
         }
         Upwind::Characteristic => {
             let cluster = 1e-9 * a.norm().max(1e-300);
-            crate::linalg::diagonalisable_function(a, cluster, |l| if l.re >= 0.0 { l } else { -l })?
+            crate::linalg::diagonalisable_function(
+                a,
+                cluster,
+                |l| if l.re >= 0.0 { l } else { -l },
+            )?
         }
     };
     Some(((a + &abs_a) * half, (a - &abs_a) * half))

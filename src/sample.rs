@@ -219,3 +219,46 @@ where
     }
     out
 }
+
+/// Evaluates `f(θ)` at every grid node in C order (for quantities that need more
+/// than the eigenvalues of L, such as composite amplification matrices).
+pub fn map<T, F>(
+    grid: &Grid,
+    par: Par,
+    symmetry: Symmetry,
+    bar: Option<&ProgressBar>,
+    f: F,
+) -> Vec<T>
+where
+    T: Send + Clone + Default,
+    F: Fn(&[f64]) -> T + Sync,
+{
+    let dims = grid.points.len();
+    let row = grid.points[dims - 1];
+    let rows = grid.len() / row;
+    let computed_rows = match symmetry {
+        Symmetry::Even => rows.div_ceil(2),
+        Symmetry::None => rows,
+    };
+    let mut out = vec![T::default(); grid.len()];
+    let (head, tail) = out.split_at_mut(computed_rows * row);
+    let work = |(r, chunk): (usize, &mut [T])| {
+        let mut idx = vec![0usize; dims];
+        for (j, slot) in chunk.iter_mut().enumerate() {
+            grid.unravel(r * row + j, &mut idx);
+            *slot = f(&grid.theta(&idx));
+        }
+        if let Some(b) = bar {
+            b.inc(chunk.len() as u64);
+        }
+    };
+    match par {
+        Par::Seq => head.chunks_mut(row).enumerate().for_each(work),
+        Par::Threads(_) => par.run(|| head.par_chunks_mut(row).enumerate().for_each(work)),
+    }
+    let total = grid.len();
+    for (k, slot) in tail.iter_mut().enumerate() {
+        *slot = head[total - 1 - (computed_rows * row + k)].clone();
+    }
+    out
+}

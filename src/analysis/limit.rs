@@ -202,18 +202,7 @@ pub fn by_direction(
     even: bool,
     bar: Option<&indicatif::ProgressBar>,
 ) -> Vec<(f64, Vec<f64>)> {
-    let opposite: Vec<Option<usize>> = directions
-        .iter()
-        .enumerate()
-        .map(|(i, n)| {
-            if !even {
-                return None;
-            }
-            directions[..i]
-                .iter()
-                .position(|o| o.iter().zip(n).all(|(a, b)| (a + b).abs() <= 1e-12))
-        })
-        .collect();
+    let opposite = opposites(directions, even);
     let computed: Vec<(f64, Vec<f64>)> = directions
         .par_iter()
         .zip(&opposite)
@@ -227,9 +216,34 @@ pub fn by_direction(
             ray_limit(op, exits, n, samples, bar)
         })
         .collect();
+    mirror_fill(computed, &opposite)
+}
+
+/// For each direction, the index of an earlier direction opposite to it (when
+/// `even`, i.e. the limit is the same for n and −n).
+pub fn opposites(directions: &[Vec<f64>], even: bool) -> Vec<Option<usize>> {
+    directions
+        .iter()
+        .enumerate()
+        .map(|(i, n)| {
+            if !even {
+                return None;
+            }
+            directions[..i]
+                .iter()
+                .position(|o| o.iter().zip(n).all(|(a, b)| (a + b).abs() <= 1e-12))
+        })
+        .collect()
+}
+
+/// Fills the directions that have an opposite from it (wavevector negated).
+pub fn mirror_fill(
+    computed: Vec<(f64, Vec<f64>)>,
+    opposite: &[Option<usize>],
+) -> Vec<(f64, Vec<f64>)> {
     computed
         .iter()
-        .zip(&opposite)
+        .zip(opposite)
         .map(|(c, opp)| match opp {
             Some(j) => (computed[*j].0, computed[*j].1.iter().map(|x| -x).collect()),
             None => c.clone(),

@@ -2,6 +2,7 @@
 //! largest stable Δt, overall and per wave direction, from one sweep of the
 //! operator's eigenvalues over the wavevector grid.
 
+pub mod composite;
 pub mod first_exit;
 pub mod limit;
 pub mod refine;
@@ -88,7 +89,18 @@ pub struct Results {
     pub samples: Option<Samples>,
     /// Nodes where the eigenvalue kernel failed (their values are NaN).
     pub failures: usize,
+    /// How the limit was found.
+    pub limit_found_by: &'static str,
+    /// For composite schemes: whether the uniform scan of Δt below the limit
+    /// confirmed it, and whether it had to move the limit down.
+    pub limit_verified: Option<(bool, bool)>,
 }
+
+/// How the limit of one-step and multistep methods is found.
+pub const FOUND_BY_EXIT: &str =
+    "first exit from the exact stability region, refined in continuous wavevector space";
+/// How the limit of composite schemes is found.
+pub const FOUND_BY_SEARCH: &str = "search on dt (bracketing and bisection over the wavevector grid), refined in continuous wavevector space, verified by a uniform dt scan below the limit";
 
 /// A progress bar on stderr, drawn only when allowed and stderr is a terminal.
 pub fn progress_bar(len: u64, msg: &str, show: bool) -> ProgressBar {
@@ -123,6 +135,9 @@ pub fn directions(dims: usize, count: usize) -> Vec<Vec<f64>> {
 /// Runs every analysis the case asks for.
 pub fn analyse(case: &Case, opts: &Options) -> Result<Results, OperatorError> {
     let op = Operator::assemble(&case.system, &case.spacing, &case.space)?;
+    if let Some(c) = case.method.composite() {
+        return Ok(analyse_composite(case, opts, &op, c));
+    }
     let grid = Grid::new(&case.scan.points);
     let dt = case.dt();
     let method = &case.method;
@@ -219,23 +234,132 @@ pub fn analyse(case: &Case, opts: &Options) -> Result<Results, OperatorError> {
         directional,
         samples,
         failures,
+        limit_found_by: FOUND_BY_EXIT,
+        limit_verified: None,
     })
+}
+
+fn analyse_composite(
+    case: &Case,
+    opts: &Options,
+    op: &Operator,
+    scheme: &crate::time::composite::Composite,
+) -> Results {
+    let grid = Grid::new(&case.scan.points);
+    let dt = case.dt();
+    let tol = case.scan.tolerance;
+    let ev = composite::CompositeEval::new(case, op, scheme);
+    let symmetry = if op.real_coefficients {
+        sample::Symmetry::Even
+    } else {
+        sample::Symmetry::None
+    };
+    let dims = grid.points.len();
+    let radius = case.scan.analyses.contains(&Analysis::Radius).then(|| {
+        let bar = progress_bar(grid.len() as u64, "wavevectors", opts.progress);
+        let map = sample::map(&grid, opts.par, symmetry, Some(&bar), |th| {
+            ev.radius(th, dt)
+        });
+        bar.finish_and_clear();
+        let (imax, max) = map.iter().enumerate().filter(|(_, v)| !v.is_nan()).fold(
+            (0, f64::NEG_INFINITY),
+            |b, (i, v)| if *v > b.1 { (i, *v) } else { b },
+        );
+        let mut idx = vec![0usize; dims];
+        grid.unravel(imax, &mut idx);
+        RadiusResult {
+            max,
+            wavevector: grid.theta(&idx),
+            stable: max <= 1.0 + tol,
+            map,
+        }
+    });
+    let failures = radius
+        .as_ref()
+        .map_or(0, |r| r.map.iter().filter(|v| v.is_nan()).count());
+    let mut verified = None;
+    let (limit, directional) = if case.scan.analyses.contains(&Analysis::Limit) {
+        let overall = opts.par.run(|| ev.overall(&grid));
+        verified = Some((overall.verified, overall.corrected));
+        let dirs = directions(dims, case.scan.directions);
+        let per_ray = (grid.points.iter().max().copied().unwrap_or(2) / 4).max(16);
+        let dbar = progress_bar(dirs.len() as u64, "directions", opts.progress);
+        let start = overall.limit.dt_max;
+        let res = opts
+            .par
+            .run(|| ev.by_direction(&dirs, per_ray, start, Some(&dbar)));
+        dbar.finish_and_clear();
+        let (dtv, wavevector) = res.into_iter().unzip();
+        (
+            Some(overall.limit),
+            Some(DirectionalLimit {
+                directions: dirs,
+                dt: dtv,
+                wavevector,
+            }),
+        )
+    } else {
+        (None, None)
+    };
+    let samples = (case.scan.matrices > 0).then(|| {
+        let k = case.scan.matrices.min(grid.len());
+        let index = sample_indices(k, grid.len());
+        let mut idx = vec![0usize; dims];
+        let mut s = Samples {
+            index: index.clone(),
+            theta: Vec::new(),
+            symbol: Vec::new(),
+            amplification: Vec::new(),
+            size: op.m * scheme.levels(),
+        };
+        for &i in &index {
+            grid.unravel(i, &mut idx);
+            let th = grid.theta(&idx);
+            let g = crate::time::composite::amplification(
+                scheme,
+                &case.system,
+                op,
+                &case.spacing,
+                &th,
+                dt,
+            );
+            s.symbol.push(op.symbol(&th));
+            s.amplification.push(crate::linalg::from_matrix(&g));
+            s.theta.push(th);
+        }
+        s
+    });
+    Results {
+        grid,
+        dt,
+        radius,
+        limit,
+        directional,
+        samples,
+        failures,
+        limit_found_by: FOUND_BY_SEARCH,
+        limit_verified: verified,
+    }
+}
+
+/// `k` flat indices spread over a grid of `n` nodes (a large stride modulo n, so
+/// that samples cover every axis).
+fn sample_indices(k: usize, n: usize) -> Vec<usize> {
+    (0..k)
+        .map(|j| {
+            if k == 1 {
+                n / 2
+            } else {
+                ((j as u128 * (n as u128 - 1) * 7919 / (k as u128 - 1)) % n as u128) as usize
+            }
+        })
+        .collect()
 }
 
 /// Amplification matrices at `case.scan.matrices` nodes spread evenly over the grid.
 fn sample_matrices(case: &Case, op: &Operator, grid: &Grid, dt: f64) -> Samples {
     let k = case.scan.matrices.min(grid.len());
-    let n = grid.len();
-    let index: Vec<usize> = (0..k)
-        .map(|j| {
-            if k == 1 {
-                n / 2
-            } else {
-                // a stride coprime-ish with the row length so samples cover all axes
-                ((j as u128 * (n as u128 - 1) * 7919 / (k as u128 - 1)) % n as u128) as usize
-            }
-        })
-        .collect();
+    let index = sample_indices(k, grid.len());
     let dims = grid.points.len();
     let mut idx = vec![0usize; dims];
     let mut theta = Vec::new();

@@ -102,6 +102,7 @@ pub struct RawTime {
     pub theta: Option<f64>,
     pub tableau: Option<RawTableau>,
     pub first: Option<Vec<String>>,
+    pub sequence: Option<Vec<String>>,
     pub splitting: Option<String>,
 }
 

@@ -6,7 +6,8 @@ use super::{nearest, Analysis, Case, CaseError, Scan, Step};
 use crate::operator::{Dissipation, Space, Upwind};
 use crate::physics::{self, System};
 use crate::stencil::{catalogue, Stencil};
-use crate::time::{self, Method};
+use crate::time::composite::{Composite, Imex, Splitting};
+use crate::time::{self, Method, Scheme};
 use nalgebra::DMatrix;
 use num_complex::Complex64 as C64;
 use std::collections::BTreeMap;
@@ -22,9 +23,22 @@ pub const MODEL_KINDS: [&str; 6] = [
     "linear",
 ];
 /// Model kinds this version can analyse.
-const MODELS_AVAILABLE: [&str; 4] = ["advection", "acoustics", "euler", "linear"];
+const MODELS_AVAILABLE: [&str; 6] = [
+    "advection",
+    "acoustics",
+    "euler",
+    "shallow-water",
+    "maxwell",
+    "linear",
+];
 const ANALYSES: [&str; 4] = ["radius", "limit", "growth", "dispersion"];
-const COMPOSITE_METHODS: [&str; 3] = ["forward-backward", "lax-wendroff", "lax-friedrichs"];
+const COMPOSITE_METHODS: [&str; 5] = [
+    "forward-backward",
+    "imex-euler",
+    "imex-cnab2",
+    "lax-wendroff",
+    "lax-friedrichs",
+];
 
 struct Ctx<'a> {
     file: String,
@@ -122,8 +136,9 @@ pub(super) fn validate(raw: RawCase, text: &str, path: &Path) -> Result<Case, Ca
     }
     let spacing = raw.grid.spacing.clone();
     let system = model(&cx, &raw.model, dims)?;
-    let space = space(&cx, &raw.space, dims, &raw.model.kind)?;
-    let method = method(&cx, &raw.time)?;
+    let tm = raw.model.polarization.as_deref() == Some("tm");
+    let space = space(&cx, &raw.space, dims, &raw.model.kind, tm)?;
+    let method = method(&cx, &raw.time, &system, &space)?;
     let step = step(&cx, &raw.time, &system)?;
     let scan = scan(&cx, &raw.scan, dims)?;
     let name = raw.name.clone().unwrap_or_else(|| {
@@ -163,6 +178,8 @@ fn model(cx: &Ctx, m: &RawModel, dims: usize) -> Result<System, CaseError> {
         "advection" => &["velocity", "diffusivity"],
         "acoustics" => &["sound_speed", "density", "velocity"],
         "euler" => &["density", "velocity", "pressure", "gamma"],
+        "shallow-water" => &["gravity", "depth", "velocity", "coriolis"],
+        "maxwell" => &["speed", "polarization"],
         _ => &["variables", "flux", "diffusion", "source"],
     };
     let present = [
@@ -233,6 +250,46 @@ fn model(cx: &Ctx, m: &RawModel, dims: usize) -> Result<System, CaseError> {
             let p = cx.positive("model.pressure", need("pressure", m.pressure)?)?;
             let g = cx.positive("model.gamma", m.gamma.unwrap_or(1.4))?;
             physics::euler(rho, &velocity(false)?, p, g)
+        }
+        "shallow-water" => {
+            if dims == 3 {
+                return Err(cx.err("grid.spacing", "the shallow-water model has 1 or 2 axes"));
+            }
+            let g = cx.positive("model.gravity", m.gravity.unwrap_or(9.81))?;
+            let depth = cx.positive("model.depth", need("depth", m.depth)?)?;
+            let f = cx.finite("model.coriolis", m.coriolis.unwrap_or(0.0))?;
+            if dims == 1 && f != 0.0 {
+                return Err(cx.err(
+                    "model.coriolis",
+                    "needs two axes (the rotation couples u and v)",
+                ));
+            }
+            physics::shallow_water(g, depth, &velocity(false)?, f)
+        }
+        "maxwell" => {
+            if dims == 1 {
+                return Err(cx.err(
+                    "grid.spacing",
+                    "the maxwell model has 2 axes (te or tm) or 3",
+                ));
+            }
+            let c = cx.positive("model.speed", need("speed", m.speed)?)?;
+            let tm = match (dims, m.polarization.as_deref()) {
+                (3, Some(_)) => {
+                    return Err(cx.err("model.polarization", "is only used with two axes"))
+                }
+                (_, None) | (_, Some("te")) => false,
+                (_, Some("tm")) => true,
+                (_, Some(other)) => {
+                    return Err(cx.unknown(
+                        "model.polarization",
+                        "polarization",
+                        other,
+                        &["te", "tm"],
+                    ))
+                }
+            };
+            physics::maxwell(c, dims, tm)
         }
         _ => linear(cx, m, dims)?,
     })
@@ -377,7 +434,13 @@ fn stencils(
         .collect()
 }
 
-fn space(cx: &Ctx, s: &RawSpace, dims: usize, kind: &str) -> Result<Space, CaseError> {
+fn space(
+    cx: &Ctx,
+    s: &RawSpace,
+    dims: usize,
+    kind: &str,
+    polarization_tm: bool,
+) -> Result<Space, CaseError> {
     let user = user_stencils(cx, s)?;
     let first = stencils(cx, "space.first", &s.first, 1, dims, &user)?;
     let second = stencils(cx, "space.second", &s.second, 2, dims, &user)?;
@@ -413,66 +476,97 @@ fn space(cx: &Ctx, s: &RawSpace, dims: usize, kind: &str) -> Result<Space, CaseE
         }
     };
     let arrangement = s.arrangement.as_deref().unwrap_or("collocated");
-    let all = ["collocated", "a", "b", "c", "d", "e", "yee"];
-    if !all.contains(&arrangement) {
-        return Err(cx.unknown("space.arrangement", "arrangement", arrangement, &all));
-    }
-    if arrangement != "collocated" && arrangement != "a" {
-        let owner = if arrangement == "yee" {
-            "maxwell"
-        } else {
-            "shallow-water"
-        };
-        return Err(cx.err_hint(
-            "space.arrangement",
-            format!("arrangement '{arrangement}' belongs to the {owner} model; model '{kind}' is collocated"),
-            "remove the key or set it to \"collocated\"",
-        ));
-    }
+    let tm = polarization_tm;
+    let locations = arrangement_locations(cx, arrangement, kind, dims, tm)?;
     Ok(Space {
         first,
         second,
         upwind,
         dissipation,
         arrangement: arrangement.to_string(),
-        locations: Vec::new(),
+        locations,
     })
 }
 
-fn method(cx: &Ctx, t: &RawTime) -> Result<Method, CaseError> {
+/// Cell offsets of each variable for a named arrangement (empty: collocated).
+///
+/// Shallow water (h, u, v), the lettered grid families: A all together; B h at
+/// centres, u and v at corners; C u on x-faces, v on y-faces; D u on y-faces,
+/// v on x-faces. Maxwell on the Yee cell: E components on edges, H on faces
+/// (2-D: the TE and TM cells of the 3-D Yee cell).
+fn arrangement_locations(
+    cx: &Ctx,
+    arrangement: &str,
+    kind: &str,
+    dims: usize,
+    tm: bool,
+) -> Result<Vec<Vec<f64>>, CaseError> {
+    let key = "space.arrangement";
+    let all = ["collocated", "a", "b", "c", "d", "e", "yee"];
+    if !all.contains(&arrangement) {
+        return Err(cx.unknown(key, "arrangement", arrangement, &all));
+    }
+    if arrangement == "collocated" || (arrangement == "a" && kind == "shallow-water") {
+        return Ok(Vec::new());
+    }
+    let h = 0.5;
+    let v = |x: &[f64]| x[..dims].to_vec();
+    match (kind, arrangement) {
+        ("shallow-water", "e") => Err(cx.err_hint(
+            key,
+            "arrangement 'e' is not available in this version of kgain",
+            "the E-grid is the B-grid rotated by 45 degrees: analyse arrangement \"b\" on the rotated grid (spacing d/sqrt(2))",
+        )),
+        ("shallow-water", "d") if dims == 1 => Err(cx.err(key, "the D-grid needs two axes")),
+        ("shallow-water", a) if a != "yee" => {
+            let (u, w): ([f64; 2], [f64; 2]) = match a {
+                "b" => ([h, h], [h, h]),
+                "c" => ([h, 0.0], [0.0, h]),
+                _ => ([0.0, h], [h, 0.0]),
+            };
+            let mut out = vec![v(&[0.0, 0.0]), v(&u)];
+            if dims == 2 {
+                out.push(v(&w));
+            }
+            Ok(out)
+        }
+        ("maxwell", "yee") => Ok(match (dims, tm) {
+            (3, _) => vec![
+                vec![h, 0.0, 0.0],
+                vec![0.0, h, 0.0],
+                vec![0.0, 0.0, h],
+                vec![0.0, h, h],
+                vec![h, 0.0, h],
+                vec![h, h, 0.0],
+            ],
+            (_, false) => vec![vec![h, 0.0], vec![0.0, h], vec![h, h]],
+            (_, true) => vec![vec![0.0, h], vec![h, 0.0], vec![0.0, 0.0]],
+        }),
+        _ => {
+            let owner = if arrangement == "yee" { "maxwell" } else { "shallow-water" };
+            Err(cx.err_hint(
+                key,
+                format!("arrangement '{arrangement}' belongs to the {owner} model; model '{kind}' has only \"collocated\""),
+                "remove the key or set it to \"collocated\"",
+            ))
+        }
+    }
+}
+
+fn method(cx: &Ctx, t: &RawTime, sys: &System, space: &Space) -> Result<Method, CaseError> {
     let name = t.method.as_str();
     let mut valid = time::method_names();
     valid.extend(COMPOSITE_METHODS);
-    if COMPOSITE_METHODS.contains(&name) {
-        return Err(cx.err(
-            "time.method",
-            format!(
-                "method '{name}' (a composite scheme) is not available in this version of kgain"
-            ),
-        ));
-    }
-    if let Some(s) = t.splitting.as_deref() {
-        match s {
-            "none" => {}
-            "lie" | "strang" => {
-                return Err(cx.err(
-                    "time.splitting",
-                    format!("dimension splitting '{s}' is not available in this version of kgain"),
-                ))
-            }
-            other => {
-                return Err(cx.unknown(
-                    "time.splitting",
-                    "splitting",
-                    other,
-                    &["none", "lie", "strang"],
-                ))
-            }
-        }
-    }
-    if t.first.is_some() {
+    let uses_order = name == "forward-backward";
+    if !uses_order && t.first.is_some() {
         return Err(cx.err(
             "time.first",
+            "is only used with method = \"forward-backward\"",
+        ));
+    }
+    if !uses_order && t.sequence.is_some() {
+        return Err(cx.err(
+            "time.sequence",
             "is only used with method = \"forward-backward\"",
         ));
     }
@@ -482,12 +576,60 @@ fn method(cx: &Ctx, t: &RawTime) -> Result<Method, CaseError> {
     if name != "tableau" && t.tableau.is_some() {
         return Err(cx.err("time.tableau", "is only used with method = \"tableau\""));
     }
-    match name {
+    let splitting = match t.splitting.as_deref().unwrap_or("none") {
+        "none" => None,
+        "lie" => Some(Splitting::Lie),
+        "strang" => Some(Splitting::Strang),
+        other => {
+            return Err(cx.unknown(
+                "time.splitting",
+                "splitting",
+                other,
+                &["none", "lie", "strang"],
+            ))
+        }
+    };
+    let composite = |c: Composite, order: u32| Method {
+        name: name.to_string(),
+        order,
+        explicit: !matches!(c, Composite::Imex(_)),
+        scheme: Scheme::Composite(c),
+    };
+    let base = match name {
+        "forward-backward" => {
+            let rank = update_ranks(cx, t, sys)?;
+            return no_split(cx, splitting, name)
+                .map(|_| composite(Composite::ForwardBackward { rank }, 1));
+        }
+        "imex-euler" => {
+            return no_split(cx, splitting, name)
+                .map(|_| composite(Composite::Imex(Imex::Euler), 1))
+        }
+        "imex-cnab2" => {
+            return no_split(cx, splitting, name)
+                .map(|_| composite(Composite::Imex(Imex::Cnab2), 2))
+        }
+        "lax-wendroff" | "lax-friedrichs" => {
+            no_split(cx, splitting, name)?;
+            if !space.locations.is_empty() {
+                return Err(cx.err_hint(
+                    "space.arrangement",
+                    format!("method '{name}' defines its own collocated differences"),
+                    "remove space.arrangement or set it to \"collocated\"",
+                ));
+            }
+            let (c, order) = if name == "lax-wendroff" {
+                (Composite::LaxWendroff, 2)
+            } else {
+                (Composite::LaxFriedrichs, 1)
+            };
+            return Ok(composite(c, order));
+        }
         "theta" => {
             let th = t
                 .theta
                 .ok_or_else(|| cx.err("time.theta", "is required for method = \"theta\""))?;
-            time::methods::theta(th).map_err(|e| cx.err("time.theta", e.to_string()))
+            time::methods::theta(th).map_err(|e| cx.err("time.theta", e.to_string()))?
         }
         "tableau" => {
             let tb = t
@@ -506,10 +648,102 @@ fn method(cx: &Ctx, t: &RawTime) -> Result<Method, CaseError> {
                     ));
                 }
             }
-            time::methods::tableau(&tb.a, &tb.b).map_err(|e| cx.err("time.tableau", e.to_string()))
+            time::methods::tableau(&tb.a, &tb.b)
+                .map_err(|e| cx.err("time.tableau", e.to_string()))?
         }
         _ => time::builtin(name)
-            .ok_or_else(|| cx.unknown("time.method", "time method", name, &valid)),
+            .ok_or_else(|| cx.unknown("time.method", "time method", name, &valid))?,
+    };
+    match splitting {
+        None => Ok(base),
+        Some(kind) => {
+            if base.levels() > 1 {
+                return Err(cx.err_hint(
+                    "time.splitting",
+                    format!(
+                        "splitting needs a one-step method, and '{name}' is a multistep method"
+                    ),
+                    "use a Runge-Kutta or theta method, or splitting = \"none\"",
+                ));
+            }
+            let order = if kind == Splitting::Strang {
+                base.order.min(2)
+            } else {
+                1
+            };
+            Ok(Method {
+                name: format!(
+                    "{name}+{}",
+                    if kind == Splitting::Lie {
+                        "lie"
+                    } else {
+                        "strang"
+                    }
+                ),
+                order,
+                explicit: base.explicit,
+                scheme: Scheme::Composite(Composite::Split {
+                    kind,
+                    inner: Box::new(base),
+                }),
+            })
+        }
+    }
+}
+
+fn no_split(cx: &Ctx, splitting: Option<Splitting>, name: &str) -> Result<(), CaseError> {
+    match splitting {
+        None => Ok(()),
+        Some(_) => Err(cx.err(
+            "time.splitting",
+            format!("method '{name}' is already a composite scheme and cannot be split"),
+        )),
+    }
+}
+
+/// Update ranks of forward-backward stepping: `time.first` (updated first, the
+/// rest after) or `time.sequence` (every variable, in update order).
+fn update_ranks(cx: &Ctx, t: &RawTime, sys: &System) -> Result<Vec<usize>, CaseError> {
+    let vars = &sys.variables;
+    let lookup = |key: &str, v: &str| {
+        vars.iter().position(|x| x == v).ok_or_else(|| {
+            let list: Vec<&str> = vars.iter().map(|s| s.as_str()).collect();
+            cx.unknown(key, "variable", v, &list)
+        })
+    };
+    match (&t.first, &t.sequence) {
+        (Some(_), Some(_)) => Err(cx.err(
+            "time.sequence",
+            "give time.first or time.sequence, not both",
+        )),
+        (None, None) => Err(cx.err_hint(
+            "time.first",
+            "forward-backward needs the variables updated first",
+            format!("e.g. first = [\"{}\"]", vars[0]),
+        )),
+        (Some(first), None) => {
+            let mut rank = vec![1; vars.len()];
+            for (k, v) in first.iter().enumerate() {
+                rank[lookup(&format!("time.first.{k}"), v)?] = 0;
+            }
+            if rank.iter().all(|r| *r == 0) || first.is_empty() {
+                return Err(cx.err(
+                    "time.first",
+                    "must name some, but not all, of the variables",
+                ));
+            }
+            Ok(rank)
+        }
+        (None, Some(seq)) => {
+            let mut rank = vec![usize::MAX; vars.len()];
+            for (k, v) in seq.iter().enumerate() {
+                rank[lookup(&format!("time.sequence.{k}"), v)?] = k;
+            }
+            if rank.contains(&usize::MAX) {
+                return Err(cx.err("time.sequence", "must list every variable once"));
+            }
+            Ok(rank)
+        }
     }
 }
 

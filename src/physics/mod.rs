@@ -43,6 +43,17 @@ impl System {
         self.flux.len()
     }
 
+    /// The continuous symbol at a physical wavevector k:
+    /// −i Σ_d k_d A_d − Σ_d k_d² K_d + S; the exact frequencies are ω = i·eig.
+    pub fn continuous_symbol(&self, k: &[f64]) -> DMatrix<C64> {
+        let mut l = self.source.clone();
+        for (d, kd) in k.iter().enumerate() {
+            l -= &self.flux[d] * C64::new(0.0, *kd);
+            l -= &self.diffusion[d] * C64::new(kd * kd, 0.0);
+        }
+        l
+    }
+
     /// Σ_d n_d A_d for a direction n.
     pub fn flux_along(&self, n: &[f64]) -> DMatrix<C64> {
         let m = self.size();
@@ -168,6 +179,112 @@ pub fn euler(density: f64, velocity: &[f64], pressure: f64, gamma: f64) -> Syste
     let speed = velocity.iter().map(|a| a * a).sum::<f64>().sqrt() + c;
     let zero = (0..dims).map(|_| real(m, |_, _| 0.0)).collect();
     System::from_parts("euler", vars, flux, zero, real(m, |_, _| 0.0), Some(speed))
+}
+
+/// Linear shallow water about depth H and mean flow U with Coriolis parameter f:
+/// h_t + U·∇h + H ∇·u = 0, u_t + U·∇u + g ∇h = f ẑ×u (variables h, u[, v]).
+pub fn shallow_water(gravity: f64, depth: f64, velocity: &[f64], coriolis: f64) -> System {
+    let dims = velocity.len();
+    let m = dims + 1;
+    let flux = (0..dims)
+        .map(|d| {
+            real(m, |i, j| {
+                if i == j {
+                    velocity[d]
+                } else if i == 0 && j == d + 1 {
+                    depth
+                } else if i == d + 1 && j == 0 {
+                    gravity
+                } else {
+                    0.0
+                }
+            })
+        })
+        .collect();
+    // u_t = +f v, v_t = −f u
+    let source = real(m, |i, j| match (i, j) {
+        (1, 2) => coriolis,
+        (2, 1) => -coriolis,
+        _ => 0.0,
+    });
+    let mut vars = vec!["h".to_string()];
+    vars.extend(velocity_names(dims));
+    let speed = velocity.iter().map(|a| a * a).sum::<f64>().sqrt() + (gravity * depth).sqrt();
+    let zero = (0..dims).map(|_| real(m, |_, _| 0.0)).collect();
+    System::from_parts("shallow-water", vars, flux, zero, source, Some(speed))
+}
+
+/// (equation, variable, axis, coefficient) of one curl entry.
+type CurlEntry = (usize, usize, usize, f64);
+
+/// Maxwell's equations in normalised form E_t = c ∇×H, H_t = −c ∇×E.
+/// 3-D variables ex, ey, ez, hx, hy, hz; 2-D `te` (ex, ey, hz) or `tm` (hx, hy, ez).
+pub fn maxwell(speed: f64, dims: usize, tm: bool) -> System {
+    // (equation, variable, axis, coefficient) of u_t + Σ A_d u_d = 0, i.e. A = −(curl part).
+    let (vars, entries): (Vec<&str>, Vec<CurlEntry>) = match (dims, tm) {
+        (3, _) => (
+            vec!["ex", "ey", "ez", "hx", "hy", "hz"],
+            vec![
+                // ex_t = c(hz_y − hy_z)
+                (0, 5, 1, -1.0),
+                (0, 4, 2, 1.0),
+                // ey_t = c(hx_z − hz_x)
+                (1, 3, 2, -1.0),
+                (1, 5, 0, 1.0),
+                // ez_t = c(hy_x − hx_y)
+                (2, 4, 0, -1.0),
+                (2, 3, 1, 1.0),
+                // hx_t = −c(ez_y − ey_z)
+                (3, 2, 1, 1.0),
+                (3, 1, 2, -1.0),
+                // hy_t = −c(ex_z − ez_x)
+                (4, 0, 2, 1.0),
+                (4, 2, 0, -1.0),
+                // hz_t = −c(ey_x − ex_y)
+                (5, 1, 0, 1.0),
+                (5, 0, 1, -1.0),
+            ],
+        ),
+        (_, false) => (
+            vec!["ex", "ey", "hz"],
+            vec![
+                (0, 2, 1, -1.0), // ex_t = c hz_y
+                (1, 2, 0, 1.0),  // ey_t = −c hz_x
+                (2, 1, 0, 1.0),  // hz_t = −c(ey_x − ex_y)
+                (2, 0, 1, -1.0),
+            ],
+        ),
+        (_, true) => (
+            vec!["hx", "hy", "ez"],
+            vec![
+                (0, 2, 1, 1.0),  // hx_t = −c ez_y
+                (1, 2, 0, -1.0), // hy_t = c ez_x
+                (2, 1, 0, -1.0), // ez_t = c(hy_x − hx_y)
+                (2, 0, 1, 1.0),
+            ],
+        ),
+    };
+    let m = vars.len();
+    let flux = (0..dims)
+        .map(|d| {
+            let mut a = real(m, |_, _| 0.0);
+            for &(i, j, ax, c) in &entries {
+                if ax == d {
+                    a[(i, j)] = C64::new(c * speed, 0.0);
+                }
+            }
+            a
+        })
+        .collect();
+    let zero = (0..dims).map(|_| real(m, |_, _| 0.0)).collect();
+    System::from_parts(
+        "maxwell",
+        vars.iter().map(|s| s.to_string()).collect(),
+        flux,
+        zero,
+        real(m, |_, _| 0.0),
+        Some(speed),
+    )
 }
 
 /// A user system with given matrices.

@@ -140,8 +140,15 @@ pub fn summary_json(case: &Case, r: &Results) -> Value {
                 LimitKind::Unconditional => true,
                 LimitKind::None => false,
             },
-            "found_by": "first exit from the exact stability region, refined in continuous wavevector space",
+            "found_by": r.limit_found_by,
         });
+        if let Some((verified, corrected)) = r.limit_verified {
+            s["limit"]["verified_below"] = json!({
+                "dt_steps_scanned": crate::analysis::composite::VERIFY_STEPS,
+                "stable_everywhere_below": verified,
+                "moved_down_by_scan": corrected,
+            });
+        }
     }
     if let Some(d) = &r.directional {
         let (imin, vmin) =

@@ -11,6 +11,7 @@
 //! `exit` computes the first-exit radius r*(φ) of each region along a ray, the
 //! quantity behind the stability limit (DESIGN.md §3).
 
+pub mod composite;
 mod exit;
 pub mod methods;
 
@@ -44,6 +45,8 @@ pub enum Scheme {
     OneStep(OneStep),
     /// Through a companion matrix.
     Multistep(Multistep),
+    /// Built from pieces of the symbol (see [`composite`]).
+    Composite(composite::Composite),
 }
 
 /// A named time integrator.
@@ -65,6 +68,15 @@ impl Method {
         match &self.scheme {
             Scheme::OneStep(_) => 1,
             Scheme::Multistep(ms) => ms.alpha.len() - 1,
+            Scheme::Composite(c) => c.levels(),
+        }
+    }
+
+    /// The composite scheme, if this method is one.
+    pub fn composite(&self) -> Option<&composite::Composite> {
+        match &self.scheme {
+            Scheme::Composite(c) => Some(c),
+            _ => None,
         }
     }
 
@@ -76,6 +88,7 @@ impl Method {
             Scheme::Multistep(ms) => {
                 crate::linalg::poly::max_root_modulus(&ms.characteristic(z)).unwrap_or(f64::NAN)
             }
+            Scheme::Composite(_) => f64::NAN,
         }
     }
 
@@ -91,6 +104,7 @@ impl Method {
                 r.resize(self.levels(), C64::new(0.0, 0.0));
                 r
             }
+            Scheme::Composite(_) => vec![C64::new(f64::NAN, f64::NAN)],
         }
     }
 
@@ -136,6 +150,7 @@ impl Method {
                 }
                 g
             }
+            Scheme::Composite(_) => DMatrix::from_element(m, m, C64::new(f64::NAN, f64::NAN)),
         }
     }
 
@@ -147,6 +162,7 @@ impl Method {
         match &self.scheme {
             Scheme::OneStep(os) => exit::one_step(os, w),
             Scheme::Multistep(ms) => exit::multistep(ms, w),
+            Scheme::Composite(_) => f64::NAN,
         }
     }
 
