@@ -71,16 +71,33 @@ pub fn check(case: &Case) -> Result<String, OperatorError> {
         let _ = writeln!(s, "  S (source)");
     }
     let m = &case.method;
-    let _ = writeln!(
-        s,
-        "time method   {} (order {}, {}, {} level(s); imaginary-axis limit {}, real-axis limit {})",
-        m.name,
-        m.order,
-        if m.explicit { "explicit" } else { "implicit" },
-        m.levels(),
-        limit_text(m.imaginary_limit()),
-        limit_text(m.real_limit())
-    );
+    if let Some(c) = m.composite() {
+        let _ = writeln!(
+            s,
+            "time method   {}: {} (order {}, {} level(s); limit by a verified search on dt)",
+            m.name,
+            c.description(),
+            m.order,
+            m.levels()
+        );
+    } else {
+        let _ = writeln!(
+            s,
+            "time method   {} (order {}, {}, {} level(s); imaginary-axis limit {}, real-axis limit {})",
+            m.name,
+            m.order,
+            if m.explicit { "explicit" } else { "implicit" },
+            m.levels(),
+            limit_text(m.imaginary_limit()),
+            limit_text(m.real_limit())
+        );
+    }
+    if !case.space.locations.is_empty() {
+        let _ = writeln!(s, "arrangement   {} (cell offsets per variable)", case.space.arrangement);
+        for (v, loc) in case.system.variables.iter().zip(&case.space.locations) {
+            let _ = writeln!(s, "  {v:<6} {loc:?}");
+        }
+    }
     let dt = case.dt();
     let _ = writeln!(
         s,
@@ -122,9 +139,11 @@ pub fn list_models() -> String {
             "rho, u[, v, w], p",
             "density, velocity, pressure, gamma",
         ),
+        ("shallow-water", "h, u[, v]", "gravity, depth, velocity, coriolis; arrangements a b c d"),
+        ("maxwell", "ex ey ez hx hy hz", "speed, polarization (2-D te: ex ey hz, tm: hx hy ez); yee"),
         ("linear", "user-named", "variables, flux, diffusion, source"),
     ] {
-        let _ = writeln!(s, "  {k:<12}{v:<20}{keys}");
+        let _ = writeln!(s, "  {k:<15}{v:<20}{keys}");
     }
     s
 }
@@ -181,5 +200,16 @@ pub fn list_methods() -> String {
         );
     }
     s.push_str("  tableau: any Butcher tableau (time.tableau = { a = [[..]], b = [..] })\n");
+    s.push_str("composite schemes (limit by a verified search on dt)\n");
+    for (n, d) in [
+        ("forward-backward", "variables updated in order (time.first or time.sequence), each with the newest values; the Yee leapfrog"),
+        ("imex-euler", "backward Euler on diffusion, forward Euler on the rest"),
+        ("imex-cnab2", "Crank-Nicolson on diffusion, Adams-Bashforth 2 on the rest"),
+        ("lax-wendroff", "two-level, second order, unsplit multi-D form"),
+        ("lax-friedrichs", "two-level, first order"),
+        ("splitting", "time.splitting = \"lie\" | \"strang\" with any one-step method"),
+    ] {
+        let _ = writeln!(s, "  {n:<18}{d}");
+    }
     s
 }
