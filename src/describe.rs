@@ -93,7 +93,11 @@ pub fn check(case: &Case) -> Result<String, OperatorError> {
         );
     }
     if !case.space.locations.is_empty() {
-        let _ = writeln!(s, "arrangement   {} (cell offsets per variable)", case.space.arrangement);
+        let _ = writeln!(
+            s,
+            "arrangement   {} (cell offsets per variable)",
+            case.space.arrangement
+        );
         for (v, loc) in case.system.variables.iter().zip(&case.space.locations) {
             let _ = writeln!(s, "  {v:<6} {loc:?}");
         }
@@ -139,8 +143,16 @@ pub fn list_models() -> String {
             "rho, u[, v, w], p",
             "density, velocity, pressure, gamma",
         ),
-        ("shallow-water", "h, u[, v]", "gravity, depth, velocity, coriolis; arrangements a b c d"),
-        ("maxwell", "ex ey ez hx hy hz", "speed, polarization (2-D te: ex ey hz, tm: hx hy ez); yee"),
+        (
+            "shallow-water",
+            "h, u[, v]",
+            "gravity, depth, velocity, coriolis; arrangements a b c d",
+        ),
+        (
+            "maxwell",
+            "ex ey ez hx hy hz",
+            "speed, polarization (2-D te: ex ey hz, tm: hx hy ez); yee",
+        ),
         ("linear", "user-named", "variables, flux, diffusion, source"),
     ] {
         let _ = writeln!(s, "  {k:<15}{v:<20}{keys}");

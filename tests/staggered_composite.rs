@@ -15,7 +15,14 @@ fn case(text: &str) -> Case {
 
 fn courant_limit(text: &str) -> f64 {
     let c = case(text);
-    let r = analyse(&c, &Options { par: Par::Seq, progress: false }).expect("analysis runs");
+    let r = analyse(
+        &c,
+        &Options {
+            par: Par::Seq,
+            progress: false,
+        },
+    )
+    .expect("analysis runs");
     let l = r.limit.expect("limit computed");
     assert_eq!(l.kind, LimitKind::Bounded);
     c.courant_of(l.dt_max).expect("has a wave speed")
@@ -69,8 +76,18 @@ fn a_and_b_grid_leapfrog_limits_follow_their_largest_frequency() {
     // Common practice (the grid families of Mesinger & Arakawa 1976): leapfrog needs
     // omega_max dt <= 1. A-grid: omega_max = sqrt(2 gH)/d (sin^2 + sin^2 at pi/2);
     // B-grid: omega_max = 2 sqrt(gH)/d (sin^2(x/2)cos^2(y/2) + cos^2(x/2)sin^2(y/2) <= 1).
-    assert_rel(courant_limit(&shallow("a", "leapfrog", "")), 1.0 / 2f64.sqrt(), 1e-9, "A-grid");
-    assert_rel(courant_limit(&shallow("b", "leapfrog", "")), 0.5, 1e-9, "B-grid");
+    assert_rel(
+        courant_limit(&shallow("a", "leapfrog", "")),
+        1.0 / 2f64.sqrt(),
+        1e-9,
+        "A-grid",
+    );
+    assert_rel(
+        courant_limit(&shallow("b", "leapfrog", "")),
+        0.5,
+        1e-9,
+        "B-grid",
+    );
 }
 
 fn yee(spacing: &[f64], extra: &str) -> String {
@@ -92,7 +109,11 @@ courant = 0.1
 points = {points}
 directions = 6
 "#,
-        points = if spacing.len() == 3 { "[9, 9, 9]" } else { "[33, 33]" }
+        points = if spacing.len() == 3 {
+            "[9, 9, 9]"
+        } else {
+            "[33, 33]"
+        }
     )
 }
 
@@ -105,12 +126,28 @@ fn yee_courant_limit_with_unequal_spacing_2d_and_3d() {
             text = text.replace("[\"hx\", \"hy\", \"hz\"]", "[\"hz\"]");
         }
         let c = case(&text);
-        let r = analyse(&c, &Options { par: Par::Seq, progress: false }).unwrap();
+        let r = analyse(
+            &c,
+            &Options {
+                par: Par::Seq,
+                progress: false,
+            },
+        )
+        .unwrap();
         let dt = r.limit.unwrap().dt_max;
         let want = 1.0 / (3.0e8 * spacing.iter().map(|h| 1.0 / (h * h)).sum::<f64>().sqrt());
         // near-defective eigenvalues at the limit cost about sqrt(eps) in |lambda|
-        assert_rel(dt, want, 1e-6, &format!("Yee limit for spacing {spacing:?}"));
-        assert_eq!(r.limit_verified, Some((true, false)), "scan below the limit finds no earlier loss");
+        assert_rel(
+            dt,
+            want,
+            1e-6,
+            &format!("Yee limit for spacing {spacing:?}"),
+        );
+        assert_eq!(
+            r.limit_verified,
+            Some((true, false)),
+            "scan below the limit finds no earlier loss"
+        );
     }
 }
 
@@ -133,7 +170,10 @@ fn yee_numerical_dispersion_relation_holds_for_the_leapfrog_eigenvalues() {
             .sum();
         let mut oscillating = 0;
         for l in eig {
-            assert!((l.norm() - 1.0).abs() < 1e-9, "Yee leapfrog is neutral below its limit");
+            assert!(
+                (l.norm() - 1.0).abs() < 1e-9,
+                "Yee leapfrog is neutral below its limit"
+            );
             let omega_dt = -l.arg(); // lambda = exp(-i omega dt)
             if omega_dt.abs() > 1e-6 {
                 oscillating += 1;
@@ -141,7 +181,10 @@ fn yee_numerical_dispersion_relation_holds_for_the_leapfrog_eigenvalues() {
                 assert_rel(lhs, rhs, 1e-9, "Yee dispersion relation");
             }
         }
-        assert_eq!(oscillating, 4, "two electromagnetic wave pairs, two static (divergence) modes");
+        assert_eq!(
+            oscillating, 4,
+            "two electromagnetic wave pairs, two static (divergence) modes"
+        );
     }
 }
 
@@ -172,7 +215,17 @@ fn lie_splitting_of_upwind_euler_takes_the_smaller_one_dimensional_limit() {
     let base = "[grid]\nspacing = [1.0, 2.0]\n[model]\nkind = \"advection\"\nvelocity = [1.0, 0.5]\n[space]\nfirst = \"upwind1\"\n[time]\nmethod = \"euler\"\ndt = 0.1\n[scan]\npoints = [33, 33]\ndirections = 8\n";
     let dt = |t: &str| {
         let c = case(t);
-        analyse(&c, &Options { par: Par::Seq, progress: false }).unwrap().limit.unwrap().dt_max
+        analyse(
+            &c,
+            &Options {
+                par: Par::Seq,
+                progress: false,
+            },
+        )
+        .unwrap()
+        .limit
+        .unwrap()
+        .dt_max
     };
     let split = base.replace("dt = 0.1", "dt = 0.1\nsplitting = \"lie\"");
     assert_rel(dt(&split), 1.0_f64.min(2.0 / 0.5), 1e-9, "Lie splitting");
@@ -196,7 +249,10 @@ fn continuous_shallow_water_frequencies_are_inertia_gravity_and_geostrophic() {
         let want = (f * f + g * depth * k2).sqrt();
         assert_rel(w[2], want, 1e-10, "inertia-gravity frequency");
         assert_rel(-w[0], want, 1e-10, "inertia-gravity frequency (westward)");
-        assert!(w[1].abs() <= 1e-12 * want, "geostrophic mode has zero frequency");
+        assert!(
+            w[1].abs() <= 1e-12 * want,
+            "geostrophic mode has zero frequency"
+        );
     }
 }
 
@@ -226,14 +282,60 @@ fn staggering_phase_leaves_eigenvalues_unchanged_under_a_shift_of_origin() {
 #[test]
 fn composite_input_errors_name_the_key() {
     let bad = [
-        (shallow("c", "forward-backward", "first = [\"eta\"]"), "time.first.0"),
+        (
+            shallow("c", "forward-backward", "first = [\"eta\"]"),
+            "time.first.0",
+        ),
         (shallow("yee", "leapfrog", ""), "space.arrangement"),
-        (shallow("c", "ab2", "splitting = \"strang\""), "time.splitting"),
+        (
+            shallow("c", "ab2", "splitting = \"strang\""),
+            "time.splitting",
+        ),
         (shallow("c", "forward-backward", ""), "time.first"),
     ];
     for (text, key) in bad {
-        let err = Case::from_str_with(&text, Path::new("bad.toml"), &[]).unwrap_err().to_string();
+        let err = Case::from_str_with(&text, Path::new("bad.toml"), &[])
+            .unwrap_err()
+            .to_string();
         assert!(err.contains(key), "error should name {key}: {err}");
-        assert!(err.contains("bad.toml"), "error should name the file: {err}");
+        assert!(
+            err.contains("bad.toml"),
+            "error should name the file: {err}"
+        );
     }
+}
+
+#[test]
+fn characteristic_upwinding_of_shallow_water_gives_the_scalar_upwind_limit() {
+    // Common practice: characteristic splitting decouples 1-D shallow water into two
+    // scalar waves of speed +-sqrt(gH); first-order upwind with forward Euler is
+    // stable for sqrt(gH) dt/h <= 1 (LeVeque 2002 for the scalar limit).
+    for upwind in ["characteristic", "rusanov"] {
+        let text = format!(
+            "[grid]\nspacing = [100.0]\n[model]\nkind = \"shallow-water\"\ndepth = 10.0\n[space]\nfirst = \"upwind1\"\nupwind = \"{upwind}\"\n[time]\nmethod = \"euler\"\ncourant = 0.5\n[scan]\npoints = [129]\n"
+        );
+        // at rest both splittings coincide: |A| = sqrt(gH) I
+        assert_rel(courant_limit(&text), 1.0, 1e-9, upwind);
+    }
+}
+
+#[test]
+fn leapfrog_with_added_dissipation_is_never_stable_on_a_staggered_grid() {
+    // Common practice: leapfrog is unstable for any eigenvalue off the imaginary
+    // axis (its region meets the left half-plane only at 0), so background
+    // dissipation makes the C-grid leapfrog scheme unstable for every dt.
+    let text = shallow("c", "leapfrog", "").replace(
+        "arrangement = \"c\"",
+        "arrangement = \"c\"\ndissipation = { order = 4, strength = 0.01 }",
+    );
+    let c = case(&text);
+    let r = analyse(
+        &c,
+        &Options {
+            par: Par::Seq,
+            progress: false,
+        },
+    )
+    .unwrap();
+    assert_eq!(r.limit.unwrap().kind, LimitKind::None);
 }
