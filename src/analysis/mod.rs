@@ -4,7 +4,9 @@
 
 pub mod composite;
 pub mod first_exit;
+pub mod growth;
 pub mod limit;
+pub mod modes;
 pub mod refine;
 
 use crate::case::{Analysis, Case};
@@ -94,6 +96,35 @@ pub struct Results {
     /// For composite schemes: whether the uniform scan of Δt below the limit
     /// confirmed it, and whether it had to move the limit down.
     pub limit_verified: Option<(bool, bool)>,
+    /// Non-normality and transient growth, if asked.
+    pub growth: Option<GrowthResult>,
+    /// Worst-case modes of each measure computed.
+    pub modes: Vec<modes::Mode>,
+}
+
+/// Non-normality maps, the growth envelope and its headline numbers.
+#[derive(Debug, Clone)]
+pub struct GrowthResult {
+    /// ‖G‖₂ per node.
+    pub norm: Vec<f64>,
+    /// Relative Henrici departure per node.
+    pub departure: Vec<f64>,
+    /// Eigenvector condition number per node (inf where defective).
+    pub condition: Vec<f64>,
+    /// max over the grid of ‖Gⁿ‖₂, n = 0..=steps.
+    pub envelope: Vec<f64>,
+    /// Peak of the envelope: value, step, wavevector.
+    pub peak: (f64, usize, Vec<f64>),
+    /// Kreiss-constant lower bound and where (None when ρ > 1: infinite).
+    pub kreiss: Option<(f64, Vec<f64>)>,
+    /// (ε, ε-pseudospectral radius) at the peak wavevector.
+    pub pseudospectral: (f64, f64),
+    /// Nodes with a defective eigenvalue on the unit circle.
+    pub defective_on_circle: usize,
+    /// Verdict.
+    pub class: &'static str,
+    /// Its explanation.
+    pub verdict: String,
 }
 
 /// How the limit of one-step and multistep methods is found.
@@ -236,6 +267,12 @@ pub fn analyse(case: &Case, opts: &Options) -> Result<Results, OperatorError> {
         failures,
         limit_found_by: FOUND_BY_EXIT,
         limit_verified: None,
+        growth: None,
+        modes: Vec::new(),
+    })
+    .map(|mut r| {
+        finish_growth_and_modes(case, &op, opts, &mut r, &|mu| -exits.exact(mu));
+        r
     })
 }
 
@@ -329,7 +366,7 @@ fn analyse_composite(
         }
         s
     });
-    Results {
+    let mut r = Results {
         grid,
         dt,
         radius,
@@ -339,6 +376,182 @@ fn analyse_composite(
         failures,
         limit_found_by: FOUND_BY_SEARCH,
         limit_verified: verified,
+        growth: None,
+        modes: Vec::new(),
+    };
+    finish_growth_and_modes(case, op, opts, &mut r, &|mu| mu.norm());
+    r
+}
+
+/// G(θ, Δt) for any method.
+pub fn amplification_at(
+    case: &Case,
+    op: &Operator,
+    theta: &[f64],
+    dt: f64,
+) -> nalgebra::DMatrix<C64> {
+    match case.method.composite() {
+        Some(c) => {
+            crate::time::composite::amplification(c, &case.system, op, &case.spacing, theta, dt)
+        }
+        None => case
+            .method
+            .amplification_matrix(&(op.symbol_matrix(theta) * C64::new(dt, 0.0))),
+    }
+}
+
+/// The growth analysis (when asked) and the worst-case modes of every measure.
+/// `limit_pick` ranks eigenvalues of L for the limit mode (largest first).
+fn finish_growth_and_modes(
+    case: &Case,
+    op: &Operator,
+    opts: &Options,
+    r: &mut Results,
+    limit_pick: &(dyn Fn(C64) -> f64 + Sync),
+) {
+    let dt = r.dt;
+    let vars = &case.system.variables;
+    if case.scan.analyses.contains(&Analysis::Growth) {
+        r.growth = Some(growth_analysis(case, op, opts, &r.grid, dt));
+    }
+    if let Some(rad) = &r.radius {
+        let g = amplification_at(case, op, &rad.wavevector, dt);
+        if let Some((lam, v)) = modes::eigenpair(&g, |z| z.norm()) {
+            let w = -lam.arg() / dt;
+            r.modes.push(modes::finish(
+                "radius",
+                &rad.wavevector,
+                v,
+                vars,
+                lam,
+                Some(w),
+            ));
+        }
+    }
+    if let Some(gr) = &r.growth {
+        let (_, n, theta) = &gr.peak;
+        let g = amplification_at(case, op, theta, dt);
+        let (factor, v) = growth::optimal_perturbation(&g, *n);
+        let lam = modes::eigenpair(&g, |z| z.norm()).map(|p| p.0);
+        let w = lam.map(|l| -l.arg() / dt);
+        r.modes.push(modes::finish(
+            "growth",
+            theta,
+            v,
+            vars,
+            C64::new(factor, 0.0),
+            w,
+        ));
+    }
+    if let Some(l) = &r.limit {
+        if l.kind == LimitKind::Bounded {
+            let pair = match case.method.composite() {
+                Some(_) => {
+                    let g = amplification_at(case, op, &l.wavevector, l.dt_max * (1.0 + 1e-6));
+                    modes::eigenpair(&g, |z| z.norm()).map(|(lam, v)| (lam, v, -lam.arg() / dt))
+                }
+                None => modes::eigenpair(&op.symbol_matrix(&l.wavevector), limit_pick)
+                    .map(|(mu, v)| (mu, v, -mu.im)),
+            };
+            if let Some((val, v, w)) = pair {
+                r.modes
+                    .push(modes::finish("limit", &l.wavevector, v, vars, val, Some(w)));
+            }
+        }
+    }
+}
+
+fn growth_analysis(
+    case: &Case,
+    op: &Operator,
+    opts: &Options,
+    grid: &Grid,
+    dt: f64,
+) -> GrowthResult {
+    let steps = case.scan.steps;
+    let env = growth::Envelope::new(steps);
+    let bar = progress_bar(grid.len() as u64, "growth", opts.progress);
+    let symmetry = if op.real_coefficients {
+        sample::Symmetry::Even
+    } else {
+        sample::Symmetry::None
+    };
+    let nodes: Vec<(growth::NodeMeasures, (f64, usize))> =
+        sample::map(grid, opts.par, symmetry, Some(&bar), |th| {
+            growth::node(&amplification_at(case, op, th, dt), steps, &env)
+        });
+    bar.finish_and_clear();
+    let envelope = env.values();
+    let (ipk, (pv, pn)) = nodes
+        .iter()
+        .enumerate()
+        .map(|(i, n)| (i, n.1))
+        .filter(|(_, p)| !p.0.is_nan())
+        .fold((0, (f64::NEG_INFINITY, 0)), |b, x| {
+            if x.1 .0 > b.1 .0 {
+                x
+            } else {
+                b
+            }
+        });
+    let dims = grid.points.len();
+    let mut idx = vec![0usize; dims];
+    grid.unravel(ipk, &mut idx);
+    let peak_theta = grid.theta(&idx);
+    let g_peak = amplification_at(case, op, &peak_theta, dt);
+    let rho_max = nodes
+        .iter()
+        .map(|n| n.0.radius)
+        .filter(|v| !v.is_nan())
+        .fold(0.0, f64::max);
+    let kreiss = {
+        let k = growth::kreiss_lower_bound(&g_peak);
+        k.is_finite().then_some((k, peak_theta.clone()))
+    };
+    let eps = case.scan.epsilon;
+    let pseudo = growth::pseudospectral_radius(&g_peak, eps);
+    let defective_on_circle = nodes
+        .iter()
+        .filter(|n| n.0.condition.is_infinite() && n.0.radius >= 1.0 - 1e-6)
+        .count();
+    let tol = case.scan.tolerance;
+    let last = envelope.last().copied().unwrap_or(1.0);
+    let mid = envelope.get(steps / 2).copied().unwrap_or(1.0);
+    let linear_growth = steps >= 8 && last > 2.0 && last >= 1.5 * mid;
+    let (class, verdict) = if rho_max > 1.0 + tol {
+        (
+            "unstable",
+            format!("unstable: spectral radius {rho_max:.6} > 1"),
+        )
+    } else if defective_on_circle > 0 || linear_growth {
+        (
+            "weakly-unstable",
+            format!(
+                "weakly unstable: a defective eigenvalue on the unit circle ({defective_on_circle} wavevectors) gives growth linear in n; max ||G^n|| = {last:.4} at n = {steps}"
+            ),
+        )
+    } else if pv > 1.0 + 1e-6 {
+        (
+            "stable-transient-growth",
+            format!("stable with transient growth: max ||G^n|| = {pv:.6} at step {pn} before decay or saturation"),
+        )
+    } else {
+        (
+            "stable-normal",
+            "stable without transient growth: ||G^n|| <= 1 for every n and wavevector".to_string(),
+        )
+    };
+    GrowthResult {
+        norm: nodes.iter().map(|n| n.0.norm).collect(),
+        departure: nodes.iter().map(|n| n.0.departure).collect(),
+        condition: nodes.iter().map(|n| n.0.condition).collect(),
+        envelope,
+        peak: (pv, pn, peak_theta),
+        kreiss,
+        pseudospectral: (eps, pseudo),
+        defective_on_circle,
+        class,
+        verdict,
     }
 }
 

@@ -89,6 +89,8 @@ pub enum Analysis {
     Radius,
     /// Largest stable Δt, overall and per direction.
     Limit,
+    /// Non-normality and transient growth.
+    Growth,
 }
 
 /// Scan settings.
@@ -106,6 +108,8 @@ pub struct Scan {
     pub analyses: Vec<Analysis>,
     /// How many amplification matrices to write for external cross-checks.
     pub matrices: usize,
+    /// ε of the ε-pseudospectral radius.
+    pub epsilon: f64,
 }
 
 /// A validated case: everything resolved, nothing left as a string to interpret.

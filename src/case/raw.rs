@@ -123,4 +123,5 @@ pub struct RawScan {
     pub tolerance: Option<f64>,
     pub analyses: Option<Vec<String>>,
     pub matrices: Option<i64>,
+    pub epsilon: Option<f64>,
 }

@@ -822,7 +822,7 @@ fn scan(cx: &Ctx, s: &RawScan, dims: usize) -> Result<Scan, CaseError> {
         return Err(cx.err("scan.tolerance", "must lie in [0, 0.01)"));
     }
     let analyses = match &s.analyses {
-        None => vec![Analysis::Radius, Analysis::Limit],
+        None => vec![Analysis::Radius, Analysis::Limit, Analysis::Growth],
         Some(list) => {
             let mut out = Vec::new();
             for (i, a) in list.iter().enumerate() {
@@ -830,7 +830,8 @@ fn scan(cx: &Ctx, s: &RawScan, dims: usize) -> Result<Scan, CaseError> {
                 let an = match a.as_str() {
                     "radius" => Analysis::Radius,
                     "limit" => Analysis::Limit,
-                    "growth" | "dispersion" => {
+                    "growth" => Analysis::Growth,
+                    "dispersion" => {
                         return Err(cx.err(
                             &key,
                             format!("analysis '{a}' is not available in this version of kgain"),
@@ -862,7 +863,9 @@ fn scan(cx: &Ctx, s: &RawScan, dims: usize) -> Result<Scan, CaseError> {
             "use fewer points per axis",
         ));
     }
+    let epsilon = cx.positive("scan.epsilon", s.epsilon.unwrap_or(1e-3))?;
     Ok(Scan {
+        epsilon,
         points,
         directions,
         steps,

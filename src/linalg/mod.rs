@@ -11,6 +11,7 @@
 //! decomposition (Francis QR). The analyses only see this API, so a faster kernel
 //! can replace the general path without touching them.
 
+pub mod dense;
 pub mod poly;
 
 use nalgebra::DMatrix;

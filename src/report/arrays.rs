@@ -193,6 +193,62 @@ pub fn write_arrays(dir: &Path, case: &Case, r: &Results) -> Result<Value, Repor
             )?;
         }
     }
+    if let Some(g) = &r.growth {
+        let maps = [
+            ("norm", &g.norm, "2-norm of the amplification matrix"),
+            (
+                "departure",
+                &g.departure,
+                "relative Henrici departure from normality of G",
+            ),
+            (
+                "eigvec_condition",
+                &g.condition,
+                "2-norm condition number of the eigenvector matrix of G (inf where defective)",
+            ),
+        ];
+        for (name, data, long_name) in maps {
+            w.real(
+                name,
+                &r.grid.points,
+                data.clone(),
+                Meta {
+                    dims: grid_dims.clone(),
+                    units: "1",
+                    long_name,
+                },
+            )?;
+        }
+        w.real(
+            "growth",
+            &[g.envelope.len()],
+            g.envelope.clone(),
+            Meta {
+                dims: vec!["step"],
+                units: "1",
+                long_name: "max over the wavevector grid of ||G^n||_2, n = 0..steps",
+            },
+        )?;
+    }
+    for mode in &r.modes {
+        let name = format!("mode_{}", mode.kind);
+        w.complex(
+            &name,
+            &[mode.vector.len()],
+            mode.vector.clone(),
+            Meta {
+                dims: vec!["component"],
+                units: "1",
+                long_name: match mode.kind {
+                    "radius" => "eigenvector of G for the largest |lambda| at the worst wavevector",
+                    "growth" => "initial perturbation with the largest growth at the peak step",
+                    _ => "eigenvector of the first mode to go unstable at the limit wavevector",
+                },
+            },
+        )?;
+        w.entries[&name]["labels"] = serde_json::to_value(&mode.labels).expect("labels serialise");
+        w.entries[&name]["wavevector"] = serde_json::to_value(&mode.wavevector).expect("numbers");
+    }
     if let Some(s) = &r.samples {
         let k = s.index.len();
         let m = case.system.size();

@@ -165,6 +165,54 @@ pub fn summary_json(case: &Case, r: &Results) -> Value {
             "dt_max": num(d.dt.iter().copied().fold(0.0, f64::max)),
         });
     }
+    if let Some(g) = &r.growth {
+        let (pv, pn, pt) = &g.peak;
+        s["growth"] = json!({
+            "max_norm": num(*pv),
+            "step": pn,
+            "wavevector": vec_num(pt),
+            "steps": case.scan.steps,
+            "final_norm": num(g.envelope.last().copied().unwrap_or(f64::NAN)),
+            "max_norm_one_step": num(g.norm.iter().copied().filter(|v| !v.is_nan()).fold(0.0, f64::max)),
+            "max_departure": num(g.departure.iter().copied().filter(|v| !v.is_nan()).fold(0.0, f64::max)),
+            "defective_on_unit_circle": g.defective_on_circle,
+            "kreiss": match &g.kreiss {
+                Some((k, th)) => json!({
+                    "lower_bound": num(*k),
+                    "wavevector": vec_num(th),
+                    "upper_bound_on_growth_from_sampled_constant": num(std::f64::consts::E * (case.system.size() * case.method.levels()) as f64 * k),
+                    "note": "K sampled over |z| > 1 at the peak wavevector is a lower bound on the Kreiss constant; by the Kreiss matrix theorem K <= sup ||G^n|| <= e m K",
+                }),
+                None => json!({"lower_bound": null, "infinite": true}),
+            },
+            "pseudospectral_radius": { "epsilon": g.pseudospectral.0, "radius": num(g.pseudospectral.1), "wavevector": vec_num(pt) },
+            "class": g.class,
+            "verdict": g.verdict,
+        });
+    }
+    if !r.modes.is_empty() {
+        let modes: Vec<Value> = r
+            .modes
+            .iter()
+            .map(|m| {
+                let comp: serde_json::Map<String, Value> = m
+                    .composition
+                    .iter()
+                    .map(|(k, v)| (k.clone(), num(*v)))
+                    .collect();
+                json!({
+                    "measure": m.kind,
+                    "wavevector": vec_num(&m.wavevector),
+                    "value": [num(m.value.re), num(m.value.im)],
+                    "frequency": m.frequency.map(num),
+                    "composition": comp,
+                    "file": format!("mode_{}.npy", m.kind),
+                    "description": m.description,
+                })
+            })
+            .collect();
+        s["modes"] = Value::Array(modes);
+    }
     s["cautions"] = json!(cautions(case, r));
     s
 }

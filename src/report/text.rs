@@ -113,6 +113,22 @@ pub fn human_summary(case: &Case, r: &Results, out: Option<&std::path::Path>) ->
             );
         }
     }
+    if let Some(g) = &r.growth {
+        row(&mut s, "growth", g.verdict.clone());
+        if let Some((k, _)) = &g.kreiss {
+            row(
+                &mut s,
+                "kreiss",
+                format!(
+                    "K >= {k:.6} (sampled), eps-pseudospectral radius {:.6} (eps = {:e})",
+                    g.pseudospectral.1, g.pseudospectral.0
+                ),
+            );
+        }
+    }
+    for m in &r.modes {
+        row(&mut s, &format!("{} mode", m.kind), m.description.clone());
+    }
     if let Some(o) = out {
         row(&mut s, "output", format!("{}/", o.display()));
     }
