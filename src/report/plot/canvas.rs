@@ -37,6 +37,17 @@ impl<'a> Canvas<'a> {
     }
 }
 
+#[cfg(test)]
+impl<'a> Canvas<'a> {
+    /// A canvas drawing into an RGB buffer of `size` pixels.
+    fn with_buffer(buf: &'a mut [u8], size: (u32, u32), font: &'static FontRef<'static>) -> Self {
+        Canvas {
+            inner: BitMapBackend::with_buffer(buf, size),
+            font,
+        }
+    }
+}
+
 /// The laid-out glyph coverage of a text: pixels relative to the start of the
 /// baseline, and the metrics needed to anchor it.
 struct Layout {
@@ -204,5 +215,83 @@ impl DrawingBackend for Canvas<'_> {
     ) -> Result<(u32, u32), DrawingErrorKind<Self::ErrorType>> {
         let l = layout(self.font, style.size(), text, false);
         Ok((l.width.ceil() as u32, (l.ascent - l.descent).ceil() as u32))
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::report::plot::style;
+
+    const W: u32 = 240;
+    const H: u32 = 60;
+
+    /// Draws `text` anchored at `at` and returns the dark pixels.
+    fn ink(text: &str, at: (i32, i32), anchor: (HPos, VPos)) -> Vec<(i32, i32)> {
+        let font = super::super::font().expect("embedded font");
+        let mut buf = vec![255u8; (W * H * 3) as usize];
+        {
+            let root = Canvas::with_buffer(&mut buf, (W, H), font).into_drawing_area();
+            let t = style::text(20.0, style::INK).pos(style::anchor(anchor.0, anchor.1));
+            root.draw(&Text::new(text, at, t)).expect("text drawn");
+            root.present().expect("presented");
+        }
+        (0..H as i32)
+            .flat_map(|y| (0..W as i32).map(move |x| (x, y)))
+            .filter(|&(x, y)| buf[((y as u32 * W + x as u32) * 3) as usize] < 128)
+            .collect()
+    }
+
+    #[test]
+    fn centred_capitals_sit_on_the_anchor() {
+        let px = ink("HH", (120, 30), (HPos::Center, VPos::Center));
+        let (x0, x1) = (
+            px.iter().map(|p| p.0).min().unwrap(),
+            px.iter().map(|p| p.0).max().unwrap(),
+        );
+        let (y0, y1) = (
+            px.iter().map(|p| p.1).min().unwrap(),
+            px.iter().map(|p| p.1).max().unwrap(),
+        );
+        assert!(((x0 + x1) - 240).abs() <= 3, "columns {x0}..{x1}");
+        assert!(((y0 + y1) - 60).abs() <= 2, "rows {y0}..{y1}");
+    }
+
+    #[test]
+    fn narrow_glyphs_keep_their_side_bearings() {
+        // "1.5": the point must stand apart from both digits, on their baseline
+        let px = ink("1.5", (20, 30), (HPos::Left, VPos::Center));
+        let mut cols: Vec<i32> = px.iter().map(|p| p.0).collect();
+        cols.sort_unstable();
+        cols.dedup();
+        let clusters = 1 + cols.windows(2).filter(|w| w[1] > w[0] + 1).count();
+        assert_eq!(clusters, 3, "columns {cols:?}");
+        let bottom = px.iter().map(|p| p.1).max().unwrap();
+        let gap = cols.windows(2).position(|w| w[1] > w[0] + 1).unwrap();
+        let dot_col = cols[gap + 1];
+        let dot_bottom = px
+            .iter()
+            .filter(|p| p.0 == dot_col)
+            .map(|p| p.1)
+            .max()
+            .unwrap();
+        assert!(
+            (dot_bottom - bottom).abs() <= 1,
+            "dot ends at {dot_bottom}, digits at {bottom}"
+        );
+    }
+
+    #[test]
+    fn estimated_width_matches_the_drawn_width() {
+        let font = super::super::font().expect("embedded font");
+        let text = "spectral radius |λ|max";
+        let l = layout(font, 20.0, text, false);
+        let px = ink(text, (10, 30), (HPos::Left, VPos::Center));
+        let drawn = px.iter().map(|p| p.0).max().unwrap() - px.iter().map(|p| p.0).min().unwrap();
+        assert!(
+            (l.width - drawn as f32).abs() < 4.0,
+            "{} vs {drawn}",
+            l.width
+        );
     }
 }

@@ -51,7 +51,7 @@ impl Series {
             quantity: if courant {
                 "largest stable Courant number ν"
             } else {
-                "largest stable Δt"
+                "largest stable Δt (s)"
             },
             symbol: if courant { "ν" } else { "Δt" },
         }
@@ -247,19 +247,20 @@ fn bars(root: &Area, dl: &DirectionalLimit, s: &Series) -> Res {
         &py,
         chart.backend_coord(&(0.0, s.case_value)).1,
     )?;
+    for (i, v) in s
+        .values
+        .iter()
+        .enumerate()
+        .take(2)
+        .filter(|(_, v)| v.is_finite())
+    {
+        let (x, y) = chart.backend_coord(&(0.5 + i as f64, *v));
+        let t = style::text(15.0, style::INK).pos(style::anchor(HPos::Center, VPos::Bottom));
+        let label = format!("{} = {}", s.symbol, style::num(*v, 6));
+        root.draw(&Text::new(label, (x, y - 16), t))?;
+    }
     if let Some((i, v)) = s.worst() {
-        let p = chart.backend_coord(&(0.5 + i as f64, v));
-        target(root, p)?;
-        let lines = vec![
-            format!("min {} = {}", s.symbol, style::num(v, 6)),
-            format!("direction {}", name(i)),
-        ];
-        callout(
-            root,
-            p,
-            &lines,
-            ((px.start, px.end - 1), (py.start, py.end - 1)),
-        )?;
+        target(root, chart.backend_coord(&(0.5 + i as f64, v)))?;
     }
     let mut legend = s.legend();
     legend[0].0 = Key::Swatch(style::CURVE);

@@ -121,6 +121,9 @@ fn scheme_line(case: &Case, dt: f64) -> String {
     if let Some(nu) = case.courant_of(dt) {
         step.push_str(&format!(", ν = {}", style::num(nu, 4)));
     }
+    if let Some(r) = case.diffusion_number_of(dt) {
+        step.push_str(&format!(", r = {}", style::num(r, 4)));
+    }
     parts.push(step);
     parts.join("  ·  ")
 }
