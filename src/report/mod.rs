@@ -1,5 +1,5 @@
-//! The output folder: NPY arrays, manifest.json, summary.json, and the human
-//! summary printed by `kgain run`.
+//! The output folder: NPY arrays, manifest.json, summary.json, PNG pictures,
+//! and the human summary printed by `kgain run`.
 //!
 //! The folder is checked before any computation ([`check_destination`]) and
 //! written atomically: everything goes into a temporary sibling folder that is
@@ -7,6 +7,7 @@
 //! an existing folder from another case is never replaced without `--force`.
 
 mod arrays;
+pub mod plot;
 mod summary;
 mod text;
 
@@ -35,6 +36,14 @@ pub enum ReportError {
         path: String,
         /// The cause.
         source: std::io::Error,
+    },
+    /// A picture could not be drawn or encoded.
+    #[error("{path}: cannot draw the picture: {message}")]
+    Plot {
+        /// Where.
+        path: String,
+        /// The cause.
+        message: String,
     },
     /// An NPY writer error.
     #[error("{path}: cannot write the array: {message}")]
@@ -106,7 +115,13 @@ pub fn write(out: &Path, case: &Case, results: &Results) -> Result<PathBuf, Repo
     }
     std::fs::create_dir_all(&tmp).map_err(io(&tmp))?;
     let result = (|| {
-        let manifest = arrays::write_arrays(&tmp, case, results)?;
+        let mut manifest = arrays::write_arrays(&tmp, case, results)?;
+        let pictures = plot::write_pictures(&tmp, case, results)?;
+        manifest["pictures"] = pictures
+            .iter()
+            .filter_map(|p| p.file_name().map(|f| f.to_string_lossy().into_owned()))
+            .collect::<Vec<_>>()
+            .into();
         let summary = summary_json(case, results);
         let write_json = |name: &str, v: &serde_json::Value| {
             let p = tmp.join(name);

@@ -1,0 +1,153 @@
+//! PNG pictures of the results, drawn with plotters' bitmap backend.
+//!
+//! The pictures only consume what the analyses produced (the same numbers that
+//! go into the NPY files): `radius.png` shows the spectral-radius map with its
+//! |λ| = 1 + tolerance contour and the worst wavevector ([`radius`]),
+//! `limit_polar.png` the largest stable Courant number (or Δt) per wave
+//! direction ([`limit`]). A picture whose data the case did not ask for is
+//! skipped.
+//!
+//! Text uses DejaVu Sans, embedded in the binary (`assets/fonts/`, licence in
+//! `assets/fonts/LICENSE-DejaVu.txt`) and registered with plotters' ab_glyph
+//! font table, so no system font library or font file is needed at run time.
+//! All pictures share one layout (a title band naming the case, method and
+//! stencil over the plot), one palette ([`style`]) and one colour map
+//! ([`colormap`]).
+
+mod canvas;
+mod colormap;
+mod contour;
+mod heatmap;
+mod limit;
+mod polar;
+mod radius;
+mod style;
+
+use super::ReportError;
+use crate::analysis::Results;
+use crate::case::Case;
+use ab_glyph::FontRef;
+use plotters::coord::Shift;
+use plotters::prelude::*;
+use plotters::style::text_anchor::{HPos, VPos};
+use std::path::{Path, PathBuf};
+use std::sync::OnceLock;
+
+/// Width and height of every picture, in pixels.
+pub const SIZE: (u32, u32) = (1000, 800);
+
+/// Height of the title band at the top of every picture, in pixels.
+pub const TITLE_BAND: u32 = 78;
+
+/// The family name the embedded font is registered under.
+const FONT: &str = "kgain-sans";
+
+/// DejaVu Sans (Bitstream Vera licence with public-domain DejaVu changes).
+static FONT_BYTES: &[u8] = include_bytes!("../../../assets/fonts/DejaVuSans.ttf");
+
+type Area<'a> = DrawingArea<canvas::Canvas<'a>, Shift>;
+type Res<T = ()> = Result<T, Box<dyn std::error::Error>>;
+
+/// The embedded font, parsed once, and also registered in plotters' font table
+/// under [`FONT`] so that every `TextStyle` the charts build resolves to it.
+/// (Both are process-wide and immutable after the first call.)
+fn font() -> Result<&'static FontRef<'static>, String> {
+    static FONT_REF: OnceLock<Result<FontRef<'static>, String>> = OnceLock::new();
+    FONT_REF
+        .get_or_init(|| {
+            let bad = || "the embedded DejaVu Sans font could not be parsed".to_string();
+            plotters::style::register_font(FONT, FontStyle::Normal, FONT_BYTES)
+                .map_err(|_| bad())?;
+            FontRef::try_from_slice(FONT_BYTES).map_err(|_| bad())
+        })
+        .as_ref()
+        .map_err(Clone::clone)
+}
+
+/// Draws every picture the results have data for into `dir`; returns the files
+/// written, in a fixed order.
+pub fn write_pictures(
+    dir: &Path,
+    case: &Case,
+    results: &Results,
+) -> Result<Vec<PathBuf>, ReportError> {
+    let fail = |path: &Path, message: String| ReportError::Plot {
+        path: path.display().to_string(),
+        message,
+    };
+    let font = font().map_err(|m| fail(dir, m))?;
+    let mut written = Vec::new();
+    if let Some(rad) = &results.radius {
+        let path = dir.join("radius.png");
+        render(&path, font, |root| radius::draw(root, case, results, rad))
+            .map_err(|e| fail(&path, e.to_string()))?;
+        written.push(path);
+    }
+    if let Some(dl) = &results.directional {
+        let path = dir.join("limit_polar.png");
+        render(&path, font, |root| limit::draw(root, case, results, dl))
+            .map_err(|e| fail(&path, e.to_string()))?;
+        written.push(path);
+    }
+    Ok(written)
+}
+
+/// One picture: a white canvas of [`SIZE`], drawn by `f`, encoded as PNG.
+fn render(path: &Path, font: &'static FontRef<'static>, f: impl FnOnce(&Area) -> Res) -> Res {
+    let root = canvas::Canvas::new(path, SIZE, font).into_drawing_area();
+    root.fill(&WHITE)?;
+    f(&root)?;
+    root.present()?;
+    Ok(())
+}
+
+/// The scheme in words, for the second title line.
+fn scheme_line(case: &Case, dt: f64) -> String {
+    let mut names: Vec<&str> = case.space.first.iter().map(|s| s.name.as_str()).collect();
+    names.dedup();
+    let mut parts = vec![
+        format!("{}-D {}", case.dims(), case.system.kind),
+        format!("{} in time", case.method.name),
+        format!("{} in space", names.join(" / ")),
+    ];
+    if let Some(d) = &case.space.dissipation {
+        parts.push(format!(
+            "dissipation p = {}, σ = {}",
+            d.order,
+            style::num(d.strength, 3)
+        ));
+    }
+    let mut step = format!("Δt = {}", style::num(dt, 4));
+    if let Some(nu) = case.courant_of(dt) {
+        step.push_str(&format!(", ν = {}", style::num(nu, 4)));
+    }
+    if let Some(r) = case.diffusion_number_of(dt) {
+        step.push_str(&format!(", r = {}", style::num(r, 4)));
+    }
+    parts.push(step);
+    parts.join("  ·  ")
+}
+
+/// The title band: the case name and what the picture shows, then the scheme.
+fn title_band(root: &Area, case: &Case, what: &str, dt: f64) -> Res {
+    let (w, _) = root.dim_in_pixel();
+    root.draw(&Text::new(
+        format!("{} — {what}", case.name),
+        (26, 16),
+        style::text(23.0, style::INK),
+    ))?;
+    root.draw(&Text::new(
+        scheme_line(case, dt),
+        (26, 48),
+        style::text(15.0, style::MUTED),
+    ))?;
+    let y = TITLE_BAND as i32 - 1;
+    root.draw(&PathElement::new(
+        vec![(20, y), (w as i32 - 20, y)],
+        style::RULE.stroke_width(1),
+    ))?;
+    let tag = concat!("kgain ", env!("CARGO_PKG_VERSION"));
+    let t = style::text(11.0, style::FAINT).pos(style::anchor(HPos::Right, VPos::Bottom));
+    root.draw(&Text::new(tag, (SIZE.0 as i32 - 10, SIZE.1 as i32 - 8), t))?;
+    Ok(())
+}
