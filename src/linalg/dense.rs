@@ -158,7 +158,7 @@ mod tests {
                 C64::new(-0.3, 0.0),
             ],
         );
-        let fro2 = 0.26 + 5.0 + 0.09;
+        let fro2: f64 = 0.26 + 5.0 + 0.09;
         let want = (5.0f64).sqrt() / fro2.sqrt();
         assert!((departure(&t) - want).abs() <= 1e-15 * 4.0);
     }
