@@ -47,11 +47,11 @@ impl<'m> ExitTimes<'m> {
         }
     }
 
-    fn dir(&self, mu: C64) -> Dir {
+    fn dir(&self, mu: C64, noise: f64) -> Dir {
         let r = mu.norm();
-        if r <= self.zero {
+        if r <= self.zero.max(noise) {
             Dir::Zero
-        } else if mu.re.abs() <= self.tolerance * r {
+        } else if mu.re.abs() <= (self.tolerance * r).max(noise) {
             if mu.im > 0.0 {
                 Dir::Up
             } else {
@@ -69,9 +69,11 @@ impl<'m> ExitTimes<'m> {
         })
     }
 
-    /// Exact first-exit time of μ.
-    pub fn exact(&self, mu: C64) -> f64 {
-        match self.dir(mu) {
+    /// Exact first-exit time of μ. `noise` is the roundoff level of the
+    /// eigenvalues at this wavevector (see [`noise_level`]): an eigenvalue within
+    /// it of zero is neutral, a real part within it is put on the imaginary axis.
+    pub fn exact(&self, mu: C64, noise: f64) -> f64 {
+        match self.dir(mu, noise) {
             Dir::Zero => f64::INFINITY,
             Dir::Up => self.up / mu.norm(),
             Dir::Down => self.down / mu.norm(),
@@ -81,8 +83,8 @@ impl<'m> ExitTimes<'m> {
 
     /// Screening value: exact on the imaginary axis, the lower envelope of the
     /// two neighbouring table entries elsewhere.
-    pub fn estimate(&self, mu: C64) -> f64 {
-        match self.dir(mu) {
+    pub fn estimate(&self, mu: C64, noise: f64) -> f64 {
+        match self.dir(mu, noise) {
             Dir::Zero => f64::INFINITY,
             Dir::Up => self.up / mu.norm(),
             Dir::Down => self.down / mu.norm(),
@@ -93,6 +95,13 @@ impl<'m> ExitTimes<'m> {
             }
         }
     }
+}
+
+/// Roundoff level of computed eigenvalues of a symbol: 64 ε ‖L‖_F. Backward-stable
+/// eigenvalue algorithms perturb each eigenvalue by about ε‖L‖, so a real part
+/// or a modulus below this cannot be told from zero.
+pub fn noise_level(symbol: &[C64]) -> f64 {
+    64.0 * f64::EPSILON * symbol.iter().map(|z| z.norm_sqr()).sum::<f64>().sqrt()
 }
 
 /// The smallest first-exit time over a set of eigenvalues, and the modulus of the

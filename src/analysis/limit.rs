@@ -73,10 +73,11 @@ impl<'a> Evaluator<'a> {
         if solver.eigenvalues(sym, eig).is_err() {
             return (f64::NAN, 0.0);
         }
+        let noise = super::first_exit::noise_level(sym);
         if exact {
-            min_over_modes(eig, |mu| self.exits.exact(mu))
+            min_over_modes(eig, |mu| self.exits.exact(mu, noise))
         } else {
-            min_over_modes(eig, |mu| self.exits.estimate(mu))
+            min_over_modes(eig, |mu| self.exits.estimate(mu, noise))
         }
     }
 

@@ -201,7 +201,8 @@ pub fn analyse(case: &Case, opts: &Options) -> Result<Results, OperatorError> {
                     0.0
                 };
                 let (t, w) = if want_limit {
-                    min_over_modes(eig, |mu| exits.estimate(mu))
+                    let noise = first_exit::noise_level(node.symbol);
+                    min_over_modes(eig, |mu| exits.estimate(mu, noise))
                 } else {
                     (0.0, 0.0)
                 };
@@ -245,14 +246,14 @@ pub fn analyse(case: &Case, opts: &Options) -> Result<Results, OperatorError> {
         });
         dbar.finish_and_clear();
         let (dt, wavevector) = res.into_iter().unzip();
-        (
-            Some(overall),
-            Some(DirectionalLimit {
-                directions: dirs,
-                dt,
-                wavevector,
-            }),
-        )
+        let dl = DirectionalLimit {
+            directions: dirs,
+            dt,
+            wavevector,
+        };
+        let mut overall = overall;
+        reconcile(&mut overall, &dl);
+        (Some(overall), Some(dl))
     } else {
         (None, None)
     };
@@ -271,7 +272,7 @@ pub fn analyse(case: &Case, opts: &Options) -> Result<Results, OperatorError> {
         modes: Vec::new(),
     })
     .map(|mut r| {
-        finish_growth_and_modes(case, &op, opts, &mut r, &|mu| -exits.exact(mu));
+        finish_growth_and_modes(case, &op, opts, &mut r, &|mu| -exits.exact(mu, 0.0));
         r
     })
 }
@@ -327,14 +328,14 @@ fn analyse_composite(
             .run(|| ev.by_direction(&dirs, per_ray, start, Some(&dbar)));
         dbar.finish_and_clear();
         let (dtv, wavevector) = res.into_iter().unzip();
-        (
-            Some(overall.limit),
-            Some(DirectionalLimit {
-                directions: dirs,
-                dt: dtv,
-                wavevector,
-            }),
-        )
+        let dl = DirectionalLimit {
+            directions: dirs,
+            dt: dtv,
+            wavevector,
+        };
+        let mut lim = overall.limit;
+        reconcile(&mut lim, &dl);
+        (Some(lim), Some(dl))
     } else {
         (None, None)
     };
@@ -381,6 +382,27 @@ fn analyse_composite(
     };
     finish_growth_and_modes(case, op, opts, &mut r, &|mu| mu.norm());
     r
+}
+
+/// The overall limit can be no larger than any directional one: on a coarse grid
+/// (say every node at θ ∈ {−π, 0, π}) the rays see wavevectors the grid misses.
+fn reconcile(overall: &mut Limit, dl: &DirectionalLimit) {
+    let best = dl.dt.iter().enumerate().filter(|(_, v)| !v.is_nan()).fold(
+        (usize::MAX, f64::INFINITY),
+        |b, (i, v)| if *v < b.1 { (i, *v) } else { b },
+    );
+    if best.0 != usize::MAX && (overall.dt_max.is_nan() || best.1 < overall.dt_max) {
+        overall.dt_max = best.1;
+        overall.wavevector = dl.wavevector[best.0]
+            .iter()
+            .map(|x| limit::wrap(*x))
+            .collect();
+        overall.kind = if best.1 == 0.0 {
+            LimitKind::None
+        } else {
+            LimitKind::Bounded
+        };
+    }
 }
 
 /// G(θ, Δt) for any method.

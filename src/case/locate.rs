@@ -33,6 +33,38 @@ pub fn key_position(text: &str, dotted: &str) -> Option<(usize, usize)> {
     best.map(|o| line_col(text, o))
 }
 
+/// The dotted key written on the line holding byte `offset`: the `key =` at the
+/// start of that line under the nearest `[table]` header above it, or the header
+/// itself when the line is one.
+pub fn key_at(text: &str, offset: usize) -> Option<String> {
+    let offset = offset.min(text.len());
+    let start = text[..offset].rfind('\n').map_or(0, |i| i + 1);
+    let line = text[start..].lines().next().unwrap_or("");
+    let header = |l: &str| {
+        let t = l.trim();
+        (t.starts_with('[') && !t.starts_with("[[")).then(|| {
+            t.trim_start_matches('[')
+                .split(']')
+                .next()
+                .unwrap_or("")
+                .trim()
+                .to_string()
+        })
+    };
+    if let Some(h) = header(line) {
+        return Some(h);
+    }
+    let key = line
+        .split_once('=')
+        .map(|(k, _)| k.trim().trim_matches('"').to_string())
+        .filter(|k| !k.is_empty() && k.chars().all(|c| c.is_alphanumeric() || "_-.".contains(c)))?;
+    let table = text[..start].lines().rev().find_map(header);
+    Some(match table {
+        Some(t) => format!("{t}.{key}"),
+        None => key,
+    })
+}
+
 /// Applies `KEY=VALUE` overrides; VALUE is parsed as a TOML value, or taken as a
 /// plain string when it is not one (so `--set time.method=rk4` works unquoted).
 /// Setting one of `time.dt` / `time.courant` removes the other.

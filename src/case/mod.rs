@@ -185,11 +185,33 @@ impl Case {
                 .span()
                 .map(|s| locate::line_col(&text, s.start))
                 .unwrap_or((1, 1));
+            let message = e.message().trim().to_string();
+            let key = e.span().and_then(|s| locate::key_at(&text, s.start));
+            let message = match (key, message.strip_prefix("missing field `")) {
+                (Some(k), Some(rest)) => {
+                    let field = rest.split('`').next().unwrap_or("");
+                    format!("key `{k}.{field}`: is required ({message})")
+                }
+                (Some(k), None) if message.starts_with("unknown field") => {
+                    let parent = k
+                        .rsplit_once('.')
+                        .map_or("the top level".to_string(), |p| format!("[{}]", p.0));
+                    let words: Vec<&str> = message.split('`').skip(1).step_by(2).collect();
+                    let hint = words
+                        .split_first()
+                        .and_then(|(got, valid)| nearest(got, valid.iter().copied()))
+                        .map(|n| format!(" (hint: did you mean `{n}`?)"))
+                        .unwrap_or_default();
+                    format!("key `{k}`: {message} in {parent}{hint}")
+                }
+                (Some(k), None) => format!("key `{k}`: {message}"),
+                (None, _) => message,
+            };
             CaseError::Syntax {
                 file: file.clone(),
                 line,
                 col,
-                message: e.message().trim().to_string(),
+                message,
             }
         })?;
         validate::validate(raw, &text, path)

@@ -162,23 +162,17 @@ impl Stencil {
     }
 
     /// The symbol S(θ) on a unit grid (≈ (iθ)^d for small θ).
+    ///
+    /// Weights at offsets ±o are combined first, (w₊ + w₋) cos θo + i(w₊ − w₋) sin θo,
+    /// so an antisymmetric (central first-derivative) stencil has an exactly
+    /// imaginary symbol and a symmetric one an exactly real symbol: roundoff cannot
+    /// give a neutral scheme a spurious real part.
     pub fn symbol(&self, theta: f64) -> C64 {
-        let num: C64 = self
-            .offsets
-            .iter()
-            .zip(&self.weights)
-            .map(|(o, w)| C64::from_polar(*w, theta * o))
-            .sum();
+        let num = paired_sum(&self.offsets, &self.weights, theta);
         if !self.is_compact() {
             return num / self.implicit_weights[0];
         }
-        let den: C64 = self
-            .implicit_offsets
-            .iter()
-            .zip(&self.implicit_weights)
-            .map(|(p, a)| C64::from_polar(*a, theta * p))
-            .sum();
-        num / den
+        num / paired_sum(&self.implicit_offsets, &self.implicit_weights, theta)
     }
 
     /// The modified wavenumber: −i·S(θ) for a first derivative, −S(θ) for a second,
@@ -242,6 +236,31 @@ impl Stencil {
             (best, best_t)
         }
     }
+}
+
+/// Σ_j w_j e^{iθ o_j}, with the terms at ±o combined into cosine and sine parts.
+fn paired_sum(offsets: &[f64], weights: &[f64], theta: f64) -> C64 {
+    let mut re = 0.0;
+    let mut im = 0.0;
+    for (j, (&o, &w)) in offsets.iter().zip(weights).enumerate() {
+        if o < 0.0 && offsets.iter().any(|&p| p == -o) {
+            continue; // added with its partner
+        }
+        let partner = if o > 0.0 {
+            offsets
+                .iter()
+                .zip(weights)
+                .enumerate()
+                .find(|(k, (p, _))| *k != j && **p == -o)
+                .map_or(0.0, |(_, (_, wp))| *wp)
+        } else {
+            0.0
+        };
+        let (s, c) = (theta * o).sin_cos();
+        re += (w + partner) * c;
+        im += (w - partner) * s;
+    }
+    C64::new(re, im)
 }
 
 /// Golden-section search for a maximum of a unimodal function on [a, b].

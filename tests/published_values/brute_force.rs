@@ -141,9 +141,6 @@ fn overall_limit_never_exceeds_the_smallest_directional_limit() {
 }
 
 #[test]
-#[ignore = "engine bug: with a coarse scan whose nodes all have zero eigenvalues \
-            (points = [3, 3]: θ ∈ {−π, 0, π}) the overall limit is reported as \
-            unconditional, although the directional limits of the same run are finite"]
 fn coarse_scan_does_not_report_a_bounded_scheme_as_unconditional() {
     // RK4 + C2, a = (1, 0.5), h = 1: Δt_max = 2√2/1.5 at θ = (π/2, π/2), which lies
     // between the nodes of a 3-point scan (REFERENCES.md; Hairer & Wanner II).
