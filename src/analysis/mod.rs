@@ -436,34 +436,24 @@ fn finish_growth_and_modes(
     if case.scan.analyses.contains(&Analysis::Growth) {
         r.growth = Some(growth_analysis(case, op, opts, &r.grid, dt));
     }
+    let weights = state_weights(case);
     if let Some(rad) = &r.radius {
         let g = amplification_at(case, op, &rad.wavevector, dt);
         if let Some((lam, v)) = modes::eigenpair(&g, |z| z.norm()) {
             let w = -lam.arg() / dt;
-            r.modes.push(modes::finish(
-                "radius",
-                &rad.wavevector,
-                v,
-                vars,
-                lam,
-                Some(w),
-            ));
+            let v = scale_vector(v, &weights);
+            let mode = modes::finish("radius", &rad.wavevector, v, vars, lam, Some(w));
+            r.modes.push(mode);
         }
     }
-    if let Some(gr) = &r.growth {
+    if let Some(gr) = r.growth.as_ref().filter(|g| g.peak.0 > 1.0 + 1e-6) {
         let (_, n, theta) = &gr.peak;
-        let g = amplification_at(case, op, theta, dt);
+        let g = weighted(amplification_at(case, op, theta, dt), &weights);
         let (factor, v) = growth::optimal_perturbation(&g, *n);
         let lam = modes::eigenpair(&g, |z| z.norm()).map(|p| p.0);
         let w = lam.map(|l| -l.arg() / dt);
-        r.modes.push(modes::finish(
-            "growth",
-            theta,
-            v,
-            vars,
-            C64::new(factor, 0.0),
-            w,
-        ));
+        let mode = modes::finish("growth", theta, v, vars, C64::new(factor, 0.0), w);
+        r.modes.push(mode);
     }
     if let Some(l) = &r.limit {
         if l.kind == LimitKind::Bounded {
@@ -476,11 +466,50 @@ fn finish_growth_and_modes(
                     .map(|(mu, v)| (mu, v, -mu.im)),
             };
             if let Some((val, v, w)) = pair {
-                r.modes
-                    .push(modes::finish("limit", &l.wavevector, v, vars, val, Some(w)));
+                let v = scale_vector(v, &weights);
+                let mode = modes::finish("limit", &l.wavevector, v, vars, val, Some(w));
+                r.modes.push(mode);
             }
         }
     }
+}
+
+/// W v, normalised: a mode in the weighted (energy-like) variables.
+fn scale_vector(v: Vec<C64>, w: &[f64]) -> Vec<C64> {
+    let out: Vec<C64> = v
+        .iter()
+        .zip(w.iter().cycle())
+        .map(|(x, wi)| x * *wi)
+        .collect();
+    let n = out.iter().map(|z| z.norm_sqr()).sum::<f64>().sqrt();
+    if n > 0.0 && n.is_finite() {
+        out.iter().map(|z| z / n).collect()
+    } else {
+        out
+    }
+}
+
+/// The norm weights of a case, repeated over the time levels of the state.
+pub fn state_weights(case: &Case) -> Vec<f64> {
+    let w = case
+        .scan
+        .weights
+        .clone()
+        .unwrap_or_else(|| case.system.norm_weights.clone());
+    w.iter()
+        .cycle()
+        .take(w.len() * case.method.levels())
+        .copied()
+        .collect()
+}
+
+/// W G W⁻¹: G in the weighted norm.
+fn weighted(g: nalgebra::DMatrix<C64>, w: &[f64]) -> nalgebra::DMatrix<C64> {
+    if w.iter().all(|x| *x == 1.0) {
+        return g;
+    }
+    let n = g.nrows();
+    nalgebra::DMatrix::from_fn(n, n, |i, j| g[(i, j)] * (w[i] / w[j]))
 }
 
 fn growth_analysis(
@@ -491,6 +520,7 @@ fn growth_analysis(
     dt: f64,
 ) -> GrowthResult {
     let steps = case.scan.steps;
+    let w = state_weights(case);
     let env = growth::Envelope::new(steps);
     let bar = progress_bar(grid.len() as u64, "growth", opts.progress);
     let symmetry = if op.real_coefficients {
@@ -500,7 +530,11 @@ fn growth_analysis(
     };
     let nodes: Vec<(growth::NodeMeasures, (f64, usize))> =
         sample::map(grid, opts.par, symmetry, Some(&bar), |th| {
-            growth::node(&amplification_at(case, op, th, dt), steps, &env)
+            growth::node(
+                &weighted(amplification_at(case, op, th, dt), &w),
+                steps,
+                &env,
+            )
         });
     bar.finish_and_clear();
     let envelope = env.values();
@@ -520,7 +554,7 @@ fn growth_analysis(
     let mut idx = vec![0usize; dims];
     grid.unravel(ipk, &mut idx);
     let peak_theta = grid.theta(&idx);
-    let g_peak = amplification_at(case, op, &peak_theta, dt);
+    let g_peak = weighted(amplification_at(case, op, &peak_theta, dt), &w);
     let rho_max = nodes
         .iter()
         .map(|n| n.0.radius)

@@ -110,6 +110,8 @@ pub struct Scan {
     pub matrices: usize,
     /// ε of the ε-pseudospectral radius.
     pub epsilon: f64,
+    /// Norm weights given in the case (None: the model's energy-like defaults).
+    pub weights: Option<Vec<f64>>,
 }
 
 /// A validated case: everything resolved, nothing left as a string to interpret.

@@ -124,4 +124,5 @@ pub struct RawScan {
     pub analyses: Option<Vec<String>>,
     pub matrices: Option<i64>,
     pub epsilon: Option<f64>,
+    pub weights: Option<Vec<f64>>,
 }

@@ -141,6 +141,19 @@ pub(super) fn validate(raw: RawCase, text: &str, path: &Path) -> Result<Case, Ca
     let method = method(&cx, &raw.time, &system, &space)?;
     let step = step(&cx, &raw.time, &system)?;
     let scan = scan(&cx, &raw.scan, dims)?;
+    if let Some(w) = &scan.weights {
+        if w.len() != system.size() {
+            return Err(cx.err(
+                "scan.weights",
+                format!(
+                    "needs one weight per variable ({}: {}), got {}",
+                    system.size(),
+                    system.variables.join(", "),
+                    w.len()
+                ),
+            ));
+        }
+    }
     let name = raw.name.clone().unwrap_or_else(|| {
         path.file_stem()
             .map(|s| s.to_string_lossy().into_owned())
@@ -864,7 +877,13 @@ fn scan(cx: &Ctx, s: &RawScan, dims: usize) -> Result<Scan, CaseError> {
         ));
     }
     let epsilon = cx.positive("scan.epsilon", s.epsilon.unwrap_or(1e-3))?;
+    if let Some(w) = &s.weights {
+        for (i, x) in w.iter().enumerate() {
+            cx.positive(&format!("scan.weights.{i}"), *x)?;
+        }
+    }
     Ok(Scan {
+        weights: s.weights.clone(),
         epsilon,
         points,
         directions,

@@ -30,6 +30,10 @@ pub struct System {
     pub reference_speed: f64,
     /// Largest diffusivity (spectral radius of the K_d), if any diffusion.
     pub diffusivity_max: Option<f64>,
+    /// Per-variable weights W of the norm ‖W u‖ used for growth measures, chosen
+    /// so that the weighted variables share one unit (an energy-like norm):
+    /// acoustics p/(ρc); Euler ρ′c/ρ and p′/(ρc); shallow water h√(g/H).
+    pub norm_weights: Vec<f64>,
 }
 
 impl System {
@@ -72,6 +76,7 @@ impl System {
         source: DMatrix<C64>,
         reference_speed: Option<f64>,
     ) -> System {
+        let m = variables.len();
         let diffusivity_max = diffusion
             .iter()
             .map(|k| crate::linalg::spectral_radius(&crate::linalg::from_matrix(k), k.nrows()))
@@ -85,6 +90,7 @@ impl System {
             source,
             reference_speed: 0.0,
             diffusivity_max: (diffusivity_max > 0.0).then_some(diffusivity_max),
+            norm_weights: vec![1.0; m],
         };
         s.reference_speed = reference_speed.unwrap_or_else(|| max_speed(&s));
         s
@@ -140,14 +146,16 @@ pub fn acoustics(sound_speed: f64, density: f64, mean_flow: &[f64]) -> System {
     vars.extend(velocity_names(dims));
     let speed = mean_flow.iter().map(|a| a * a).sum::<f64>().sqrt() + sound_speed;
     let zero = (0..dims).map(|_| real(m, |_, _| 0.0)).collect();
-    System::from_parts(
+    let mut s = System::from_parts(
         "acoustics",
         vars,
         flux,
         zero,
         real(m, |_, _| 0.0),
         Some(speed),
-    )
+    );
+    s.norm_weights[0] = 1.0 / (density * sound_speed);
+    s
 }
 
 /// Linearised Euler equations in primitive variables (ρ, u.., p).
@@ -178,7 +186,10 @@ pub fn euler(density: f64, velocity: &[f64], pressure: f64, gamma: f64) -> Syste
     let c = (gamma * pressure / density).sqrt();
     let speed = velocity.iter().map(|a| a * a).sum::<f64>().sqrt() + c;
     let zero = (0..dims).map(|_| real(m, |_, _| 0.0)).collect();
-    System::from_parts("euler", vars, flux, zero, real(m, |_, _| 0.0), Some(speed))
+    let mut s = System::from_parts("euler", vars, flux, zero, real(m, |_, _| 0.0), Some(speed));
+    s.norm_weights[0] = c / density;
+    s.norm_weights[p_idx] = 1.0 / (density * c);
+    s
 }
 
 /// Linear shallow water about depth H and mean flow U with Coriolis parameter f:
@@ -211,7 +222,9 @@ pub fn shallow_water(gravity: f64, depth: f64, velocity: &[f64], coriolis: f64) 
     vars.extend(velocity_names(dims));
     let speed = velocity.iter().map(|a| a * a).sum::<f64>().sqrt() + (gravity * depth).sqrt();
     let zero = (0..dims).map(|_| real(m, |_, _| 0.0)).collect();
-    System::from_parts("shallow-water", vars, flux, zero, source, Some(speed))
+    let mut s = System::from_parts("shallow-water", vars, flux, zero, source, Some(speed));
+    s.norm_weights[0] = (gravity / depth).sqrt();
+    s
 }
 
 /// (equation, variable, axis, coefficient) of one curl entry.

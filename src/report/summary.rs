@@ -186,6 +186,8 @@ pub fn summary_json(case: &Case, r: &Results) -> Value {
                 None => json!({"lower_bound": null, "infinite": true}),
             },
             "pseudospectral_radius": { "epsilon": g.pseudospectral.0, "radius": num(g.pseudospectral.1), "wavevector": vec_num(pt) },
+            "norm_weights": crate::analysis::state_weights(case)[..case.system.size()].to_vec(),
+            "norm": "||W u||_2 with W = diag(norm_weights) (scan.weights, or the model's energy-like default)",
             "class": g.class,
             "verdict": g.verdict,
         });
