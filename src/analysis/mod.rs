@@ -589,7 +589,11 @@ fn growth_analysis(
     } else if pv > 1.0 + 1e-6 {
         (
             "stable-transient-growth",
-            format!("stable with transient growth: max ||G^n|| = {pv:.6} at step {pn} before decay or saturation"),
+            if pn == steps {
+                format!("stable with transient growth: max ||G^n|| = {pv:.6}, still growing at the horizon n = {steps} (raise scan.steps)")
+            } else {
+                format!("stable with transient growth: max ||G^n|| = {pv:.6} at step {pn}")
+            },
         )
     } else {
         (
