@@ -1,0 +1,180 @@
+//! Non-normality and transient growth against closed forms and theorems
+//! (Trefethen & Embree, Spectra and Pseudospectra, 2005; Henrici 1962).
+
+use kgain::analysis::{analyse, growth, Options};
+use kgain::case::Case;
+use kgain::sample::Par;
+use nalgebra::DMatrix;
+use num_complex::Complex64 as C64;
+use std::path::Path;
+
+fn c(re: f64, im: f64) -> C64 {
+    C64::new(re, im)
+}
+
+fn jordan(lambda: C64) -> DMatrix<C64> {
+    DMatrix::from_row_slice(2, 2, &[lambda, c(1.0, 0.0), c(0.0, 0.0), lambda])
+}
+
+/// ‖[[a, b], [0, a]]‖₂ for a, b ≥ 0: (b + √(b² + 4a²))/2.
+fn jordan_power_norm(lambda: C64, n: usize) -> f64 {
+    let r = lambda.norm();
+    let a = r.powi(n as i32);
+    let b = if n == 0 { 0.0 } else { n as f64 * r.powi(n as i32 - 1) };
+    0.5 * (b + (b * b + 4.0 * a * a).sqrt())
+}
+
+fn run(text: &str, par: Par) -> kgain::analysis::Results {
+    let case = Case::from_str_with(text, Path::new("growth.toml"), &[]).expect("valid case");
+    analyse(&case, &Options { par, progress: false }).expect("analysis runs")
+}
+
+#[test]
+fn jordan_block_powers_have_their_exact_norms() {
+    // Trefethen & Embree (2005): J^n = [[λ^n, nλ^(n−1)], [0, λ^n]] for J = [[λ, 1], [0, λ]].
+    for lambda in [c(0.9, 0.0), c(0.0, 1.0), c(-0.6, 0.7)] {
+        let norms = growth::power_norms(&jordan(lambda), 60);
+        for (n, got) in norms.iter().enumerate() {
+            let want = jordan_power_norm(lambda, n);
+            assert!(
+                (got - want).abs() <= 1e-12 * want.max(1.0),
+                "n = {n}, lambda = {lambda}: {got} vs {want}"
+            );
+        }
+    }
+}
+
+#[test]
+fn kreiss_bounds_bracket_the_growth_of_a_jordan_block() {
+    // Kreiss matrix theorem (Trefethen & Embree 2005): K ≤ sup_n ‖J^n‖ ≤ e·m·K, m = 2.
+    let j = jordan(c(0.9, 0.0));
+    let k = growth::kreiss_lower_bound(&j);
+    let sup = growth::power_norms(&j, 400).into_iter().fold(0.0, f64::max);
+    assert!(k <= sup * (1.0 + 1e-12), "K = {k} must not exceed sup = {sup}");
+    assert!(sup <= std::f64::consts::E * 2.0 * k, "sup = {sup} must not exceed e m K = {}", std::f64::consts::E * 2.0 * k);
+    // a matrix with an eigenvalue outside the unit disc has an infinite Kreiss constant
+    assert!(growth::kreiss_lower_bound(&jordan(c(1.01, 0.0))).is_infinite());
+}
+
+#[test]
+fn pseudospectral_radius_of_a_normal_matrix_is_rho_plus_epsilon() {
+    // For normal G the ε-pseudospectrum is the union of ε-discs around the
+    // eigenvalues (Trefethen & Embree 2005), so ρ_ε = ρ + ε.
+    let g = DMatrix::from_diagonal(&nalgebra::DVector::from_vec(vec![c(0.5, 0.5), c(-0.9, 0.0), c(0.0, 0.2)]));
+    let eps = 1e-3;
+    let r = growth::pseudospectral_radius(&g, eps);
+    assert!((r - (0.9 + eps)).abs() <= 1e-9, "rho_eps = {r}");
+    // a Jordan block's pseudospectrum is much larger: radius ≈ |λ| + √ε
+    let rj = growth::pseudospectral_radius(&jordan(c(0.5, 0.0)), eps);
+    assert!(rj > 0.5 + 0.9 * eps.sqrt(), "Jordan block rho_eps = {rj}");
+}
+
+const LEAPFROG_AT_LIMIT: &str = r#"
+[grid]
+spacing = [1.0]
+[model]
+kind = "advection"
+velocity = [1.0]
+[space]
+first = "central2"
+[time]
+method = "leapfrog"
+courant = 1.0
+[scan]
+points = [129]
+steps = 64
+analyses = ["radius", "growth"]
+"#;
+
+#[test]
+fn leapfrog_at_exactly_its_limit_is_weakly_unstable() {
+    // Strikwerda: leapfrog + C2 at ν = 1 has the double root ζ = i at θ = π/2, a
+    // defective eigenvalue on the unit circle; ‖G^n‖ grows linearly.
+    let r = run(LEAPFROG_AT_LIMIT, Par::Seq);
+    let rad = r.radius.unwrap();
+    assert!(rad.stable, "every |λ| ≤ 1 + tolerance");
+    let g = r.growth.unwrap();
+    assert_eq!(g.class, "weakly-unstable", "{}", g.verdict);
+    assert!(g.defective_on_circle > 0);
+    // linear growth: the envelope at n is about proportional to n
+    let e = &g.envelope;
+    assert!(e[64] > 1.8 * e[32] && e[64] < 2.2 * e[32], "{} vs {}", e[64], e[32]);
+}
+
+#[test]
+fn scalar_schemes_are_normal_and_never_grow() {
+    // A 1×1 amplification factor is normal: departure 0, κ(V) = 1 (common practice);
+    // below the limit |g| ≤ 1, so ‖G^n‖ ≤ 1.
+    let text = LEAPFROG_AT_LIMIT
+        .replace("method = \"leapfrog\"", "method = \"rk4\"")
+        .replace("courant = 1.0", "courant = 2.0");
+    let g = run(&text, Par::Seq).growth.unwrap();
+    assert!(g.departure.iter().all(|d| *d == 0.0));
+    assert!(g.condition.iter().all(|k| (*k - 1.0).abs() < 1e-12));
+    assert!(g.envelope.iter().all(|v| *v <= 1.0 + 1e-12));
+    assert_eq!(g.class, "stable-normal");
+}
+
+const SEDIMENT: &str = r#"
+[grid]
+spacing = [2.0]
+[model]
+kind = "linear"
+variables = ["c", "s"]
+flux = [ [[1.0, 0.0], [8.0, 1.1]] ]
+[space]
+first = "upwind1"
+[time]
+method = "euler"
+courant = 0.9
+[scan]
+points = [33]
+steps = 40
+analyses = ["radius", "growth"]
+"#;
+
+#[test]
+fn pruned_envelope_equals_the_brute_force_maximum_over_the_grid() {
+    // The envelope skips exact 2-norms that cannot win; it must still equal the
+    // brute-force max over every node of the exact ‖G^n‖₂ (common practice check
+    // of a fast path against its slow reference).
+    let case = Case::from_str_with(SEDIMENT, Path::new("s.toml"), &[]).unwrap();
+    let r = analyse(&case, &Options { par: Par::Threads(2), progress: false }).unwrap();
+    let g = r.growth.unwrap();
+    let op = kgain::operator::Operator::assemble(&case.system, &case.spacing, &case.space).unwrap();
+    let mut brute = vec![0.0f64; case.scan.steps + 1];
+    for th in &r.grid.coords[0] {
+        let gm = kgain::analysis::amplification_at(&case, &op, &[*th], r.dt);
+        for (n, v) in growth::power_norms(&gm, case.scan.steps).iter().enumerate() {
+            brute[n] = brute[n].max(*v);
+        }
+    }
+    for (n, (a, b)) in g.envelope.iter().zip(&brute).enumerate() {
+        assert!((a - b).abs() <= 1e-12 * b.max(1.0), "n = {n}: {a} vs {b}");
+    }
+    assert_eq!(g.class, "stable-transient-growth");
+    assert!(g.peak.0 > 5.0, "a strongly non-normal flux gives large transient growth");
+}
+
+#[test]
+fn sequential_and_parallel_growth_sweeps_agree_exactly() {
+    // STYLE.md: parallelism must not change results.
+    let a = run(SEDIMENT, Par::Seq).growth.unwrap();
+    let b = run(SEDIMENT, Par::Threads(2)).growth.unwrap();
+    assert_eq!(a.envelope, b.envelope);
+    assert_eq!(a.norm, b.norm);
+    assert_eq!(a.departure, b.departure);
+}
+
+#[test]
+fn envelope_is_bracketed_by_spectral_radius_and_norm_powers() {
+    // ρ(G)^n ≤ ‖G^n‖₂ ≤ ‖G‖₂^n at every wavevector, hence for the maxima too.
+    let r = run(SEDIMENT, Par::Seq);
+    let g = r.growth.unwrap();
+    let rho = r.radius.unwrap().max;
+    let nmax = g.norm.iter().copied().fold(0.0, f64::max);
+    for (n, e) in g.envelope.iter().enumerate() {
+        let n = n as i32;
+        assert!(*e >= rho.powi(n) * (1.0 - 1e-12) && *e <= nmax.powi(n) * (1.0 + 1e-12));
+    }
+}
