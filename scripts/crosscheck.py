@@ -216,11 +216,41 @@ def staggered_cases():
         check(e <= 1e-12, f"estuary-imex: CNAB2 companion matrix rebuilt by numpy, max diff {e:.2e}")
 
 
+def growth_case():
+    """Norms, departures and the growth envelope recomputed by numpy at every node."""
+    with tempfile.TemporaryDirectory() as tmp:
+        out = os.path.join(tmp, "g")
+        load, s, _ = run("bench/peer-euler2d.toml", out, "scan.points=[17,17]", "scan.steps=60",
+                         "scan.matrices=289", "time.courant=1.4")
+        idx = load("sample_index").astype(int)
+        check(sorted(idx) == list(range(289)), "growth: samples cover every node")
+        w = np.array(s["growth"]["norm_weights"])
+        G = load("sample_amplification")
+        Gw = G * w[None, :, None] / w[None, None, :]
+        nrm = np.linalg.norm(Gw, 2, axis=(1, 2))
+        e = np.abs(nrm - load("norm").ravel()[idx]).max()
+        check(e <= 1e-12, f"growth: ||G||_2 vs numpy.linalg.norm, max diff {e:.2e}")
+        lam = np.linalg.eigvals(Gw)
+        fro2 = (np.abs(Gw) ** 2).sum(axis=(1, 2))
+        dep = np.sqrt(np.maximum(fro2 - (np.abs(lam) ** 2).sum(-1), 0)) / np.sqrt(fro2)
+        e = np.abs(dep - load("departure").ravel()[idx]).max()
+        check(e <= 1e-7, f"growth: Henrici departure vs numpy, max diff {e:.2e}")
+        env = np.zeros(61)
+        P = np.broadcast_to(np.eye(4), Gw.shape).copy()
+        for n in range(61):
+            env[n] = np.linalg.norm(P, 2, axis=(1, 2)).max()
+            P = P @ Gw
+        ours = load("growth")
+        e = (np.abs(env - ours) / np.maximum(env, 1)).max()
+        check(e <= 1e-10, f"growth: envelope max ||G^n||_2 vs numpy matrix powers, rel diff {e:.2e}")
+
+
 def main():
     if not os.path.exists(KGAIN):
         sys.exit(f"build kgain first: {KGAIN} not found (cargo build --release)")
     peer_case()
     staggered_cases()
+    growth_case()
     for case in ["cases/lake-rotating-waves.toml", "cases/feedline-telegraph.toml",
                  "cases/harbour-dye.toml", "cases/kiln-wall-heat.toml",
                  "cases/duct-acoustics.toml"]:
