@@ -20,13 +20,24 @@ fn jordan(lambda: C64) -> DMatrix<C64> {
 fn jordan_power_norm(lambda: C64, n: usize) -> f64 {
     let r = lambda.norm();
     let a = r.powi(n as i32);
-    let b = if n == 0 { 0.0 } else { n as f64 * r.powi(n as i32 - 1) };
+    let b = if n == 0 {
+        0.0
+    } else {
+        n as f64 * r.powi(n as i32 - 1)
+    };
     0.5 * (b + (b * b + 4.0 * a * a).sqrt())
 }
 
 fn run(text: &str, par: Par) -> kgain::analysis::Results {
     let case = Case::from_str_with(text, Path::new("growth.toml"), &[]).expect("valid case");
-    analyse(&case, &Options { par, progress: false }).expect("analysis runs")
+    analyse(
+        &case,
+        &Options {
+            par,
+            progress: false,
+        },
+    )
+    .expect("analysis runs")
 }
 
 #[test]
@@ -50,8 +61,15 @@ fn kreiss_bounds_bracket_the_growth_of_a_jordan_block() {
     let j = jordan(c(0.9, 0.0));
     let k = growth::kreiss_lower_bound(&j);
     let sup = growth::power_norms(&j, 400).into_iter().fold(0.0, f64::max);
-    assert!(k <= sup * (1.0 + 1e-12), "K = {k} must not exceed sup = {sup}");
-    assert!(sup <= std::f64::consts::E * 2.0 * k, "sup = {sup} must not exceed e m K = {}", std::f64::consts::E * 2.0 * k);
+    assert!(
+        k <= sup * (1.0 + 1e-12),
+        "K = {k} must not exceed sup = {sup}"
+    );
+    assert!(
+        sup <= std::f64::consts::E * 2.0 * k,
+        "sup = {sup} must not exceed e m K = {}",
+        std::f64::consts::E * 2.0 * k
+    );
     // a matrix with an eigenvalue outside the unit disc has an infinite Kreiss constant
     assert!(growth::kreiss_lower_bound(&jordan(c(1.01, 0.0))).is_infinite());
 }
@@ -60,7 +78,11 @@ fn kreiss_bounds_bracket_the_growth_of_a_jordan_block() {
 fn pseudospectral_radius_of_a_normal_matrix_is_rho_plus_epsilon() {
     // For normal G the ε-pseudospectrum is the union of ε-discs around the
     // eigenvalues (Trefethen & Embree 2005), so ρ_ε = ρ + ε.
-    let g = DMatrix::from_diagonal(&nalgebra::DVector::from_vec(vec![c(0.5, 0.5), c(-0.9, 0.0), c(0.0, 0.2)]));
+    let g = DMatrix::from_diagonal(&nalgebra::DVector::from_vec(vec![
+        c(0.5, 0.5),
+        c(-0.9, 0.0),
+        c(0.0, 0.2),
+    ]));
     let eps = 1e-3;
     let r = growth::pseudospectral_radius(&g, eps);
     assert!((r - (0.9 + eps)).abs() <= 1e-9, "rho_eps = {r}");
@@ -98,7 +120,12 @@ fn leapfrog_at_exactly_its_limit_is_weakly_unstable() {
     assert!(g.defective_on_circle > 0);
     // linear growth: the envelope at n is about proportional to n
     let e = &g.envelope;
-    assert!(e[64] > 1.8 * e[32] && e[64] < 2.2 * e[32], "{} vs {}", e[64], e[32]);
+    assert!(
+        e[64] > 1.8 * e[32] && e[64] < 2.2 * e[32],
+        "{} vs {}",
+        e[64],
+        e[32]
+    );
 }
 
 #[test]
@@ -139,7 +166,14 @@ fn pruned_envelope_equals_the_brute_force_maximum_over_the_grid() {
     // brute-force max over every node of the exact ‖G^n‖₂ (common practice check
     // of a fast path against its slow reference).
     let case = Case::from_str_with(SEDIMENT, Path::new("s.toml"), &[]).unwrap();
-    let r = analyse(&case, &Options { par: Par::Threads(2), progress: false }).unwrap();
+    let r = analyse(
+        &case,
+        &Options {
+            par: Par::Threads(2),
+            progress: false,
+        },
+    )
+    .unwrap();
     let g = r.growth.unwrap();
     let op = kgain::operator::Operator::assemble(&case.system, &case.spacing, &case.space).unwrap();
     let mut brute = vec![0.0f64; case.scan.steps + 1];
@@ -153,7 +187,10 @@ fn pruned_envelope_equals_the_brute_force_maximum_over_the_grid() {
         assert!((a - b).abs() <= 1e-12 * b.max(1.0), "n = {n}: {a} vs {b}");
     }
     assert_eq!(g.class, "stable-transient-growth");
-    assert!(g.peak.0 > 5.0, "a strongly non-normal flux gives large transient growth");
+    assert!(
+        g.peak.0 > 5.0,
+        "a strongly non-normal flux gives large transient growth"
+    );
 }
 
 #[test]

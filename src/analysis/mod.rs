@@ -3,6 +3,7 @@
 //! operator's eigenvalues over the wavevector grid.
 
 pub mod composite;
+pub mod dispersion;
 pub mod first_exit;
 pub mod growth;
 pub mod limit;
@@ -100,6 +101,8 @@ pub struct Results {
     pub growth: Option<GrowthResult>,
     /// Worst-case modes of each measure computed.
     pub modes: Vec<modes::Mode>,
+    /// Dispersion and dissipation, if asked.
+    pub dispersion: Option<dispersion::DispersionResult>,
 }
 
 /// Non-normality maps, the growth envelope and its headline numbers.
@@ -270,6 +273,7 @@ pub fn analyse(case: &Case, opts: &Options) -> Result<Results, OperatorError> {
         limit_verified: None,
         growth: None,
         modes: Vec::new(),
+        dispersion: None,
     })
     .map(|mut r| {
         finish_growth_and_modes(case, &op, opts, &mut r, &|mu| -exits.exact(mu, 0.0));
@@ -379,6 +383,7 @@ fn analyse_composite(
         limit_verified: verified,
         growth: None,
         modes: Vec::new(),
+        dispersion: None,
     };
     finish_growth_and_modes(case, op, opts, &mut r, &|mu| mu.norm());
     r
@@ -436,6 +441,9 @@ fn finish_growth_and_modes(
     if case.scan.analyses.contains(&Analysis::Growth) {
         r.growth = Some(growth_analysis(case, op, opts, &r.grid, dt));
     }
+    if case.scan.analyses.contains(&Analysis::Dispersion) {
+        r.dispersion = Some(dispersion_analysis(case, op, opts, &r.grid, dt));
+    }
     let weights = state_weights(case);
     if let Some(rad) = &r.radius {
         let g = amplification_at(case, op, &rad.wavevector, dt);
@@ -486,6 +494,93 @@ fn scale_vector(v: Vec<C64>, w: &[f64]) -> Vec<C64> {
         out.iter().map(|z| z / n).collect()
     } else {
         out
+    }
+}
+
+fn dispersion_analysis(
+    case: &Case,
+    op: &Operator,
+    opts: &Options,
+    grid: &Grid,
+    dt: f64,
+) -> dispersion::DispersionResult {
+    type NodeOut = (Vec<C64>, Vec<C64>, Vec<C64>, Vec<Vec<f64>>, Vec<Vec<f64>>);
+    let f = dispersion::Frequencies::new(case, op);
+    let bar = progress_bar(grid.len() as u64, "dispersion", opts.progress);
+    let nodes: Vec<NodeOut> =
+        sample::map(grid, opts.par, sample::Symmetry::None, Some(&bar), |th| {
+            let (num, exact) = f.matched(th);
+            let disc = f.discrete(th, &num, dt);
+            let (gn, ge) = f.group_velocities(th, &num, &exact);
+            (num, exact, disc, gn, ge)
+        });
+    bar.finish_and_clear();
+    let dirs = dispersion::curve_directions(grid.points.len(), case.scan.directions);
+    let curves: Vec<_> = opts.par.run(|| {
+        use rayon::prelude::*;
+        dirs.par_iter()
+            .map(|n| dispersion::curve(&f, n, dt))
+            .collect()
+    });
+    let names = dispersion::mode_names(&case.system);
+    let m = names.len();
+    let tol = case.scan.phase_tolerance;
+    let resolution = (0..m)
+        .map(|j| {
+            let mut worst = (None::<f64>, None::<f64>, 0usize);
+            for (k, (ppw, ps, pd, _)) in curves.iter().enumerate() {
+                let semi: Vec<f64> = ps.iter().map(|row| row[j]).collect();
+                let disc: Vec<f64> = pd.iter().map(|row| row[j]).collect();
+                let a = dispersion::required_ppw(ppw, &semi, tol);
+                let b = dispersion::required_ppw(ppw, &disc, tol);
+                if a.unwrap_or(0.0) > worst.0.unwrap_or(0.0) {
+                    worst.0 = a;
+                    worst.2 = k;
+                }
+                if b.unwrap_or(0.0) > worst.1.unwrap_or(0.0) {
+                    worst.1 = b;
+                }
+            }
+            worst
+        })
+        .collect();
+    let computational = nodes.first().map_or(0, |n| n.2.len().saturating_sub(m));
+    let ppw = curves.first().map(|c| c.0.clone()).unwrap_or_default();
+    let mut numerical = Vec::with_capacity(nodes.len());
+    let mut exact = Vec::with_capacity(nodes.len());
+    let mut discrete = Vec::with_capacity(nodes.len());
+    let mut group = Vec::with_capacity(nodes.len());
+    let mut group_exact = Vec::with_capacity(nodes.len());
+    for (a, b, c, d, e) in nodes {
+        numerical.push(a);
+        exact.push(b);
+        discrete.push(c);
+        group.push(d);
+        group_exact.push(e);
+    }
+    let mut phase_curves = Vec::new();
+    let mut phase_curves_discrete = Vec::new();
+    let mut group_curves = Vec::new();
+    for (_, ps, pd, gr) in curves {
+        phase_curves.push(ps);
+        phase_curves_discrete.push(pd);
+        group_curves.push(gr);
+    }
+    dispersion::DispersionResult {
+        names,
+        computational,
+        numerical,
+        exact,
+        discrete,
+        group,
+        group_exact,
+        directions: dirs,
+        ppw,
+        phase_curves,
+        phase_curves_discrete,
+        group_curves,
+        resolution,
+        tolerance: tol,
     }
 }
 

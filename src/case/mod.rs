@@ -91,6 +91,8 @@ pub enum Analysis {
     Limit,
     /// Non-normality and transient growth.
     Growth,
+    /// Dispersion and dissipation by mode and direction.
+    Dispersion,
 }
 
 /// Scan settings.
@@ -112,6 +114,8 @@ pub struct Scan {
     pub epsilon: f64,
     /// Norm weights given in the case (None: the model's energy-like defaults).
     pub weights: Option<Vec<f64>>,
+    /// Phase-error tolerance of the resolution requirement (default 1%).
+    pub phase_tolerance: f64,
 }
 
 /// A validated case: everything resolved, nothing left as a string to interpret.

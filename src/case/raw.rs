@@ -125,4 +125,5 @@ pub struct RawScan {
     pub matrices: Option<i64>,
     pub epsilon: Option<f64>,
     pub weights: Option<Vec<f64>>,
+    pub phase_tolerance: Option<f64>,
 }

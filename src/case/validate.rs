@@ -835,7 +835,12 @@ fn scan(cx: &Ctx, s: &RawScan, dims: usize) -> Result<Scan, CaseError> {
         return Err(cx.err("scan.tolerance", "must lie in [0, 0.01)"));
     }
     let analyses = match &s.analyses {
-        None => vec![Analysis::Radius, Analysis::Limit, Analysis::Growth],
+        None => vec![
+            Analysis::Radius,
+            Analysis::Limit,
+            Analysis::Growth,
+            Analysis::Dispersion,
+        ],
         Some(list) => {
             let mut out = Vec::new();
             for (i, a) in list.iter().enumerate() {
@@ -844,12 +849,7 @@ fn scan(cx: &Ctx, s: &RawScan, dims: usize) -> Result<Scan, CaseError> {
                     "radius" => Analysis::Radius,
                     "limit" => Analysis::Limit,
                     "growth" => Analysis::Growth,
-                    "dispersion" => {
-                        return Err(cx.err(
-                            &key,
-                            format!("analysis '{a}' is not available in this version of kgain"),
-                        ))
-                    }
+                    "dispersion" => Analysis::Dispersion,
                     other => return Err(cx.unknown(&key, "analysis", other, &ANALYSES)),
                 };
                 if !out.contains(&an) {
@@ -882,7 +882,9 @@ fn scan(cx: &Ctx, s: &RawScan, dims: usize) -> Result<Scan, CaseError> {
             cx.positive(&format!("scan.weights.{i}"), *x)?;
         }
     }
+    let phase_tolerance = cx.positive("scan.phase_tolerance", s.phase_tolerance.unwrap_or(0.01))?;
     Ok(Scan {
+        phase_tolerance,
         weights: s.weights.clone(),
         epsilon,
         points,

@@ -88,6 +88,210 @@ impl Writer<'_> {
     }
 }
 
+fn write_dispersion(
+    w: &mut Writer,
+    r: &Results,
+    d: &crate::analysis::dispersion::DispersionResult,
+    grid_dims: &[&str],
+) -> Result<(), ReportError> {
+    use crate::analysis::dispersion::{group_ratio, phase_ratio};
+    let m = d.names.len();
+    let dims = r.grid.points.len();
+    let mut shape = r.grid.points.clone();
+    shape.push(m);
+    let mut mdims = grid_dims.to_vec();
+    mdims.push("mode");
+    let flat =
+        |v: &[Vec<C64>]| -> Vec<C64> { v.iter().flat_map(|x| x[..m].iter().copied()).collect() };
+    let names = serde_json::to_value(&d.names).expect("names serialise");
+    let meta = |units: &'static str, long_name: &'static str| Meta {
+        dims: mdims.clone(),
+        units,
+        long_name,
+    };
+    w.complex(
+        "frequency",
+        &shape,
+        flat(&d.numerical),
+        meta(
+            "rad s-1",
+            "semi-discrete angular frequency omega = i eig L, per physical mode",
+        ),
+    )?;
+    w.complex(
+        "frequency_exact",
+        &shape,
+        flat(&d.exact),
+        meta(
+            "rad s-1",
+            "angular frequency of the continuous system, per physical mode",
+        ),
+    )?;
+    let mm = d.discrete.first().map_or(m, |x| x.len());
+    let mut dshape = r.grid.points.clone();
+    dshape.push(mm);
+    let all: Vec<C64> = d.discrete.iter().flatten().copied().collect();
+    w.complex("frequency_discrete", &dshape, all, meta("rad s-1", "fully discrete omega from eig G (lambda = exp(-i omega dt)), physical modes then computational modes"))?;
+    let mut labels = d.names.clone();
+    labels.extend((0..mm - m).map(|k| format!("computational{}", k + 1)));
+    w.entries["frequency_discrete"]["labels"] = serde_json::to_value(&labels).expect("labels");
+    for key in ["frequency", "frequency_exact"] {
+        w.entries[key]["labels"] = names.clone();
+    }
+    let per = |f: &dyn Fn(usize, usize) -> f64| -> Vec<f64> {
+        (0..d.numerical.len())
+            .flat_map(|i| (0..m).map(move |j| (i, j)))
+            .map(|(i, j)| f(i, j))
+            .collect()
+    };
+    let scale = |i: usize| {
+        d.exact[i]
+            .iter()
+            .map(|z| z.norm())
+            .fold(0.0, f64::max)
+            .max(1e-300)
+    };
+    let amp = |wn: C64, we: C64, s: f64| {
+        if we.re.abs() <= 1e-9 * s {
+            f64::NAN
+        } else {
+            (wn.im * 2.0 * std::f64::consts::PI / we.re.abs()).exp()
+        }
+    };
+    let maps: [(&str, Vec<f64>, &'static str); 6] = [
+        (
+            "phase_speed_ratio",
+            per(&|i, j| phase_ratio(d.numerical[i][j], d.exact[i][j], scale(i))),
+            "semi-discrete phase speed over exact phase speed",
+        ),
+        (
+            "phase_speed_ratio_discrete",
+            per(&|i, j| phase_ratio(d.discrete[i][j], d.exact[i][j], scale(i))),
+            "fully discrete phase speed over exact phase speed",
+        ),
+        (
+            "group_speed_ratio",
+            per(&|i, j| group_ratio(&d.group[i][j], &d.group_exact[i][j]).0),
+            "semi-discrete group velocity along the exact one, over the exact group speed",
+        ),
+        (
+            "group_angle_error",
+            per(&|i, j| group_ratio(&d.group[i][j], &d.group_exact[i][j]).1),
+            "angle between semi-discrete and exact group velocities",
+        ),
+        (
+            "amplitude_per_period",
+            per(&|i, j| amp(d.numerical[i][j], d.exact[i][j], scale(i))),
+            "semi-discrete amplitude factor over one period of the exact wave",
+        ),
+        (
+            "amplitude_per_period_discrete",
+            per(&|i, j| amp(d.discrete[i][j], d.exact[i][j], scale(i))),
+            "fully discrete amplitude factor over one period of the exact wave",
+        ),
+    ];
+    for (name, data, long_name) in maps {
+        let units = if name == "group_angle_error" {
+            "radian"
+        } else {
+            "1"
+        };
+        w.real(name, &shape, data, meta(units, long_name))?;
+        w.entries[name]["labels"] = names.clone();
+    }
+    let mut gshape = shape.clone();
+    gshape.push(dims);
+    let mut gdims = mdims.clone();
+    gdims.push("axis");
+    for (name, src, long_name) in [
+        (
+            "group_velocity",
+            &d.group,
+            "semi-discrete group velocity d omega / d k",
+        ),
+        (
+            "group_velocity_exact",
+            &d.group_exact,
+            "exact group velocity d omega / d k",
+        ),
+    ] {
+        let data: Vec<f64> = src
+            .iter()
+            .flat_map(|node| node.iter().flat_map(|v| v.iter().copied()))
+            .collect();
+        w.real(
+            name,
+            &gshape,
+            data,
+            Meta {
+                dims: gdims.clone(),
+                units: "m s-1",
+                long_name,
+            },
+        )?;
+        w.entries[name]["labels"] = names.clone();
+    }
+    let nd = d.directions.len();
+    let k = d.ppw.len();
+    w.real(
+        "dispersion_directions",
+        &[nd, dims],
+        d.directions.iter().flatten().copied().collect(),
+        Meta {
+            dims: vec!["curve_direction", "axis"],
+            units: "1",
+            long_name:
+                "physical wave directions (unit vectors in k-space) of the dispersion curves",
+        },
+    )?;
+    w.real(
+        "dispersion_ppw",
+        &[k],
+        d.ppw.clone(),
+        Meta {
+            dims: vec!["sample"],
+            units: "1",
+            long_name: "points per wavelength 2 pi/(|k| h_min) of the curve samples",
+        },
+    )?;
+    for (name, src, long_name) in [
+        (
+            "phase_speed_ratio_by_direction",
+            &d.phase_curves,
+            "semi-discrete phase speed ratio along each direction",
+        ),
+        (
+            "phase_speed_ratio_by_direction_discrete",
+            &d.phase_curves_discrete,
+            "fully discrete phase speed ratio along each direction",
+        ),
+        (
+            "group_speed_ratio_by_direction",
+            &d.group_curves,
+            "semi-discrete group speed ratio along each direction",
+        ),
+    ] {
+        let data: Vec<f64> = src
+            .iter()
+            .flat_map(|dir| dir.iter().flat_map(|s| s[..m].iter().copied()))
+            .collect();
+        w.real(
+            name,
+            &[nd, k, m],
+            data,
+            Meta {
+                dims: vec!["curve_direction", "sample", "mode"],
+                units: "1",
+                long_name,
+            },
+        )?;
+        w.entries[name]["labels"] = names.clone();
+        w.entries[name]["coords"]["sample"] = Value::from("dispersion_ppw.npy");
+        w.entries[name]["coords"]["curve_direction"] = Value::from("dispersion_directions.npy");
+    }
+    Ok(())
+}
+
 /// Writes every array of the results into `dir`; returns manifest.json's content.
 pub fn write_arrays(dir: &Path, case: &Case, r: &Results) -> Result<Value, ReportError> {
     let mut w = Writer {
@@ -229,6 +433,9 @@ pub fn write_arrays(dir: &Path, case: &Case, r: &Results) -> Result<Value, Repor
                 long_name: "max over the wavevector grid of ||G^n||_2, n = 0..steps",
             },
         )?;
+    }
+    if let Some(d) = &r.dispersion {
+        write_dispersion(&mut w, r, d, &grid_dims)?;
     }
     for mode in &r.modes {
         let name = format!("mode_{}", mode.kind);

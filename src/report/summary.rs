@@ -192,6 +192,44 @@ pub fn summary_json(case: &Case, r: &Results) -> Value {
             "verdict": g.verdict,
         });
     }
+    if let Some(d) = &r.dispersion {
+        let modes: Vec<Value> = d
+            .names
+            .iter()
+            .zip(&d.resolution)
+            .enumerate()
+            .map(|(j, (name, (semi, disc, k)))| {
+                let parasitic = d
+                    .group
+                    .iter()
+                    .zip(&d.group_exact)
+                    .filter(|(gn, ge)| {
+                        let dot: f64 = gn[j].iter().zip(&ge[j]).map(|(a, b)| a * b).sum();
+                        dot < 0.0
+                    })
+                    .count();
+                let (deg, el) = direction_deg(&d.directions[*k]);
+                json!({
+                    "name": name,
+                    "ppw_required": semi.map(num),
+                    "ppw_required_discrete": disc.map(num),
+                    "worst_direction_deg": semi.map(|_| deg),
+                    "worst_elevation_deg": semi.and(el),
+                    "parasitic_fraction": parasitic as f64 / d.group.len().max(1) as f64,
+                })
+            })
+            .collect();
+        s["dispersion"] = json!({
+            "phase_tolerance": d.tolerance,
+            "modes": modes,
+            "computational_modes": d.computational,
+            "definitions": {
+                "ppw_required": "points per wavelength 2 pi/(|k| h_min) above which |c_num/c_exact - 1| <= phase_tolerance in every direction",
+                "parasitic_fraction": "share of grid wavevectors where the numerical group velocity opposes the exact one",
+                "computational_modes": "fully discrete eigenvalues with no semi-discrete partner (extra roots of multistep methods)",
+            },
+        });
+    }
     if !r.modes.is_empty() {
         let modes: Vec<Value> = r
             .modes

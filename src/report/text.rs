@@ -126,6 +126,40 @@ pub fn human_summary(case: &Case, r: &Results, out: Option<&std::path::Path>) ->
             );
         }
     }
+    if let Some(d) = &r.dispersion {
+        let parts: Vec<String> = d
+            .names
+            .iter()
+            .zip(&d.resolution)
+            .filter_map(|(n, (semi, disc, _))| {
+                semi.map(|a| match disc {
+                    Some(b) => format!("{n} {a:.1} ({b:.1} with time stepping)"),
+                    None => format!("{n} {a:.1}"),
+                })
+            })
+            .collect();
+        if !parts.is_empty() {
+            row(
+                &mut s,
+                "resolution",
+                format!(
+                    "points per wavelength for {:.1}% phase error: {}",
+                    100.0 * d.tolerance,
+                    parts.join(", ")
+                ),
+            );
+        }
+        if d.computational > 0 {
+            row(
+                &mut s,
+                "spurious",
+                format!(
+                    "{} computational mode(s) of the time method",
+                    d.computational
+                ),
+            );
+        }
+    }
     for m in &r.modes {
         row(&mut s, &format!("{} mode", m.kind), m.description.clone());
     }
