@@ -1,0 +1,187 @@
+//! Dispersion analysis against published relations (sources beside each check).
+
+use kgain::analysis::{analyse, dispersion::DispersionResult, Options};
+use kgain::case::Case;
+use kgain::sample::Par;
+use std::path::Path;
+
+fn run(text: &str) -> (Case, kgain::analysis::Results) {
+    let case = Case::from_str_with(text, Path::new("disp.toml"), &[]).expect("valid case");
+    let r = analyse(&case, &Options { par: Par::Threads(2), progress: false }).expect("runs");
+    (case, r)
+}
+
+fn advection_1d(stencil: &str, method: &str, courant: f64) -> String {
+    format!(
+        "[grid]\nspacing = [1.0]\n[model]\nkind = \"advection\"\nvelocity = [1.0]\n[space]\nfirst = \"{stencil}\"\n[time]\nmethod = \"{method}\"\ncourant = {courant}\n[scan]\npoints = [65]\nanalyses = [\"dispersion\"]\n"
+    )
+}
+
+fn disp(r: &kgain::analysis::Results) -> &DispersionResult {
+    r.dispersion.as_ref().expect("dispersion computed")
+}
+
+#[test]
+fn central_second_order_phase_is_sin_theta_and_group_velocity_is_cos_theta() {
+    // Common practice (von Neumann analysis): C2 gives ω = a sin(θ)/h, so
+    // c_num/c = sin θ/θ and the group velocity is a cos θ.
+    let (_, r) = run(&advection_1d("central2", "rk4", 0.5));
+    let d = disp(&r);
+    for (i, th) in r.grid.coords[0].iter().enumerate() {
+        let w = d.numerical[i][0];
+        assert!((w.re - th.sin()).abs() <= 1e-12, "omega at {th}");
+        assert!(w.im.abs() <= 1e-12);
+        let g = d.group[i][0][0];
+        assert!((g - th.cos()).abs() <= 1e-6, "group velocity {g} vs cos {th}");
+    }
+}
+
+#[test]
+fn modified_wavenumbers_of_c4_and_compact_stencils_set_the_phase_speed() {
+    // C4: (8 sin θ − sin 2θ)/6 (common practice); Padé compact 4: (3/2 sin θ)/(1 + ½ cos θ);
+    // compact 6: (14/9 sin θ + 1/18 sin 2θ)/(1 + 2/3 cos θ) (Lele, J. Comput. Phys. 103, 1992).
+    let forms: [(&str, fn(f64) -> f64); 3] = [
+        ("central4", |t| (8.0 * t.sin() - (2.0 * t).sin()) / 6.0),
+        ("compact4", |t| 1.5 * t.sin() / (1.0 + 0.5 * t.cos())),
+        ("compact6", |t| (14.0 / 9.0 * t.sin() + (2.0 * t).sin() / 18.0) / (1.0 + 2.0 / 3.0 * t.cos())),
+    ];
+    for (name, f) in forms {
+        let (_, r) = run(&advection_1d(name, "rk4", 0.5));
+        let d = disp(&r);
+        for (i, th) in r.grid.coords[0].iter().enumerate() {
+            assert!((d.numerical[i][0].re - f(*th)).abs() <= 1e-12, "{name} at {th}");
+        }
+    }
+}
+
+#[test]
+fn points_per_wavelength_for_one_percent_error_with_c2_follow_sin_theta_over_theta() {
+    // sin θ/θ = 0.99 at θ = 0.24508 (root of the equation, computed here), so
+    // C2 needs 2π/θ ≈ 25.6 points per wavelength (common practice).
+    let mut th: f64 = 0.2;
+    for _ in 0..50 {
+        let f = th.sin() / th - 0.99;
+        let df = (th * th.cos() - th.sin()) / (th * th);
+        th -= f / df;
+    }
+    let want = 2.0 * std::f64::consts::PI / th;
+    let (_, r) = run(&advection_1d("central2", "rk4", 0.1));
+    let got = disp(&r).resolution[0].0.unwrap();
+    assert!((got - want).abs() <= 0.02 * want, "{got} vs {want}");
+}
+
+#[test]
+fn upwind_euler_amplitude_per_step_is_the_closed_form() {
+    // Common practice: first-order upwind + forward Euler has the amplification
+    // factor 1 − ν(1 − e^{−iθ}); |λ| = exp(Im ω Δt) for λ = e^{−iωΔt}.
+    let nu = 0.6;
+    let (_, r) = run(&advection_1d("upwind1", "euler", nu));
+    let d = disp(&r);
+    for (i, th) in r.grid.coords[0].iter().enumerate() {
+        let g = num_complex::Complex64::new(1.0, 0.0)
+            - (num_complex::Complex64::new(1.0, 0.0) - num_complex::Complex64::from_polar(1.0, -th)) * nu;
+        let amp = (d.discrete[i][0].im * r.dt).exp();
+        assert!((amp - g.norm()).abs() <= 1e-12, "at {th}: {amp} vs {}", g.norm());
+    }
+}
+
+#[test]
+fn leapfrog_has_one_computational_mode_per_variable() {
+    // Leapfrog is a two-step method: besides the principal root it has a parasitic
+    // root ζ ≈ −1 per mode (common practice; Strikwerda).
+    let (_, r) = run(&advection_1d("central2", "leapfrog", 0.5));
+    let d = disp(&r);
+    assert_eq!(d.computational, 1);
+    // the computational root of leapfrog at θ = 0 is ζ = −1: ωΔt = ±π
+    let i0 = r.grid.coords[0].iter().position(|t| t.abs() < 1e-12).unwrap();
+    let w = d.discrete[i0][1];
+    assert!(((w.re * r.dt).abs() - std::f64::consts::PI).abs() <= 1e-9, "{w}");
+}
+
+fn shallow(arrangement: &str) -> String {
+    format!(
+        "[grid]\nspacing = [1.0e5, 1.0e5]\n[model]\nkind = \"shallow-water\"\ngravity = 9.81\ndepth = 100.0\ncoriolis = 1.0e-4\n[space]\narrangement = \"{arrangement}\"\n[time]\nmethod = \"rk4\"\ncourant = 0.1\n[scan]\npoints = [17, 17]\nanalyses = [\"dispersion\"]\n"
+    )
+}
+
+#[test]
+fn inertia_gravity_frequencies_on_the_a_b_and_c_grids() {
+    // Arakawa & Lamb, Methods in Computational Physics 17 (1977), with λ² = gH/f²,
+    // X = k d, Y = l d (formulas from memory, re-derived from the staggered
+    // differences and averages):
+    //   A: (ω/f)² = 1 + (λ/d)²(sin²X + sin²Y)
+    //   B: (ω/f)² = 1 + 2(λ/d)²(1 − cos X cos Y)
+    //   C: (ω/f)² = cos²(X/2)cos²(Y/2) + 4(λ/d)²(sin²(X/2) + sin²(Y/2))
+    let (f, g, h, d) = (1.0e-4, 9.81, 100.0, 1.0e5);
+    let l2 = g * h / (f * f) / (d * d);
+    let rel: [(&str, fn(f64, f64, f64) -> f64); 3] = [
+        ("a", |x, y, l2| 1.0 + l2 * (x.sin().powi(2) + y.sin().powi(2))),
+        ("b", |x, y, l2| 1.0 + 2.0 * l2 * (1.0 - x.cos() * y.cos())),
+        ("c", |x, y, l2| {
+            ((0.5 * x).cos() * (0.5 * y).cos()).powi(2)
+                + 4.0 * l2 * ((0.5 * x).sin().powi(2) + (0.5 * y).sin().powi(2))
+        }),
+    ];
+    for (arr, formula) in rel {
+        let (_, r) = run(&shallow(arr));
+        let dr = disp(&r);
+        let n1 = r.grid.points[1];
+        for (i, node) in dr.numerical.iter().enumerate() {
+            let (x, y) = (r.grid.coords[0][i / n1], r.grid.coords[1][i % n1]);
+            let want = f * formula(x, y, l2).sqrt();
+            let mut w: Vec<f64> = node.iter().map(|z| z.re).collect();
+            w.sort_by(|a, b| a.total_cmp(b));
+            assert!((w[2] - want).abs() <= 1e-9 * want, "{arr}-grid at ({x}, {y}): {} vs {want}", w[2]);
+            assert!((w[0] + want).abs() <= 1e-9 * want);
+        }
+    }
+}
+
+#[test]
+fn yee_fully_discrete_frequencies_satisfy_the_numerical_dispersion_relation() {
+    // Taflove & Hagness: [sin(ωΔt/2)/(cΔt)]² = Σ_d [sin(k_d h_d/2)/h_d]².
+    let text = "[grid]\nspacing = [1.0e-3, 2.0e-3]\n[model]\nkind = \"maxwell\"\nspeed = 3.0e8\n[space]\narrangement = \"yee\"\n[time]\nmethod = \"forward-backward\"\nfirst = [\"hz\"]\ncourant = 0.6\n[scan]\npoints = [17, 17]\nanalyses = [\"dispersion\"]\n";
+    let (case, r) = run(text);
+    let d = disp(&r);
+    let n1 = r.grid.points[1];
+    let c = 3.0e8;
+    for (i, node) in d.discrete.iter().enumerate() {
+        let th = [r.grid.coords[0][i / n1], r.grid.coords[1][i % n1]];
+        if th.iter().all(|t| t.abs() < 1e-12) {
+            continue;
+        }
+        let rhs: f64 = th.iter().zip(&case.spacing).map(|(t, h)| ((0.5 * t).sin() / h).powi(2)).sum();
+        // the two electromagnetic modes (names end in ±1); the static one has ω = 0
+        for (j, name) in d.names.iter().enumerate() {
+            if name.starts_with("electromagnetic") {
+                let lhs = ((0.5 * node[j].re * r.dt).sin() / (c * r.dt)).powi(2);
+                assert!((lhs - rhs).abs() <= 1e-8 * rhs, "{name} at {th:?}: {lhs} vs {rhs}");
+            }
+        }
+    }
+}
+
+#[test]
+fn continuous_euler_frequencies_are_convected_and_acoustic() {
+    // Common practice: ω = u·k (entropy, vorticity) and u·k ± c|k| (acoustic).
+    let text = "[grid]\nspacing = [1.0, 2.0]\n[model]\nkind = \"euler\"\ndensity = 1.0\npressure = 0.7142857142857143\ngamma = 1.4\nvelocity = [0.5, 0.2]\n[space]\nfirst = \"central4\"\n[time]\nmethod = \"rk4\"\ncourant = 1.0\n[scan]\npoints = [9, 9]\nanalyses = [\"dispersion\"]\n";
+    let (_, r) = run(text);
+    let d = disp(&r);
+    assert_eq!(d.names, ["acoustic-", "convected1", "convected2", "acoustic+"]);
+    let n1 = r.grid.points[1];
+    for (i, w) in d.exact.iter().enumerate() {
+        let k = [r.grid.coords[0][i / n1], r.grid.coords[1][i % n1] / 2.0];
+        let uk = 0.5 * k[0] + 0.2 * k[1];
+        let kk = (k[0] * k[0] + k[1] * k[1]).sqrt();
+        if kk == 0.0 {
+            continue;
+        }
+        let mut got: Vec<f64> = w.iter().map(|z| z.re).collect();
+        got.sort_by(|a, b| a.total_cmp(b));
+        let mut want = [uk - kk, uk, uk, uk + kk];
+        want.sort_by(|a, b| a.total_cmp(b));
+        for (g, e) in got.iter().zip(&want) {
+            assert!((g - e).abs() <= 1e-12 * (1.0 + kk));
+        }
+    }
+}
