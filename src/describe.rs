@@ -120,12 +120,38 @@ pub fn check(case: &Case) -> Result<String, OperatorError> {
     let eig = crate::linalg::eigenvalues(&crate::linalg::from_matrix(&l), op.m).unwrap_or_default();
     let ev: Vec<String> = eig.iter().map(|z| fmt_c(*z)).collect();
     let _ = writeln!(s, "  eigenvalues: {}", ev.join(", "));
+    let _ = writeln!(s, "{}", resolution_line(case, &op));
     let _ = writeln!(
         s,
         "scan          points {:?}, {} directions, tolerance {:e}",
         case.scan.points, case.scan.directions, case.scan.tolerance
     );
     Ok(s)
+}
+
+/// Points per wavelength each physical mode needs for the case's phase tolerance,
+/// from the dispersion curves (semi-discrete, and with the time method).
+fn resolution_line(case: &Case, op: &Operator) -> String {
+    use crate::analysis::dispersion;
+    let f = dispersion::Frequencies::new(case, op);
+    let dt = case.dt();
+    let dirs = dispersion::curve_directions(case.dims(), case.scan.directions);
+    let curves: Vec<_> = dirs.iter().map(|n| dispersion::curve(&f, n, dt)).collect();
+    let names = dispersion::mode_names(&case.system);
+    let tol = case.scan.phase_tolerance;
+    let res = dispersion::worst_resolution(&curves, names.len(), tol);
+    let parts: Vec<String> = names
+        .iter()
+        .zip(&res)
+        .filter_map(|(name, (semi, disc, _))| {
+            semi.map(|a| format!("{name} {a:.1} ({:.1} with {})", disc.unwrap_or(f64::NAN), case.method.name))
+        })
+        .collect();
+    format!(
+        "resolution    points per wavelength for {:.1}% phase error: {}",
+        100.0 * tol,
+        if parts.is_empty() { "no propagating mode".to_string() } else { parts.join(", ") }
+    )
 }
 
 /// Built-in models.
@@ -163,16 +189,18 @@ pub fn list_models() -> String {
 /// Built-in stencils with their properties.
 pub fn list_stencils() -> String {
     let mut s = format!(
-        "stencils\n  {:<10}{:>6}{:>7}{:>10}  {:<46}{}\n",
-        "name", "deriv", "order", "max k*h", "offsets", "description"
+        "stencils (resolving efficiency: fraction of [0, pi] and points per wavelength where the modified wavenumber is within 1% / 0.1%)\n  {:<10}{:>6}{:>7}{:>10}{:>16}{:>16}  {:<46}{}\n",
+        "name", "deriv", "order", "max k*h", "1%: eff  ppw", "0.1%: eff  ppw", "offsets", "description"
     );
     for (st, summary) in catalogue::all() {
         let (kmax, _) = st.max_modified_wavenumber();
         let offs = format!("{:?}", st.offsets);
+        let (e1, p1) = st.resolving_efficiency(0.01);
+        let (e2, p2) = st.resolving_efficiency(0.001);
         let _ = writeln!(
             s,
-            "  {:<10}{:>6}{:>7}{:>10.5}  {:<46}{}",
-            st.name, st.derivative, st.order, kmax, offs, summary
+            "  {:<10}{:>6}{:>7}{:>10.5}{:>9.3}{:>7.1}{:>9.3}{:>7.1}  {:<46}{}",
+            st.name, st.derivative, st.order, kmax, e1, p1, e2, p2, offs, summary
         );
         let w: Vec<String> = st.weights.iter().map(|w| format!("{w:.10}")).collect();
         let _ = writeln!(s, "  {:<23}weights [{}]", "", w.join(", "));

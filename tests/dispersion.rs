@@ -7,7 +7,14 @@ use std::path::Path;
 
 fn run(text: &str) -> (Case, kgain::analysis::Results) {
     let case = Case::from_str_with(text, Path::new("disp.toml"), &[]).expect("valid case");
-    let r = analyse(&case, &Options { par: Par::Threads(2), progress: false }).expect("runs");
+    let r = analyse(
+        &case,
+        &Options {
+            par: Par::Threads(2),
+            progress: false,
+        },
+    )
+    .expect("runs");
     (case, r)
 }
 
@@ -32,7 +39,10 @@ fn central_second_order_phase_is_sin_theta_and_group_velocity_is_cos_theta() {
         assert!((w.re - th.sin()).abs() <= 1e-12, "omega at {th}");
         assert!(w.im.abs() <= 1e-12);
         let g = d.group[i][0][0];
-        assert!((g - th.cos()).abs() <= 1e-6, "group velocity {g} vs cos {th}");
+        assert!(
+            (g - th.cos()).abs() <= 1e-6,
+            "group velocity {g} vs cos {th}"
+        );
     }
 }
 
@@ -43,13 +53,18 @@ fn modified_wavenumbers_of_c4_and_compact_stencils_set_the_phase_speed() {
     let forms: [(&str, fn(f64) -> f64); 3] = [
         ("central4", |t| (8.0 * t.sin() - (2.0 * t).sin()) / 6.0),
         ("compact4", |t| 1.5 * t.sin() / (1.0 + 0.5 * t.cos())),
-        ("compact6", |t| (14.0 / 9.0 * t.sin() + (2.0 * t).sin() / 18.0) / (1.0 + 2.0 / 3.0 * t.cos())),
+        ("compact6", |t| {
+            (14.0 / 9.0 * t.sin() + (2.0 * t).sin() / 18.0) / (1.0 + 2.0 / 3.0 * t.cos())
+        }),
     ];
     for (name, f) in forms {
         let (_, r) = run(&advection_1d(name, "rk4", 0.5));
         let d = disp(&r);
         for (i, th) in r.grid.coords[0].iter().enumerate() {
-            assert!((d.numerical[i][0].re - f(*th)).abs() <= 1e-12, "{name} at {th}");
+            assert!(
+                (d.numerical[i][0].re - f(*th)).abs() <= 1e-12,
+                "{name} at {th}"
+            );
         }
     }
 }
@@ -79,9 +94,15 @@ fn upwind_euler_amplitude_per_step_is_the_closed_form() {
     let d = disp(&r);
     for (i, th) in r.grid.coords[0].iter().enumerate() {
         let g = num_complex::Complex64::new(1.0, 0.0)
-            - (num_complex::Complex64::new(1.0, 0.0) - num_complex::Complex64::from_polar(1.0, -th)) * nu;
+            - (num_complex::Complex64::new(1.0, 0.0)
+                - num_complex::Complex64::from_polar(1.0, -th))
+                * nu;
         let amp = (d.discrete[i][0].im * r.dt).exp();
-        assert!((amp - g.norm()).abs() <= 1e-12, "at {th}: {amp} vs {}", g.norm());
+        assert!(
+            (amp - g.norm()).abs() <= 1e-12,
+            "at {th}: {amp} vs {}",
+            g.norm()
+        );
     }
 }
 
@@ -93,9 +114,15 @@ fn leapfrog_has_one_computational_mode_per_variable() {
     let d = disp(&r);
     assert_eq!(d.computational, 1);
     // the computational root of leapfrog at θ = 0 is ζ = −1: ωΔt = ±π
-    let i0 = r.grid.coords[0].iter().position(|t| t.abs() < 1e-12).unwrap();
+    let i0 = r.grid.coords[0]
+        .iter()
+        .position(|t| t.abs() < 1e-12)
+        .unwrap();
     let w = d.discrete[i0][1];
-    assert!(((w.re * r.dt).abs() - std::f64::consts::PI).abs() <= 1e-9, "{w}");
+    assert!(
+        ((w.re * r.dt).abs() - std::f64::consts::PI).abs() <= 1e-9,
+        "{w}"
+    );
 }
 
 fn shallow(arrangement: &str) -> String {
@@ -115,7 +142,9 @@ fn inertia_gravity_frequencies_on_the_a_b_and_c_grids() {
     let (f, g, h, d) = (1.0e-4, 9.81, 100.0, 1.0e5);
     let l2 = g * h / (f * f) / (d * d);
     let rel: [(&str, fn(f64, f64, f64) -> f64); 3] = [
-        ("a", |x, y, l2| 1.0 + l2 * (x.sin().powi(2) + y.sin().powi(2))),
+        ("a", |x, y, l2| {
+            1.0 + l2 * (x.sin().powi(2) + y.sin().powi(2))
+        }),
         ("b", |x, y, l2| 1.0 + 2.0 * l2 * (1.0 - x.cos() * y.cos())),
         ("c", |x, y, l2| {
             ((0.5 * x).cos() * (0.5 * y).cos()).powi(2)
@@ -131,7 +160,11 @@ fn inertia_gravity_frequencies_on_the_a_b_and_c_grids() {
             let want = f * formula(x, y, l2).sqrt();
             let mut w: Vec<f64> = node.iter().map(|z| z.re).collect();
             w.sort_by(|a, b| a.total_cmp(b));
-            assert!((w[2] - want).abs() <= 1e-9 * want, "{arr}-grid at ({x}, {y}): {} vs {want}", w[2]);
+            assert!(
+                (w[2] - want).abs() <= 1e-9 * want,
+                "{arr}-grid at ({x}, {y}): {} vs {want}",
+                w[2]
+            );
             assert!((w[0] + want).abs() <= 1e-9 * want);
         }
     }
@@ -150,12 +183,19 @@ fn yee_fully_discrete_frequencies_satisfy_the_numerical_dispersion_relation() {
         if th.iter().all(|t| t.abs() < 1e-12) {
             continue;
         }
-        let rhs: f64 = th.iter().zip(&case.spacing).map(|(t, h)| ((0.5 * t).sin() / h).powi(2)).sum();
+        let rhs: f64 = th
+            .iter()
+            .zip(&case.spacing)
+            .map(|(t, h)| ((0.5 * t).sin() / h).powi(2))
+            .sum();
         // the two electromagnetic modes (names end in ±1); the static one has ω = 0
         for (j, name) in d.names.iter().enumerate() {
             if name.starts_with("electromagnetic") {
                 let lhs = ((0.5 * node[j].re * r.dt).sin() / (c * r.dt)).powi(2);
-                assert!((lhs - rhs).abs() <= 1e-8 * rhs, "{name} at {th:?}: {lhs} vs {rhs}");
+                assert!(
+                    (lhs - rhs).abs() <= 1e-8 * rhs,
+                    "{name} at {th:?}: {lhs} vs {rhs}"
+                );
             }
         }
     }
@@ -167,7 +207,10 @@ fn continuous_euler_frequencies_are_convected_and_acoustic() {
     let text = "[grid]\nspacing = [1.0, 2.0]\n[model]\nkind = \"euler\"\ndensity = 1.0\npressure = 0.7142857142857143\ngamma = 1.4\nvelocity = [0.5, 0.2]\n[space]\nfirst = \"central4\"\n[time]\nmethod = \"rk4\"\ncourant = 1.0\n[scan]\npoints = [9, 9]\nanalyses = [\"dispersion\"]\n";
     let (_, r) = run(text);
     let d = disp(&r);
-    assert_eq!(d.names, ["acoustic-", "convected1", "convected2", "acoustic+"]);
+    assert_eq!(
+        d.names,
+        ["acoustic-", "convected1", "convected2", "acoustic+"]
+    );
     let n1 = r.grid.points[1];
     for (i, w) in d.exact.iter().enumerate() {
         let k = [r.grid.coords[0][i / n1], r.grid.coords[1][i % n1] / 2.0];

@@ -381,12 +381,7 @@ const CURVE_SAMPLES: usize = 48;
 
 /// Dispersion curves along one physical direction n: (ppw, semi phase ratio,
 /// discrete phase ratio, group ratio) per sample and mode.
-#[allow(clippy::type_complexity)]
-pub fn curve(
-    f: &Frequencies,
-    n: &[f64],
-    dt: f64,
-) -> (Vec<f64>, Vec<Vec<f64>>, Vec<Vec<f64>>, Vec<Vec<f64>>) {
+pub fn curve(f: &Frequencies, n: &[f64], dt: f64) -> Curve {
     let spacing = &f.case.spacing;
     let h = spacing.iter().copied().fold(f64::INFINITY, f64::min);
     let kmax = PI
@@ -453,4 +448,31 @@ pub fn required_ppw(ppw: &[f64], ratio: &[f64], tol: f64) -> Option<f64> {
         }
     }
     Some(*ppw.last().unwrap_or(&2.0))
+}
+
+/// Curves along one direction: (ppw, semi phase ratio, discrete phase ratio, group ratio).
+pub type Curve = (Vec<f64>, Vec<Vec<f64>>, Vec<Vec<f64>>, Vec<Vec<f64>>);
+
+/// Per mode: points per wavelength needed in the worst direction, semi-discrete
+/// and fully discrete, and the index of that direction.
+pub fn worst_resolution(curves: &[Curve], m: usize, tol: f64) -> Vec<(Option<f64>, Option<f64>, usize)> {
+    (0..m)
+        .map(|j| {
+            let mut worst = (None::<f64>, None::<f64>, 0usize);
+            for (k, (ppw, ps, pd, _)) in curves.iter().enumerate() {
+                let semi: Vec<f64> = ps.iter().map(|row| row[j]).collect();
+                let disc: Vec<f64> = pd.iter().map(|row| row[j]).collect();
+                let a = required_ppw(ppw, &semi, tol);
+                let b = required_ppw(ppw, &disc, tol);
+                if a.unwrap_or(0.0) > worst.0.unwrap_or(0.0) {
+                    worst.0 = a;
+                    worst.2 = k;
+                }
+                if b.unwrap_or(0.0) > worst.1.unwrap_or(0.0) {
+                    worst.1 = b;
+                }
+            }
+            worst
+        })
+        .collect()
 }

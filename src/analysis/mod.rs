@@ -525,11 +525,7 @@ fn dispersion_analysis(
     let names = dispersion::mode_names(&case.system);
     let m = names.len();
     let tol = case.scan.phase_tolerance;
-    let resolution = (0..m)
-        .map(|j| {
-            let mut worst = (None::<f64>, None::<f64>, 0usize);
-            for (k, (ppw, ps, pd, _)) in curves.iter().enumerate() {
-                let semi: Vec<f64> = ps.iter().map(|row| row[j]).collect();
+    let resolution = dispersion::worst_resolution(&curves, m, tol);
                 let disc: Vec<f64> = pd.iter().map(|row| row[j]).collect();
                 let a = dispersion::required_ppw(ppw, &semi, tol);
                 let b = dispersion::required_ppw(ppw, &disc, tol);

@@ -238,6 +238,42 @@ impl Stencil {
     }
 }
 
+impl Stencil {
+    /// Resolving efficiency for a relative error `tol` of the modified wavenumber:
+    /// the largest θ_r such that |k*(θ)/θ^d − 1| ≤ tol on (0, θ_r] (first
+    /// derivatives compare Re k* with θ, second derivatives k* with θ²), returned
+    /// as (θ_r/π, points per wavelength 2π/θ_r).
+    pub fn resolving_efficiency(&self, tol: f64) -> (f64, f64) {
+        let err = |t: f64| {
+            let k = self.modified_wavenumber(t);
+            match self.derivative {
+                1 => (k.re / t - 1.0).abs(),
+                _ => (k.re / (t * t) - 1.0).abs(),
+            }
+        };
+        let n = 4096;
+        let pi = std::f64::consts::PI;
+        let mut last = 1e-6;
+        for i in 1..=n {
+            let t = pi * i as f64 / n as f64;
+            if err(t) > tol {
+                let (mut a, mut b) = (last, t);
+                for _ in 0..60 {
+                    let mid = 0.5 * (a + b);
+                    if err(mid) > tol {
+                        b = mid;
+                    } else {
+                        a = mid;
+                    }
+                }
+                return (a / pi, 2.0 * pi / a);
+            }
+            last = t;
+        }
+        (1.0, 2.0)
+    }
+}
+
 /// Σ_j w_j e^{iθ o_j}, with the terms at ±o combined into cosine and sine parts.
 fn paired_sum(offsets: &[f64], weights: &[f64], theta: f64) -> C64 {
     let mut re = 0.0;
