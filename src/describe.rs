@@ -144,13 +144,23 @@ fn resolution_line(case: &Case, op: &Operator) -> String {
         .iter()
         .zip(&res)
         .filter_map(|(name, (semi, disc, _))| {
-            semi.map(|a| format!("{name} {a:.1} ({:.1} with {})", disc.unwrap_or(f64::NAN), case.method.name))
+            semi.map(|a| {
+                format!(
+                    "{name} {a:.1} ({:.1} with {})",
+                    disc.unwrap_or(f64::NAN),
+                    case.method.name
+                )
+            })
         })
         .collect();
     format!(
         "resolution    points per wavelength for {:.1}% phase error: {}",
         100.0 * tol,
-        if parts.is_empty() { "no propagating mode".to_string() } else { parts.join(", ") }
+        if parts.is_empty() {
+            "no propagating mode".to_string()
+        } else {
+            parts.join(", ")
+        }
     )
 }
 

@@ -455,7 +455,11 @@ pub type Curve = (Vec<f64>, Vec<Vec<f64>>, Vec<Vec<f64>>, Vec<Vec<f64>>);
 
 /// Per mode: points per wavelength needed in the worst direction, semi-discrete
 /// and fully discrete, and the index of that direction.
-pub fn worst_resolution(curves: &[Curve], m: usize, tol: f64) -> Vec<(Option<f64>, Option<f64>, usize)> {
+pub fn worst_resolution(
+    curves: &[Curve],
+    m: usize,
+    tol: f64,
+) -> Vec<(Option<f64>, Option<f64>, usize)> {
     (0..m)
         .map(|j| {
             let mut worst = (None::<f64>, None::<f64>, 0usize);

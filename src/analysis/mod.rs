@@ -526,20 +526,6 @@ fn dispersion_analysis(
     let m = names.len();
     let tol = case.scan.phase_tolerance;
     let resolution = dispersion::worst_resolution(&curves, m, tol);
-                let disc: Vec<f64> = pd.iter().map(|row| row[j]).collect();
-                let a = dispersion::required_ppw(ppw, &semi, tol);
-                let b = dispersion::required_ppw(ppw, &disc, tol);
-                if a.unwrap_or(0.0) > worst.0.unwrap_or(0.0) {
-                    worst.0 = a;
-                    worst.2 = k;
-                }
-                if b.unwrap_or(0.0) > worst.1.unwrap_or(0.0) {
-                    worst.1 = b;
-                }
-            }
-            worst
-        })
-        .collect();
     let computational = nodes.first().map_or(0, |n| n.2.len().saturating_sub(m));
     let ppw = curves.first().map(|c| c.0.clone()).unwrap_or_default();
     let mut numerical = Vec::with_capacity(nodes.len());
