@@ -5,6 +5,11 @@ use kgain::case::Case;
 use kgain::sample::Par;
 use std::path::Path;
 
+/// A named closed form of one variable.
+type Form1 = (&'static str, fn(f64) -> f64);
+/// A named closed form of two angles and a parameter.
+type Form3 = (&'static str, fn(f64, f64, f64) -> f64);
+
 fn run(text: &str) -> (Case, kgain::analysis::Results) {
     let case = Case::from_str_with(text, Path::new("disp.toml"), &[]).expect("valid case");
     let r = analyse(
@@ -50,7 +55,7 @@ fn central_second_order_phase_is_sin_theta_and_group_velocity_is_cos_theta() {
 fn modified_wavenumbers_of_c4_and_compact_stencils_set_the_phase_speed() {
     // C4: (8 sin θ − sin 2θ)/6 (common practice); Padé compact 4: (3/2 sin θ)/(1 + ½ cos θ);
     // compact 6: (14/9 sin θ + 1/18 sin 2θ)/(1 + 2/3 cos θ) (Lele, J. Comput. Phys. 103, 1992).
-    let forms: [(&str, fn(f64) -> f64); 3] = [
+    let forms: [Form1; 3] = [
         ("central4", |t| (8.0 * t.sin() - (2.0 * t).sin()) / 6.0),
         ("compact4", |t| 1.5 * t.sin() / (1.0 + 0.5 * t.cos())),
         ("compact6", |t| {
@@ -141,7 +146,7 @@ fn inertia_gravity_frequencies_on_the_a_b_and_c_grids() {
     //   C: (ω/f)² = cos²(X/2)cos²(Y/2) + 4(λ/d)²(sin²(X/2) + sin²(Y/2))
     let (f, g, h, d) = (1.0e-4, 9.81, 100.0, 1.0e5);
     let l2 = g * h / (f * f) / (d * d);
-    let rel: [(&str, fn(f64, f64, f64) -> f64); 3] = [
+    let rel: [Form3; 3] = [
         ("a", |x, y, l2| {
             1.0 + l2 * (x.sin().powi(2) + y.sin().powi(2))
         }),
