@@ -158,7 +158,6 @@ where
     let dims = grid.points.len();
     let row = grid.points[dims - 1];
     let m = op.m;
-    let mut out = vec![T::default(); grid.len()];
     let init = || {
         (
             EigSolver::new(m),
@@ -186,33 +185,58 @@ where
                 eigenvalues: res,
             });
         }
-        if let Some(b) = bar {
-            b.inc(chunk.len() as u64);
-        }
     };
-    let rows = grid.len() / row;
+    by_rows(grid, par, symmetry, bar, init, work)
+}
+
+/// Runs `work(workspace, (row, chunk))` over the rows of the output in C order
+/// (only the first half of them when `symmetry` is even, the rest mirrored:
+/// −θ of flat index f is N−1−f), one workspace per worker.
+fn by_rows<T, W, I, F>(
+    grid: &Grid,
+    par: Par,
+    symmetry: Symmetry,
+    bar: Option<&ProgressBar>,
+    init: I,
+    work: F,
+) -> Vec<T>
+where
+    T: Send + Clone + Default,
+    W: Send,
+    I: Fn() -> W + Sync + Send,
+    F: Fn(&mut W, (usize, &mut [T])) + Sync + Send,
+{
+    let row = grid.points[grid.points.len() - 1];
+    let total = grid.len();
+    let rows = total / row;
     let computed_rows = match symmetry {
         Symmetry::Even => rows.div_ceil(2),
         Symmetry::None => rows,
     };
+    let mut out = vec![T::default(); total];
     let (head, tail) = out.split_at_mut(computed_rows * row);
+    let counted = |ws: &mut W, item: (usize, &mut [T])| {
+        let n = item.1.len() as u64;
+        work(ws, item);
+        if let Some(b) = bar {
+            b.inc(n);
+        }
+    };
     match par {
         Par::Seq => {
             let mut ws = init();
             for item in head.chunks_mut(row).enumerate() {
-                work(&mut ws, item);
+                counted(&mut ws, item);
             }
         }
         Par::Threads(_) => par.run(|| {
             head.par_chunks_mut(row)
                 .enumerate()
-                .for_each_init(init, |ws, item| work(ws, item));
+                .for_each_init(&init, |ws, item| counted(ws, item));
         }),
     }
-    let total = grid.len();
     for (k, slot) in tail.iter_mut().enumerate() {
-        let f = computed_rows * row + k;
-        *slot = head[total - 1 - f].clone();
+        *slot = head[total - 1 - (computed_rows * row + k)].clone();
     }
     if let Some(b) = bar {
         b.inc(tail.len() as u64);
@@ -235,30 +259,12 @@ where
 {
     let dims = grid.points.len();
     let row = grid.points[dims - 1];
-    let rows = grid.len() / row;
-    let computed_rows = match symmetry {
-        Symmetry::Even => rows.div_ceil(2),
-        Symmetry::None => rows,
-    };
-    let mut out = vec![T::default(); grid.len()];
-    let (head, tail) = out.split_at_mut(computed_rows * row);
-    let work = |(r, chunk): (usize, &mut [T])| {
-        let mut idx = vec![0usize; dims];
+    let init = || vec![0usize; dims];
+    let work = |idx: &mut Vec<usize>, (r, chunk): (usize, &mut [T])| {
         for (j, slot) in chunk.iter_mut().enumerate() {
-            grid.unravel(r * row + j, &mut idx);
-            *slot = f(&grid.theta(&idx));
-        }
-        if let Some(b) = bar {
-            b.inc(chunk.len() as u64);
+            grid.unravel(r * row + j, idx);
+            *slot = f(&grid.theta(idx));
         }
     };
-    match par {
-        Par::Seq => head.chunks_mut(row).enumerate().for_each(work),
-        Par::Threads(_) => par.run(|| head.par_chunks_mut(row).enumerate().for_each(work)),
-    }
-    let total = grid.len();
-    for (k, slot) in tail.iter_mut().enumerate() {
-        *slot = head[total - 1 - (computed_rows * row + k)].clone();
-    }
-    out
+    by_rows(grid, par, symmetry, bar, init, work)
 }
