@@ -216,21 +216,8 @@ pub fn analyse(case: &Case, opts: &Options) -> Result<Results, OperatorError> {
     bar.finish_and_clear();
     let failures = nodes.iter().filter(|n| n.0.is_nan()).count();
     let dims = grid.points.len();
-    let mut idx = vec![0usize; dims];
-    let radius = want_radius.then(|| {
-        let map: Vec<f64> = nodes.iter().map(|n| n.0).collect();
-        let (imax, max) = map.iter().enumerate().filter(|(_, v)| !v.is_nan()).fold(
-            (0, f64::NEG_INFINITY),
-            |b, (i, v)| if *v > b.1 { (i, *v) } else { b },
-        );
-        grid.unravel(imax, &mut idx);
-        RadiusResult {
-            max,
-            wavevector: grid.theta(&idx),
-            stable: max <= 1.0 + tol,
-            map,
-        }
-    });
+    let radius =
+        want_radius.then(|| radius_result(nodes.iter().map(|n| n.0).collect(), &grid, tol));
     let (limit, directional) = if want_limit {
         let screen: Vec<(f64, f64)> = nodes.iter().map(|n| (n.1, n.2)).collect();
         let overall = opts.par.run(|| limit::overall(&op, &exits, &grid, &screen));
@@ -303,18 +290,7 @@ fn analyse_composite(
             ev.radius(th, dt)
         });
         bar.finish_and_clear();
-        let (imax, max) = map.iter().enumerate().filter(|(_, v)| !v.is_nan()).fold(
-            (0, f64::NEG_INFINITY),
-            |b, (i, v)| if *v > b.1 { (i, *v) } else { b },
-        );
-        let mut idx = vec![0usize; dims];
-        grid.unravel(imax, &mut idx);
-        RadiusResult {
-            max,
-            wavevector: grid.theta(&idx),
-            stable: max <= 1.0 + tol,
-            map,
-        }
+        radius_result(map, &grid, tol)
     });
     let failures = radius
         .as_ref()
@@ -343,34 +319,7 @@ fn analyse_composite(
     } else {
         (None, None)
     };
-    let samples = (case.scan.matrices > 0).then(|| {
-        let k = case.scan.matrices.min(grid.len());
-        let index = sample_indices(k, grid.len());
-        let mut idx = vec![0usize; dims];
-        let mut s = Samples {
-            index: index.clone(),
-            theta: Vec::new(),
-            symbol: Vec::new(),
-            amplification: Vec::new(),
-            size: op.m * scheme.levels(),
-        };
-        for &i in &index {
-            grid.unravel(i, &mut idx);
-            let th = grid.theta(&idx);
-            let g = crate::time::composite::amplification(
-                scheme,
-                &case.system,
-                op,
-                &case.spacing,
-                &th,
-                dt,
-            );
-            s.symbol.push(op.symbol(&th));
-            s.amplification.push(crate::linalg::from_matrix(&g));
-            s.theta.push(th);
-        }
-        s
-    });
+    let samples = (case.scan.matrices > 0).then(|| sample_matrices(case, op, &grid, dt));
     let mut r = Results {
         grid,
         dt,
@@ -707,32 +656,40 @@ fn sample_indices(k: usize, n: usize) -> Vec<usize> {
 }
 
 /// Amplification matrices at `case.scan.matrices` nodes spread evenly over the grid.
+/// The radius map with its maximum (NaN nodes ignored), where it is, and the verdict.
+fn radius_result(map: Vec<f64>, grid: &Grid, tol: f64) -> RadiusResult {
+    let (imax, max) = map.iter().enumerate().filter(|(_, v)| !v.is_nan()).fold(
+        (0, f64::NEG_INFINITY),
+        |b, (i, v)| if *v > b.1 { (i, *v) } else { b },
+    );
+    let mut idx = vec![0usize; grid.points.len()];
+    grid.unravel(imax, &mut idx);
+    RadiusResult {
+        max,
+        wavevector: grid.theta(&idx),
+        stable: max <= 1.0 + tol,
+        map,
+    }
+}
+
 fn sample_matrices(case: &Case, op: &Operator, grid: &Grid, dt: f64) -> Samples {
     let k = case.scan.matrices.min(grid.len());
     let index = sample_indices(k, grid.len());
-    let dims = grid.points.len();
-    let mut idx = vec![0usize; dims];
-    let mut theta = Vec::new();
-    let mut symbol = Vec::new();
-    let mut amplification = Vec::new();
-    let mut size = op.m;
+    let mut idx = vec![0usize; grid.points.len()];
+    let mut s = Samples {
+        index: index.clone(),
+        theta: Vec::new(),
+        symbol: Vec::new(),
+        amplification: Vec::new(),
+        size: op.m * case.method.levels(),
+    };
     for &i in &index {
         grid.unravel(i, &mut idx);
         let th = grid.theta(&idx);
-        let l = op.symbol_matrix(&th);
-        let g = case
-            .method
-            .amplification_matrix(&(l.clone() * C64::new(dt, 0.0)));
-        size = g.nrows();
-        symbol.push(crate::linalg::from_matrix(&l));
-        amplification.push(crate::linalg::from_matrix(&g));
-        theta.push(th);
+        let g = amplification_at(case, op, &th, dt);
+        s.symbol.push(op.symbol(&th));
+        s.amplification.push(crate::linalg::from_matrix(&g));
+        s.theta.push(th);
     }
-    Samples {
-        index,
-        theta,
-        symbol,
-        amplification,
-        size,
-    }
+    s
 }
