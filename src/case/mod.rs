@@ -5,7 +5,9 @@
 //! text, its line and column; misspelt names get the nearest valid one as a hint.
 
 mod locate;
+mod model;
 mod raw;
+mod scheme;
 mod suggest;
 mod validate;
 
