@@ -174,6 +174,16 @@ impl Case {
         self.system.diffusivity_max.map(|d| dt * d / (h * h))
     }
 
+    /// Estimated bytes of memory the run needs (working values and outputs).
+    pub fn memory_estimate(&self) -> u128 {
+        validate::memory_estimate(
+            &self.scan,
+            self.system.size(),
+            self.method.levels(),
+            self.dims(),
+        )
+    }
+
     /// Reads, overrides and validates a case file.
     pub fn load(path: &Path, overrides: &[String]) -> Result<Case, CaseError> {
         let file = path.display().to_string();

@@ -115,6 +115,20 @@ pub(super) fn validate(raw: RawCase, text: &str, path: &Path) -> Result<Case, Ca
     let method = method(&cx, &raw.time, &system, &space)?;
     let step = step(&cx, &raw.time, &system)?;
     let scan = scan(&cx, &raw.scan, dims)?;
+    let need = memory_estimate(&scan, system.size(), method.levels(), dims);
+    let avail = available_memory();
+    if need > avail as u128 * 4 / 5 {
+        let nodes: u128 = scan.points.iter().map(|&n| n as u128).product();
+        return Err(cx.err_hint(
+            "scan.points",
+            format!(
+                "a scan of {nodes} wavevectors with these analyses needs about {:.1} GiB, more than the {:.1} GiB of memory available",
+                need as f64 / (1u64 << 30) as f64,
+                avail as f64 / (1u64 << 30) as f64
+            ),
+            "use fewer points per axis, or fewer analyses (scan.analyses)",
+        ));
+    }
     if let Some(w) = &scan.weights {
         if w.len() != system.size() {
             return Err(cx.err(
@@ -251,20 +265,6 @@ fn scan(cx: &Ctx, s: &RawScan, dims: usize) -> Result<Scan, CaseError> {
             out
         }
     };
-    let nodes: u128 = points.iter().map(|&n| n as u128).product();
-    let need = nodes * 32;
-    let avail = available_memory();
-    if need > avail as u128 / 2 {
-        return Err(cx.err_hint(
-            "scan.points",
-            format!(
-                "a scan of {nodes} wavevectors needs about {:.1} GiB for its arrays, more than half of the {:.1} GiB of memory available",
-                need as f64 / (1u64 << 30) as f64,
-                avail as f64 / (1u64 << 30) as f64
-            ),
-            "use fewer points per axis",
-        ));
-    }
     let epsilon = cx.positive("scan.epsilon", s.epsilon.unwrap_or(1e-3))?;
     if let Some(w) = &s.weights {
         for (i, x) in w.iter().enumerate() {
@@ -283,6 +283,30 @@ fn scan(cx: &Ctx, s: &RawScan, dims: usize) -> Result<Scan, CaseError> {
         analyses,
         matrices,
     })
+}
+
+/// Bytes a run needs: per wavevector, the sweep's working values and every output
+/// array of the requested analyses (m variables, M = m·levels state size).
+pub fn memory_estimate(scan: &Scan, m: usize, levels: usize, dims: usize) -> u128 {
+    let nodes: u128 = scan.points.iter().map(|&n| n as u128).product();
+    let (m, big_m, d) = (m as u128, (m * levels) as u128, dims as u128);
+    let mut per = 0u128;
+    if scan
+        .analyses
+        .iter()
+        .any(|a| matches!(a, Analysis::Radius | Analysis::Limit))
+    {
+        per += 24 + 8;
+    }
+    if scan.analyses.contains(&Analysis::Growth) {
+        per += 48 + 2 * 24;
+    }
+    if scan.analyses.contains(&Analysis::Dispersion) {
+        // matched ω (3 sets), group velocities (2), then the written copies and maps
+        let work = 16 * (2 * m + big_m) + 16 * m * d + 3 * 24;
+        per += 2 * work + 6 * 8 * m;
+    }
+    nodes * per
 }
 
 /// Memory available to the process, from /proc/meminfo (24 GiB when unknown).
