@@ -146,6 +146,13 @@ fn run(cli: Cli) -> Result<(), Failure> {
             let out = out.unwrap_or_else(|| PathBuf::from("output").join(&case.name));
             report::check_destination(&out, &case, force)
                 .map_err(|e| Failure::Input(e.to_string()))?;
+            let need = case.memory_estimate();
+            if !quiet && need > 512 << 20 {
+                eprintln!(
+                    "kgain: this scan needs about {:.1} GiB of memory",
+                    need as f64 / (1u64 << 30) as f64
+                );
+            }
             let opts = Options {
                 par: match threads {
                     Some(0) => return Err(Failure::Input("--threads must be at least 1".into())),
