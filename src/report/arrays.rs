@@ -158,7 +158,16 @@ fn write_dispersion(
             (wn.im * 2.0 * std::f64::consts::PI / we.re.abs()).exp()
         }
     };
-    let maps: [(&str, Vec<f64>, &'static str); 6] = [
+    // damping over one unit of distance travelled at the exact group speed
+    let travel = |wn: C64, ge: &[f64]| {
+        let c = ge.iter().map(|x| x * x).sum::<f64>().sqrt();
+        if c == 0.0 {
+            f64::NAN
+        } else {
+            (wn.im / c).exp()
+        }
+    };
+    let maps: [(&str, Vec<f64>, &'static str); 8] = [
         (
             "phase_speed_ratio",
             per(&|i, j| phase_ratio(d.numerical[i][j], d.exact[i][j], scale(i))),
@@ -188,6 +197,16 @@ fn write_dispersion(
             "amplitude_per_period_discrete",
             per(&|i, j| amp(d.discrete[i][j], d.exact[i][j], scale(i))),
             "fully discrete amplitude factor over one period of the exact wave",
+        ),
+        (
+            "amplitude_per_unit_travel",
+            per(&|i, j| travel(d.numerical[i][j], &d.group_exact[i][j])),
+            "semi-discrete amplitude factor over one unit of length travelled at the exact group speed",
+        ),
+        (
+            "amplitude_per_unit_travel_discrete",
+            per(&|i, j| travel(d.discrete[i][j], &d.group_exact[i][j])),
+            "fully discrete amplitude factor over one unit of length travelled at the exact group speed",
         ),
     ];
     for (name, data, long_name) in maps {
