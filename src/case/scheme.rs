@@ -179,15 +179,14 @@ fn arrangement_locations(
     let h = 0.5;
     let v = |x: &[f64]| x[..dims].to_vec();
     match (kind, arrangement) {
-        ("shallow-water", "e") => Err(cx.err_hint(
+        ("shallow-water", "d" | "e") if dims == 1 => Err(cx.err(
             key,
-            "arrangement 'e' is not available in this version of kgain",
-            "the E-grid is the B-grid rotated by 45 degrees: analyse arrangement \"b\" on the rotated grid (spacing d/sqrt(2))",
+            format!("the {}-grid needs two axes", arrangement.to_uppercase()),
         )),
-        ("shallow-water", "d") if dims == 1 => Err(cx.err(key, "the D-grid needs two axes")),
         ("shallow-water", a) if a != "yee" => {
+            // the E-grid is analysed as the B-grid on axes turned by 45 degrees
             let (u, w): ([f64; 2], [f64; 2]) = match a {
-                "b" => ([h, h], [h, h]),
+                "b" | "e" => ([h, h], [h, h]),
                 "c" => ([h, 0.0], [0.0, h]),
                 _ => ([0.0, h], [h, 0.0]),
             };
@@ -210,7 +209,11 @@ fn arrangement_locations(
             (_, true) => vec![vec![0.0, h], vec![h, 0.0], vec![0.0, 0.0]],
         }),
         _ => {
-            let owner = if arrangement == "yee" { "maxwell" } else { "shallow-water" };
+            let owner = if arrangement == "yee" {
+                "maxwell"
+            } else {
+                "shallow-water"
+            };
             Err(cx.err_hint(
                 key,
                 format!("arrangement '{arrangement}' belongs to the {owner} model; model '{kind}' has only \"collocated\""),

@@ -93,6 +93,33 @@ impl Ctx<'_> {
     }
 }
 
+/// The E-grid (h and u, v alternating at distance d along both axes) is the
+/// B-grid on axes turned by 45 degrees with spacing d√2 (Arakawa & Lamb 1977):
+/// rotate the mean flow into the diagonal frame and use that spacing.
+fn e_grid_as_rotated_b(
+    cx: &Ctx,
+    raw: &RawCase,
+    spacing: Vec<f64>,
+    system: System,
+) -> Result<(Vec<f64>, System), CaseError> {
+    if (spacing[0] - spacing[1]).abs() > 1e-12 * spacing[0] {
+        return Err(cx.err(
+            "grid.spacing",
+            "the E-grid needs equal spacings on both axes",
+        ));
+    }
+    let s2 = std::f64::consts::SQRT_2;
+    let u = raw.model.velocity.clone().unwrap_or_else(|| vec![0.0, 0.0]);
+    let rotated = [(u[0] + u[1]) / s2, (u[1] - u[0]) / s2];
+    let g = raw.model.gravity.unwrap_or(9.81);
+    let depth = raw.model.depth.unwrap_or(1.0);
+    let f = raw.model.coriolis.unwrap_or(0.0);
+    let mut sys = crate::physics::shallow_water(g, depth, &rotated, f);
+    sys.variables = vec!["h".into(), "u_diag".into(), "v_diag".into()];
+    let _ = system;
+    Ok((vec![spacing[0] * s2, spacing[1] * s2], sys))
+}
+
 pub(super) fn validate(raw: RawCase, text: &str, path: &Path) -> Result<Case, CaseError> {
     let cx = Ctx {
         file: path.display().to_string(),
@@ -108,10 +135,13 @@ pub(super) fn validate(raw: RawCase, text: &str, path: &Path) -> Result<Case, Ca
     for (i, h) in raw.grid.spacing.iter().enumerate() {
         cx.positive(&format!("grid.spacing.{i}"), *h)?;
     }
-    let spacing = raw.grid.spacing.clone();
-    let system = model(&cx, &raw.model, dims)?;
+    let mut spacing = raw.grid.spacing.clone();
+    let mut system = model(&cx, &raw.model, dims)?;
     let tm = raw.model.polarization.as_deref() == Some("tm");
     let space = space(&cx, &raw.space, dims, &raw.model.kind, tm)?;
+    if space.arrangement == "e" {
+        (spacing, system) = e_grid_as_rotated_b(&cx, &raw, spacing, system)?;
+    }
     let method = method(&cx, &raw.time, &system, &space)?;
     let step = step(&cx, &raw.time, &system)?;
     let scan = scan(&cx, &raw.scan, dims)?;
