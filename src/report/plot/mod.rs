@@ -17,6 +17,7 @@
 //! stencil over the plot), one palette ([`style`]) and one colour map
 //! ([`colormap`]).
 
+mod axis;
 mod canvas;
 mod colormap;
 mod contour;
