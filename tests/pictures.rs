@@ -1,7 +1,9 @@
-//! The PNG pictures: each case dimension gets its pictures, every picture
+//! The PNG pictures: each case dimension gets its pictures (radius, limit by
+//! direction, growth envelope, departure from normality, ‖G‖₂), every picture
 //! decodes at the stated size, is not blank, carries text drawn with the
 //! embedded font, and is listed in manifest.json; missing or non-finite data
-//! leaves gaps rather than failing.
+//! (an overflowing growth envelope included) leaves gaps or clipped curves
+//! rather than failing.
 
 use kgain::analysis::{analyse, Options, Results};
 use kgain::case::Case;
@@ -41,6 +43,48 @@ courant = 1.3
 [scan]
 points = [33, 33]
 directions = 48
+"#;
+
+/// Heun with central differences for advection: unstable for every Δt, so the
+/// growth envelope rises geometrically (log axis, no finite Kreiss bound).
+const UNSTABLE_2D: &str = r#"
+name = "pic-unstable"
+[grid]
+spacing = [1.0, 1.0]
+[model]
+kind = "advection"
+velocity = [1.0, 0.5]
+[space]
+first = "central2"
+[time]
+method = "heun"
+courant = 0.9
+[scan]
+points = [17, 17]
+steps = 60
+analyses = ["radius", "growth"]
+"#;
+
+/// Forward–backward shallow water on the C-grid: stable with transient growth
+/// (a non-normal G, a finite Kreiss bound).
+const TRANSIENT_2D: &str = r#"
+name = "pic-transient"
+[grid]
+spacing = [5000.0, 5000.0]
+[model]
+kind = "shallow-water"
+depth = 60.0
+coriolis = 1.19e-4
+[space]
+arrangement = "c"
+[time]
+method = "forward-backward"
+sequence = ["h", "u", "v"]
+dt = 120.0
+[scan]
+points = [17, 17]
+steps = 40
+analyses = ["growth"]
 "#;
 
 const ADVECTION_3D: &str = r#"
@@ -160,27 +204,36 @@ fn manifest_pictures(out: &Path) -> Vec<String> {
         .collect()
 }
 
+/// Every picture of a case that runs all analyses, in the order written.
+const ALL: [&str; 5] = [
+    "radius.png",
+    "limit_polar.png",
+    "growth.png",
+    "departure.png",
+    "norm.png",
+];
+
 fn check_case(text: &str) {
     let (_tmp, out) = run(text);
     let listed = manifest_pictures(&out);
-    assert_eq!(listed, ["radius.png", "limit_polar.png"]);
+    assert_eq!(listed, ALL);
     for name in &listed {
         assert_looks_like_a_picture(&out.join(name));
     }
 }
 
 #[test]
-fn one_dimensional_case_gets_a_radius_curve_and_limit_bars() {
+fn one_dimensional_case_gets_curves_and_limit_bars() {
     check_case(ADVECTION_1D);
 }
 
 #[test]
-fn two_dimensional_case_gets_a_radius_map_and_a_polar_limit() {
+fn two_dimensional_case_gets_maps_a_polar_limit_and_a_growth_curve() {
     check_case(ADVECTION_2D);
 }
 
 #[test]
-fn three_dimensional_case_gets_slices_and_a_direction_scatter() {
+fn three_dimensional_case_gets_slices_a_direction_scatter_and_a_growth_curve() {
     check_case(ADVECTION_3D);
 }
 
@@ -233,9 +286,19 @@ fn non_finite_values_leave_gaps_instead_of_failing() {
                 _ => {}
             }
         }
+        let g = r.growth.as_mut().expect("growth");
+        for map in [&mut g.norm, &mut g.departure] {
+            for (i, v) in map.iter_mut().enumerate() {
+                match i % 6 {
+                    0 => *v = f64::NAN,
+                    4 => *v = f64::INFINITY,
+                    _ => {}
+                }
+            }
+        }
         let tmp = tempfile::tempdir().expect("temp dir");
         let files = write_pictures(tmp.path(), &c, &r).expect("pictures drawn");
-        assert_eq!(files.len(), 2);
+        assert_eq!(files.len(), ALL.len());
         for f in &files {
             assert_looks_like_a_picture(f);
         }
@@ -244,11 +307,146 @@ fn non_finite_values_leave_gaps_instead_of_failing() {
         rad.map.iter_mut().for_each(|v| *v = f64::NAN);
         let dl = r.directional.as_mut().expect("directional");
         dl.dt.iter_mut().for_each(|v| *v = f64::INFINITY);
+        let g = r.growth.as_mut().expect("growth");
+        for map in [&mut g.norm, &mut g.departure, &mut g.envelope] {
+            map.iter_mut().for_each(|v| *v = f64::NAN);
+        }
+        g.peak.0 = f64::NAN;
         let files = write_pictures(tmp.path(), &c, &r).expect("pictures drawn");
         for f in &files {
             let p = decode(f);
             assert_eq!((p.width, p.height), SIZE);
             assert!(dark_pixels(&p, (0, p.width / 2), (0, TITLE_BAND / 2)) > 300);
+        }
+    }
+}
+
+#[test]
+fn unstable_scheme_gets_a_growth_curve_and_non_normality_maps() {
+    let (_tmp, out) = run(UNSTABLE_2D);
+    let listed = manifest_pictures(&out);
+    assert_eq!(
+        listed,
+        ["radius.png", "growth.png", "departure.png", "norm.png"]
+    );
+    for name in &listed {
+        assert_looks_like_a_picture(&out.join(name));
+    }
+    let summary: serde_json::Value =
+        serde_json::from_str(&std::fs::read_to_string(out.join("summary.json")).expect("summary"))
+            .expect("strict JSON");
+    assert_eq!(summary["growth"]["class"], "unstable");
+}
+
+/// The growth picture's plot area (below the verdict band, inside the margins).
+fn growth_plot_ink(p: &Picture) -> usize {
+    dark_pixels(p, (150, p.width - 60), (TITLE_BAND + 80, p.height - 140))
+}
+
+#[test]
+fn growth_picture_draws_the_curve_verdict_and_notes() {
+    for text in [UNSTABLE_2D, TRANSIENT_2D] {
+        let (_tmp, out) = run(text);
+        let p = decode(&out.join("growth.png"));
+        assert_eq!((p.width, p.height), SIZE);
+        // the verdict band right under the title band holds text
+        let band = dark_pixels(&p, (0, p.width), (TITLE_BAND + 4, TITLE_BAND + 40));
+        assert!(band > 200, "{band} dark pixels in the verdict band");
+        // the envelope curve is drawn in the curve colour inside the plot
+        let curve = p.rgb.iter().filter(|c| **c == [0x1f, 0x4e, 0x8c]).count();
+        assert!(curve > 400, "{curve} pixels of the curve colour");
+        assert!(growth_plot_ink(&p) > 300);
+    }
+    // the transient case has a finite Kreiss bound, drawn dotted in its colour
+    let (_tmp, out) = run(TRANSIENT_2D);
+    let p = decode(&out.join("growth.png"));
+    let bound = p.rgb.iter().filter(|c| **c == [0x6a, 0x3d, 0x9a]).count();
+    assert!(bound > 200, "{bound} pixels of the bound colour");
+}
+
+#[test]
+fn growth_picture_clips_infinite_and_nan_envelope_values() {
+    let c = case(UNSTABLE_2D);
+    let base = results(&c);
+    let tmp = tempfile::tempdir().expect("temp dir");
+    let variants: [fn(&mut Results); 4] = [
+        // overflow after step 20, a gap at step 5
+        |r: &mut Results| {
+            let g = r.growth.as_mut().expect("growth");
+            for (n, v) in g.envelope.iter_mut().enumerate() {
+                if n > 20 {
+                    *v = f64::INFINITY;
+                } else if n == 5 {
+                    *v = f64::NAN;
+                }
+            }
+            g.peak.0 = f64::INFINITY;
+        },
+        // negative, zero and NaN values on a log axis
+        |r: &mut Results| {
+            let g = r.growth.as_mut().expect("growth");
+            g.envelope[1] = 0.0;
+            g.envelope[2] = -1.0;
+            g.envelope[3] = f64::NEG_INFINITY;
+            g.kreiss = Some((f64::INFINITY, vec![0.0, 0.0]));
+        },
+        // a single step, and nothing finite at all
+        |r: &mut Results| {
+            let g = r.growth.as_mut().expect("growth");
+            g.envelope = vec![1.0];
+            g.peak = (1.0, 0, vec![0.0, 0.0]);
+        },
+        |r: &mut Results| {
+            let g = r.growth.as_mut().expect("growth");
+            g.envelope.iter_mut().for_each(|v| *v = f64::NAN);
+            g.peak = (f64::NAN, 0, vec![f64::NAN, f64::NAN]);
+            g.pseudospectral.1 = f64::NAN;
+        },
+    ];
+    for (k, change) in variants.iter().enumerate() {
+        let mut r = base.clone();
+        change(&mut r);
+        let files =
+            write_pictures(tmp.path(), &c, &r).unwrap_or_else(|e| panic!("variant {k}: {e}"));
+        let growth = files
+            .iter()
+            .find(|f| f.ends_with("growth.png"))
+            .expect("growth.png written");
+        assert_looks_like_a_picture(growth);
+    }
+}
+
+#[test]
+fn departure_map_spans_zero_to_one_for_a_strongly_non_normal_scheme() {
+    let (_tmp, out) = run(TRANSIENT_2D);
+    assert_eq!(
+        manifest_pictures(&out),
+        ["growth.png", "departure.png", "norm.png"]
+    );
+    let p = decode(&out.join("departure.png"));
+    // the map shows both ends of the colour map: dark violet near θ = 0 and
+    // light green-yellow near the corners
+    let (mut dark, mut light) = (0, 0);
+    for y in TITLE_BAND + 40..p.height - 140 {
+        for x in 160..720 {
+            let [r, g, b] = p.rgb[(y * p.width + x) as usize];
+            if r < 90 && g < 60 && b > 80 {
+                dark += 1;
+            }
+            if g > 180 && b < 120 {
+                light += 1;
+            }
+        }
+    }
+    assert!(dark > 100 && light > 1000, "dark {dark}, light {light}");
+}
+
+#[test]
+fn one_and_three_dimensional_departure_pictures_are_drawn() {
+    for text in [ADVECTION_1D, ADVECTION_3D] {
+        let (_tmp, out) = run(text);
+        for name in ["departure.png", "norm.png"] {
+            assert_looks_like_a_picture(&out.join(name));
         }
     }
 }

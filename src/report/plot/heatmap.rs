@@ -70,14 +70,15 @@ fn edges(c: &[f64]) -> Vec<f64> {
 }
 
 /// Draws a field panel whose square plot of `side` pixels has its top-left
-/// corner at `origin` (image pixels) on `root`.
+/// corner at `origin` (image pixels) on `root`, with the contour of `level`
+/// when one is given.
 pub fn panel(
     root: &Area,
     origin: (i32, i32),
     side: u32,
     field: &Field,
     scale: &Scale,
-    level: f64,
+    level: Option<f64>,
     frame: &Frame,
 ) -> Res<Placed> {
     let (ox, oy) = origin;
@@ -111,7 +112,9 @@ pub fn panel(
             Rectangle::new([(ex[i], ey[j]), (ex[i + 1], ey[j + 1])], c.filled())
         })
     }))?;
-    let segs = contour::level_segments(field.xs, field.ys, &field.values, level);
+    let segs = level
+        .map(|l| contour::level_segments(field.xs, field.ys, &field.values, l))
+        .unwrap_or_default();
     for (style, width) in [(BLACK, 4), (WHITE, 2)] {
         chart.draw_series(
             segs.iter()
@@ -149,6 +152,20 @@ pub fn target(root: &Area, p: (i32, i32)) -> Res {
     Ok(())
 }
 
+/// Height of one callout line, in pixels.
+const CALLOUT_LINE: i32 = 19;
+
+/// The width and height of the callout box of `lines`.
+pub fn callout_size(root: &Area, lines: &[String]) -> (i32, i32) {
+    let font = style::text(14.0, style::INK);
+    let widest = lines
+        .iter()
+        .map(|l| root.estimate_text_size(l, &font).map_or(0, |s| s.0))
+        .max()
+        .unwrap_or(0);
+    (widest as i32 + 16, CALLOUT_LINE * lines.len() as i32 + 8)
+}
+
 /// A boxed note of a few lines next to the pixel `at`, kept inside `bounds`
 /// (x and y pixel ranges): up and right of the point when there is room,
 /// flipped left or down otherwise.
@@ -158,14 +175,7 @@ pub fn callout(
     lines: &[String],
     bounds: ((i32, i32), (i32, i32)),
 ) -> Res {
-    let font = style::text(14.0, style::INK);
-    let sizes: Vec<(u32, u32)> = lines
-        .iter()
-        .map(|l| root.estimate_text_size(l, &font).unwrap_or((0, 14)))
-        .collect();
-    let line_h = 19;
-    let w = sizes.iter().map(|s| s.0).max().unwrap_or(0) as i32 + 16;
-    let h = line_h * lines.len() as i32 + 8;
+    let (w, h) = callout_size(root, lines);
     let ((bx0, bx1), (by0, by1)) = bounds;
     let mut x = at.0 + 16;
     if x + w > bx1 - 4 {
@@ -177,6 +187,13 @@ pub fn callout(
     }
     let x = x.clamp(bx0 + 4, (bx1 - 4 - w).max(bx0 + 4));
     let y = y.clamp(by0 + 4, (by1 - 4 - h).max(by0 + 4));
+    callout_box(root, (x, y), lines)
+}
+
+/// The callout box of `lines` with its top-left corner at `(x, y)`.
+pub fn callout_box(root: &Area, (x, y): (i32, i32), lines: &[String]) -> Res {
+    let (w, h) = callout_size(root, lines);
+    let font = style::text(14.0, style::INK);
     root.draw(&Rectangle::new(
         [(x, y), (x + w, y + h)],
         WHITE.mix(0.92).filled(),
@@ -189,7 +206,7 @@ pub fn callout(
         let t = font.pos(style::anchor(HPos::Left, VPos::Center));
         root.draw(&Text::new(
             l.clone(),
-            (x + 8, y + 4 + line_h * k as i32 + line_h / 2),
+            (x + 8, y + 4 + CALLOUT_LINE * k as i32 + CALLOUT_LINE / 2),
             t,
         ))?;
     }
@@ -206,6 +223,8 @@ pub enum Key {
     Line(RGBColor),
     /// A dashed line of a colour.
     Dashed(RGBColor),
+    /// A dotted line of a colour.
+    Dotted(RGBColor),
     /// A filled square of a colour.
     Swatch(RGBColor),
     /// A dot of a colour.
@@ -237,6 +256,12 @@ pub fn legend_entry(root: &Area, (x, y): (i32, i32), key: &Key, label: &str) -> 
                     vec![(a, y), (a + 6, y)],
                     c.stroke_width(3),
                 ))?;
+            }
+        }
+        Key::Dotted(c) => {
+            for k in 0..5 {
+                let a = x + 1 + 6 * k;
+                root.draw(&Rectangle::new([(a, y - 1), (a + 2, y + 1)], c.filled()))?;
             }
         }
         Key::Dot(c) => root.draw(&Circle::new((x + 14, y), 5, c.filled()))?,

@@ -4,8 +4,11 @@
 //! go into the NPY files): `radius.png` shows the spectral-radius map with its
 //! |λ| = 1 + tolerance contour and the worst wavevector ([`radius`]),
 //! `limit_polar.png` the largest stable Courant number (or Δt) per wave
-//! direction ([`limit`]). A picture whose data the case did not ask for is
-//! skipped.
+//! direction ([`limit`]), `growth.png` the transient-growth envelope
+//! max_θ ‖Gⁿ‖₂ against n ([`growth`]), `departure.png` and `norm.png` the
+//! departure from normality and ‖G‖₂ over the grid ([`nonnormal`]). The maps
+//! share one layout per dimension ([`field`]). A picture whose data the case
+//! did not ask for is skipped.
 //!
 //! Text uses DejaVu Sans, embedded in the binary (`assets/fonts/`, licence in
 //! `assets/fonts/LICENSE-DejaVu.txt`) and registered with plotters' ab_glyph
@@ -14,11 +17,15 @@
 //! stencil over the plot), one palette ([`style`]) and one colour map
 //! ([`colormap`]).
 
+mod axis;
 mod canvas;
 mod colormap;
 mod contour;
+mod field;
+mod growth;
 mod heatmap;
 mod limit;
+mod nonnormal;
 mod polar;
 mod radius;
 mod style;
@@ -88,6 +95,20 @@ pub fn write_pictures(
         render(&path, font, |root| limit::draw(root, case, results, dl))
             .map_err(|e| fail(&path, e.to_string()))?;
         written.push(path);
+    }
+    if let Some(g) = &results.growth {
+        type Draw = fn(&Area, &Case, &Results, &crate::analysis::GrowthResult) -> Res;
+        let pictures: [(&str, Draw); 3] = [
+            ("growth.png", growth::draw),
+            ("departure.png", nonnormal::departure),
+            ("norm.png", nonnormal::norm),
+        ];
+        for (name, draw) in pictures {
+            let path = dir.join(name);
+            render(&path, font, |root| draw(root, case, results, g))
+                .map_err(|e| fail(&path, e.to_string()))?;
+            written.push(path);
+        }
     }
     Ok(written)
 }

@@ -161,28 +161,11 @@ fn column(root: &Area, (x, mut y): (i32, i32), s: &Series, count: usize) -> Res 
     y += 12;
     let note = style::text(14.0, style::MUTED).pos(style::anchor(HPos::Left, VPos::Center));
     for n in s.notes() {
-        for part in wrap(&n, 30) {
+        for part in style::wrap(&n, 30) {
             root.draw(&Text::new(part, (x, y), note.clone()))?;
             y += 20;
         }
         y += 6;
     }
     Ok(())
-}
-
-/// Greedy word wrap at `width` characters.
-fn wrap(s: &str, width: usize) -> Vec<String> {
-    let mut lines: Vec<String> = vec![String::new()];
-    for w in s.split_whitespace() {
-        let cur = lines.last_mut().expect("non-empty");
-        if !cur.is_empty() && cur.chars().count() + 1 + w.chars().count() > width {
-            lines.push(w.to_string());
-        } else {
-            if !cur.is_empty() {
-                cur.push(' ');
-            }
-            cur.push_str(w);
-        }
-    }
-    lines
 }

@@ -30,6 +30,8 @@ pub const CURVE_FILL: RGBColor = RGBColor(0xe9, 0xed, 0xf4);
 pub const CASE: RGBColor = RGBColor(0xe0, 0x74, 0x0b);
 /// The worst wavevector or most restrictive direction.
 pub const WORST: RGBColor = RGBColor(0xc2, 0x1f, 0x3a);
+/// A bound drawn for comparison (the Kreiss lower bound of the growth curve).
+pub const BOUND: RGBColor = RGBColor(0x6a, 0x3d, 0x9a);
 
 /// A linear axis over `[lo, hi]` whose tick marks are exactly `ticks` (no
 /// light grid lines).
@@ -112,6 +114,23 @@ pub fn num(x: f64, sig: usize) -> String {
         }
     };
     s.replace('-', "−")
+}
+
+/// [`num`] without trailing zeros after the decimal point ("0.0010" → "0.001").
+pub fn trimmed(x: f64, sig: usize) -> String {
+    let s = num(x, sig);
+    match s.split_once('×') {
+        Some((m, e)) if m.contains('.') => {
+            format!("{}×{e}", m.trim_end_matches('0').trim_end_matches('.'))
+        }
+        None if s.contains('.') => s.trim_end_matches('0').trim_end_matches('.').to_string(),
+        _ => s,
+    }
+}
+
+/// 10ᵏ in superscript digits ("10⁻⁵").
+pub fn power_of_ten(k: i32) -> String {
+    format!("10{}", superscript(&k.to_string()))
 }
 
 /// An integer exponent in superscript digits ("−5" → "⁻⁵").
@@ -198,15 +217,36 @@ pub fn theta_label(v: &f64) -> String {
     }
 }
 
-/// A wavevector as "(θ1, θ2, …)" with three decimals.
+/// A wavevector as "(θ1, θ2, …)" with three decimals (a 1-D one without
+/// parentheses).
 pub fn theta_tuple(theta: &[f64]) -> String {
     let parts: Vec<String> = theta.iter().map(|t| num_fixed(*t, 3)).collect();
-    format!("({})", parts.join(", "))
+    match parts.len() {
+        1 => parts[0].clone(),
+        _ => format!("({})", parts.join(", ")),
+    }
 }
 
 /// Fixed notation with `decimals` decimals and a true minus sign.
 pub fn num_fixed(x: f64, decimals: usize) -> String {
     format!("{x:.decimals$}").replace('-', "−")
+}
+
+/// Greedy word wrap at `width` characters.
+pub fn wrap(s: &str, width: usize) -> Vec<String> {
+    let mut lines: Vec<String> = vec![String::new()];
+    for w in s.split_whitespace() {
+        let cur = lines.last_mut().expect("non-empty");
+        if !cur.is_empty() && cur.chars().count() + 1 + w.chars().count() > width {
+            lines.push(w.to_string());
+        } else {
+            if !cur.is_empty() {
+                cur.push(' ');
+            }
+            cur.push_str(w);
+        }
+    }
+    lines
 }
 
 #[cfg(test)]
@@ -238,5 +278,9 @@ mod tests {
         assert_eq!(num(-2.0e7, 2), "−2.0×10⁷");
         assert_eq!(num(f64::INFINITY, 3), "∞");
         assert_eq!(theta_label(&-PI), "−π");
+        assert_eq!(trimmed(1e-3, 3), "0.001");
+        assert_eq!(trimmed(1.0010004, 6), "1.001");
+        assert_eq!(trimmed(2.0e-7, 3), "2×10⁻⁷");
+        assert_eq!(trimmed(450.0, 3), "450");
     }
 }

@@ -1,0 +1,61 @@
+#!/bin/sh
+# make-docs.sh — regenerate the pictures shown in docs/TUTORIAL.md.
+#
+# Usage (from anywhere inside the repository):
+#
+#     sh scripts/make-docs.sh
+#
+# What it does:
+#   1. builds kgain in release mode (cargo build --release --locked);
+#   2. runs it with --force --quiet on three bundled demo cases, each into its
+#      own temporary folder (removed on exit):
+#        cases/duct-acoustics.toml     2-D acoustics, DRP 7-point + RK4
+#        cases/basin-cgrid.toml        2-D rotating shallow water, C-grid, forward-backward
+#        cases/combustor-euler3d.toml  3-D linearised Euler, central4 + dissipation, RK4
+#   3. copies every PNG of each run into docs/img/ as CASE-PICTURE.png, e.g.
+#      docs/img/duct-acoustics-radius.png, replacing the previous copies;
+#   4. runs the duct case once more above its limit (--set time.courant=1.6,
+#      radius only) for docs/img/duct-acoustics-courant1.6-radius.png, the
+#      tutorial's picture of an unstable map.
+#
+# Only POSIX sh, mktemp, cp and rm are needed besides cargo. The pictures are
+# deterministic (same kgain, same case, same pixels), so a rerun after a code
+# change shows in `git diff --stat docs/img` exactly which pictures changed.
+# Environment: CARGO (default: cargo) selects the cargo binary.
+
+set -eu
+
+root=$(CDPATH= cd -- "$(dirname -- "$0")/.." && pwd)
+cd "$root"
+
+cargo=${CARGO:-cargo}
+"$cargo" build --release --locked --quiet
+kgain="$root/target/release/kgain"
+
+work=$(mktemp -d "${TMPDIR:-/tmp}/kgain-docs.XXXXXX")
+trap 'rm -rf "$work"' EXIT INT TERM
+
+mkdir -p docs/img
+for case in duct-acoustics basin-cgrid combustor-euler3d; do
+    out="$work/$case"
+    "$kgain" run "cases/$case.toml" --out "$out" --force --quiet
+    found=0
+    for png in "$out"/*.png; do
+        [ -e "$png" ] || continue
+        name=$(basename "$png")
+        cp "$png" "docs/img/$case-$name"
+        found=$((found + 1))
+    done
+    if [ "$found" -eq 0 ]; then
+        echo "make-docs.sh: $case produced no pictures" >&2
+        exit 1
+    fi
+    echo "docs/img: $found pictures of $case"
+done
+
+# the duct above its Courant limit (1.4787): the unstable lobes of the radius map
+out="$work/duct-acoustics-courant1.6"
+"$kgain" run cases/duct-acoustics.toml --out "$out" --force --quiet \
+    --set time.courant=1.6 --set 'scan.analyses=["radius"]'
+cp "$out/radius.png" docs/img/duct-acoustics-courant1.6-radius.png
+echo "docs/img: 1 picture of duct-acoustics at Courant 1.6"
