@@ -393,7 +393,7 @@ fn finish_growth_and_modes(
     if case.scan.analyses.contains(&Analysis::Dispersion) {
         r.dispersion = Some(dispersion_analysis(case, op, opts, &r.grid, dt));
     }
-    let weights = state_weights(case);
+    let weights = state_transform(case);
     if let Some(rad) = &r.radius {
         let g = amplification_at(case, op, &rad.wavevector, dt);
         if let Some((lam, v)) = modes::eigenpair(&g, |z| z.norm()) {
@@ -432,17 +432,14 @@ fn finish_growth_and_modes(
 }
 
 /// W v, normalised: a mode in the weighted (energy-like) variables.
-fn scale_vector(v: Vec<C64>, w: &[f64]) -> Vec<C64> {
-    let out: Vec<C64> = v
-        .iter()
-        .zip(w.iter().cycle())
-        .map(|(x, wi)| x * *wi)
-        .collect();
-    let n = out.iter().map(|z| z.norm_sqr()).sum::<f64>().sqrt();
+fn scale_vector(v: Vec<C64>, w: &NormTransform) -> Vec<C64> {
+    let n = v.len();
+    let x = w.w.view((0, 0), (n, n)) * nalgebra::DVector::from_vec(v);
+    let n = x.norm();
     if n > 0.0 && n.is_finite() {
-        out.iter().map(|z| z / n).collect()
+        (x / C64::new(n, 0.0)).iter().copied().collect()
     } else {
-        out
+        x.iter().copied().collect()
     }
 }
 
@@ -515,27 +512,55 @@ fn dispersion_analysis(
     }
 }
 
-/// The norm weights of a case, repeated over the time levels of the state.
-pub fn state_weights(case: &Case) -> Vec<f64> {
-    let w = case
-        .scan
-        .weights
+/// The norm ‖W u‖ of the growth measures over the whole state (W repeated over
+/// the time levels), with W⁻¹.
+pub struct NormTransform {
+    /// W.
+    pub w: nalgebra::DMatrix<C64>,
+    /// W⁻¹.
+    pub inv: nalgebra::DMatrix<C64>,
+    /// Whether W is the identity.
+    pub identity: bool,
+}
+
+/// The model's W (or diag(`scan.weights`)), block-diagonal over the time levels.
+pub fn norm_matrix(case: &Case) -> nalgebra::DMatrix<f64> {
+    let m = case.system.size();
+    let base = match &case.scan.weights {
+        Some(w) => nalgebra::DMatrix::from_diagonal(&nalgebra::DVector::from_vec(w.clone())),
+        None => case.system.norm_matrix.clone(),
+    };
+    let levels = case.method.levels();
+    let mut full = nalgebra::DMatrix::zeros(m * levels, m * levels);
+    for l in 0..levels {
+        full.view_mut((l * m, l * m), (m, m)).copy_from(&base);
+    }
+    full
+}
+
+/// The transform of a case.
+pub fn state_transform(case: &Case) -> NormTransform {
+    let w = norm_matrix(case);
+    let n = w.nrows();
+    let identity = w == nalgebra::DMatrix::identity(n, n);
+    let wc = w.map(|x| C64::new(x, 0.0));
+    let inv = wc
         .clone()
-        .unwrap_or_else(|| case.system.norm_weights.clone());
-    w.iter()
-        .cycle()
-        .take(w.len() * case.method.levels())
-        .copied()
-        .collect()
+        .try_inverse()
+        .unwrap_or_else(|| nalgebra::DMatrix::identity(n, n));
+    NormTransform {
+        w: wc,
+        inv,
+        identity,
+    }
 }
 
 /// W G W⁻¹: G in the weighted norm.
-fn weighted(g: nalgebra::DMatrix<C64>, w: &[f64]) -> nalgebra::DMatrix<C64> {
-    if w.iter().all(|x| *x == 1.0) {
+fn weighted(g: nalgebra::DMatrix<C64>, w: &NormTransform) -> nalgebra::DMatrix<C64> {
+    if w.identity {
         return g;
     }
-    let n = g.nrows();
-    nalgebra::DMatrix::from_fn(n, n, |i, j| g[(i, j)] * (w[i] / w[j]))
+    &w.w * g * &w.inv
 }
 
 fn growth_analysis(
@@ -546,7 +571,7 @@ fn growth_analysis(
     dt: f64,
 ) -> GrowthResult {
     let steps = case.scan.steps;
-    let w = state_weights(case);
+    let w = state_transform(case);
     let env = growth::Envelope::new(steps);
     let bar = progress_bar(grid.len() as u64, "growth", opts.progress);
     let symmetry = if op.real_coefficients {

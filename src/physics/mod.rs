@@ -30,10 +30,12 @@ pub struct System {
     pub reference_speed: f64,
     /// Largest diffusivity (spectral radius of the K_d), if any diffusion.
     pub diffusivity_max: Option<f64>,
-    /// Per-variable weights W of the norm ‖W u‖ used for growth measures, chosen
-    /// so that the weighted variables share one unit (an energy-like norm):
-    /// acoustics p/(ρc); Euler ρ′c/ρ and p′/(ρc); shallow water h√(g/H).
-    pub norm_weights: Vec<f64>,
+    /// The matrix W of the norm ‖W u‖ used for growth measures: a symmetriser of
+    /// the flux matrices where one is known, so that the weighted variables share
+    /// one unit and a normal scheme looks normal (acoustics p/(ρc); Euler the
+    /// entropy p′/(ρc) − cρ′/ρ, u, p′/(ρc); shallow water h√(g/H)); identity
+    /// otherwise.
+    pub norm_matrix: DMatrix<f64>,
 }
 
 impl System {
@@ -90,7 +92,7 @@ impl System {
             source,
             reference_speed: 0.0,
             diffusivity_max: (diffusivity_max > 0.0).then_some(diffusivity_max),
-            norm_weights: vec![1.0; m],
+            norm_matrix: DMatrix::identity(m, m),
         };
         s.reference_speed = reference_speed.unwrap_or_else(|| max_speed(&s));
         s
@@ -154,7 +156,7 @@ pub fn acoustics(sound_speed: f64, density: f64, mean_flow: &[f64]) -> System {
         real(m, |_, _| 0.0),
         Some(speed),
     );
-    s.norm_weights[0] = 1.0 / (density * sound_speed);
+    s.norm_matrix[(0, 0)] = 1.0 / (density * sound_speed);
     s
 }
 
@@ -187,8 +189,10 @@ pub fn euler(density: f64, velocity: &[f64], pressure: f64, gamma: f64) -> Syste
     let speed = velocity.iter().map(|a| a * a).sum::<f64>().sqrt() + c;
     let zero = (0..dims).map(|_| real(m, |_, _| 0.0)).collect();
     let mut s = System::from_parts("euler", vars, flux, zero, real(m, |_, _| 0.0), Some(speed));
-    s.norm_weights[0] = c / density;
-    s.norm_weights[p_idx] = 1.0 / (density * c);
+    // entropy c(p′/c² − ρ′)/ρ decouples and the acoustic part becomes symmetric
+    s.norm_matrix[(0, 0)] = -c / density;
+    s.norm_matrix[(0, p_idx)] = 1.0 / (density * c);
+    s.norm_matrix[(p_idx, p_idx)] = 1.0 / (density * c);
     s
 }
 
@@ -223,7 +227,7 @@ pub fn shallow_water(gravity: f64, depth: f64, velocity: &[f64], coriolis: f64) 
     let speed = velocity.iter().map(|a| a * a).sum::<f64>().sqrt() + (gravity * depth).sqrt();
     let zero = (0..dims).map(|_| real(m, |_, _| 0.0)).collect();
     let mut s = System::from_parts("shallow-water", vars, flux, zero, source, Some(speed));
-    s.norm_weights[0] = (gravity / depth).sqrt();
+    s.norm_matrix[(0, 0)] = (gravity / depth).sqrt();
     s
 }
 

@@ -167,6 +167,11 @@ pub fn summary_json(case: &Case, r: &Results) -> Value {
     }
     if let Some(g) = &r.growth {
         let (pv, pn, pt) = &g.peak;
+        let w = crate::analysis::norm_matrix(case);
+        let m = case.system.size();
+        let norm_rows: Vec<Vec<f64>> = (0..m)
+            .map(|i| (0..m).map(|j| w[(i, j)]).collect())
+            .collect();
         s["growth"] = json!({
             "max_norm": num(*pv),
             "step": pn,
@@ -186,8 +191,8 @@ pub fn summary_json(case: &Case, r: &Results) -> Value {
                 None => json!({"lower_bound": null, "infinite": true}),
             },
             "pseudospectral_radius": { "epsilon": g.pseudospectral.0, "radius": num(g.pseudospectral.1), "wavevector": vec_num(pt) },
-            "norm_weights": crate::analysis::state_weights(case)[..case.system.size()].to_vec(),
-            "norm": "||W u||_2 with W = diag(norm_weights) (scan.weights, or the model's energy-like default)",
+            "norm_matrix": norm_rows,
+            "norm": "||W u||_2 with W = norm_matrix (diag(scan.weights), or the model's symmetrising default), repeated over time levels",
             "class": g.class,
             "verdict": g.verdict,
         });
