@@ -123,6 +123,7 @@ fn flat(a: &DMatrix<C64>) -> Vec<C64> {
 
 impl Operator {
     /// Assembles L(θ) for a system on a grid of spacings `h` with a spatial scheme.
+    #[allow(clippy::needless_range_loop)]
     pub fn assemble(sys: &System, h: &[f64], space: &Space) -> Result<Operator, OperatorError> {
         let m = sys.size();
         let dims = h.len();

@@ -50,7 +50,7 @@ impl Ctx<'_> {
         e
     }
 
-    fn unknown<'c>(&self, key: &str, what: &str, got: &str, valid: &[&'c str]) -> CaseError {
+    fn unknown(&self, key: &str, what: &str, got: &str, valid: &[&str]) -> CaseError {
         let list = valid.join(", ");
         match nearest(got, valid.iter().copied()) {
             Some(n) => self.err_hint(

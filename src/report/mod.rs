@@ -80,8 +80,7 @@ pub fn check_destination(out: &Path, case: &Case, force: bool) -> Result<(), Rep
         return refuse("is not a kgain output folder (no summary.json)");
     };
     let prev: serde_json::Value = serde_json::from_str(&text).unwrap_or_default();
-    let same = prev["name"] == serde_json::Value::from(case.name.clone())
-        && prev["case_file"] == serde_json::Value::from(case_identity(case));
+    let same = prev["name"] == case.name && prev["case_file"] == case_identity(case);
     if same {
         Ok(())
     } else {
