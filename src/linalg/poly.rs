@@ -9,7 +9,9 @@ use num_complex::Complex64 as C64;
 
 /// p(z) by Horner's rule; `c[j]` multiplies z^j.
 pub fn eval(c: &[C64], z: C64) -> C64 {
-    c.iter().rev().fold(C64::new(0.0, 0.0), |acc, &cj| acc * z + cj)
+    c.iter()
+        .rev()
+        .fold(C64::new(0.0, 0.0), |acc, &cj| acc * z + cj)
 }
 
 /// p(x) for real coefficients.
@@ -126,7 +128,8 @@ pub fn positive_real_roots(c: &[f64]) -> Result<Vec<f64>, LinalgError> {
                     break;
                 }
                 let step = eval_real(c, x) / d;
-                if !(step.abs() < 1e-3 * x) {
+                // Also stops on a NaN step.
+                if step.abs().partial_cmp(&(1e-3 * x)) != Some(std::cmp::Ordering::Less) {
                     break;
                 }
                 x -= step;
