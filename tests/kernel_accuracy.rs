@@ -443,3 +443,90 @@ fn norm2_bounds_the_spectral_radius_and_is_one_for_unitary_matrices() {
         }
     }
 }
+
+mod fuzz {
+    //! Matrices built from a few hostile values (zeros, ±1, ±i, 1e±300,
+    //! subnormals) in any pattern: every kernel returns, never panics, and a
+    //! successful result satisfies Σλ = trace.
+    use super::*;
+    use proptest::prelude::*;
+
+    const VALUES: [(f64, f64); 9] = [
+        (0.0, 0.0),
+        (1.0, 0.0),
+        (-1.0, 0.0),
+        (0.0, 1.0),
+        (0.0, -1.0),
+        (1e300, 0.0),
+        (0.0, -1e-300),
+        (5e-324, 0.0),
+        (1.0, 1e-12),
+    ];
+
+    fn hostile() -> impl Strategy<Value = (usize, Vec<C64>)> {
+        (1usize..=10).prop_flat_map(|m| {
+            proptest::collection::vec(0..VALUES.len(), m * m).prop_map(move |idx| {
+                (
+                    m,
+                    idx.iter().map(|&k| c(VALUES[k].0, VALUES[k].1)).collect(),
+                )
+            })
+        })
+    }
+
+    /// Entries of random sign and phase with magnitudes 10^k, k in −300..300.
+    fn graded() -> impl Strategy<Value = (usize, Vec<C64>)> {
+        (1usize..=10).prop_flat_map(|m| {
+            proptest::collection::vec((-300i32..300, 0.0..std::f64::consts::TAU), m * m).prop_map(
+                move |e| {
+                    (
+                        m,
+                        e.iter()
+                            .map(|&(k, t)| C64::from_polar(10f64.powi(k), t))
+                            .collect(),
+                    )
+                },
+            )
+        })
+    }
+
+    proptest! {
+        #![proptest_config(ProptestConfig::with_cases(300))]
+        #[test]
+        fn graded_matrices_keep_the_trace((m, a) in graded()) {
+            let fro = reference::frobenius(&a);
+            let lam = linalg::eigenvalues(&a, m);
+            prop_assert!(lam.is_ok(), "{:?}", lam);
+            let sum: C64 = lam.unwrap().iter().sum();
+            prop_assert!((sum - trace(&a, m)).norm() <= 16.0 * m as f64 * EPS * fro);
+            let (values, _) = linalg::eigenvalues_and_vectors(&a, m).unwrap();
+            let sum: C64 = values.iter().sum();
+            prop_assert!((sum - trace(&a, m)).norm() <= 16.0 * m as f64 * EPS * fro);
+            let s = linalg::singular_values(&a, m).unwrap();
+            prop_assert!(s[0] <= fro * (1.0 + 4.0 * EPS) && s[0] >= fro / (m as f64).sqrt() * (1.0 - 4.0 * EPS));
+        }
+    }
+
+    proptest! {
+        #![proptest_config(ProptestConfig::with_cases(400))]
+        #[test]
+        fn hostile_matrices_return_a_value_and_keep_the_trace((m, a) in hostile()) {
+            let fro = reference::frobenius(&a);
+            match linalg::eigenvalues(&a, m) {
+                Ok(lam) => {
+                    let sum: C64 = lam.iter().sum();
+                    let tol = 16.0 * m as f64 * EPS * fro;
+                    prop_assert!((sum - trace(&a, m)).norm() <= tol, "Σλ = {sum}, trace {}", trace(&a, m));
+                }
+                Err(e) => prop_assert_eq!(e, LinalgError::NotConverged),
+            }
+            if let Ok((values, v)) = linalg::eigenvalues_and_vectors(&a, m) {
+                prop_assert!(values.iter().chain(&v).all(|z| z.re.is_finite() && z.im.is_finite()));
+            }
+            if let Ok(s) = linalg::singular_values(&a, m) {
+                prop_assert!(s.iter().all(|x| x.is_finite() && *x >= 0.0));
+                prop_assert!(s[0] <= fro * (1.0 + 4.0 * EPS));
+            }
+        }
+    }
+}

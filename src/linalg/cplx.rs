@@ -25,6 +25,9 @@ pub(crate) const EPS: f64 = f64::EPSILON;
 const SAFE_LO: f64 = 1.0e-270;
 /// Above this, squares and products of moduli are no longer trusted (≈ 2^900).
 const SAFE_HI: f64 = 1.0e270;
+/// Rotations take the fast path for |f|² above this and |f|² + |g|² below the next.
+const ROT_LO: f64 = 1.0e-150;
+const ROT_HI: f64 = 1.0e150;
 /// Inputs whose largest entry lies in [2^-100, 2^100] are used unscaled.
 const RANGE_EXP: i32 = 100;
 
@@ -41,7 +44,7 @@ pub(crate) fn norm_sqr(z: C64) -> f64 {
 }
 
 /// |z| without overflow or underflow of the square.
-#[inline]
+#[inline(always)]
 pub(crate) fn modulus(z: C64) -> f64 {
     let s = norm_sqr(z);
     if s > SAFE_LO && s < SAFE_HI {
@@ -51,8 +54,32 @@ pub(crate) fn modulus(z: C64) -> f64 {
     }
 }
 
-/// Principal square root (Re ≥ 0) by the algebraic formula.
+/// ⌊log₂ a⌋ for a > 0 (subnormals included).
 #[inline]
+fn exponent(a: f64) -> i32 {
+    a.log2().floor() as i32
+}
+
+/// z·2^e, exactly (two factors, so that 2^e itself never over- or underflows).
+#[inline]
+pub(crate) fn scale2(z: C64, e: i32) -> C64 {
+    let h = e / 2;
+    z * 2f64.powi(h) * 2f64.powi(e - h)
+}
+
+/// z/|z| for z ≠ 0, of modulus 1 to rounding even when z is subnormal.
+#[inline]
+pub(crate) fn unit(z: C64) -> C64 {
+    let a = abs1(z);
+    if a > ROT_LO && a < ROT_HI {
+        return z * (1.0 / norm_sqr(z).sqrt());
+    }
+    let zs = scale2(z, -exponent(a));
+    zs * (1.0 / zs.re.hypot(zs.im))
+}
+
+/// Principal square root (Re ≥ 0) by the algebraic formula.
+#[inline(always)]
 pub(crate) fn csqrt(z: C64) -> C64 {
     let (x, y) = (z.re, z.im);
     if x == 0.0 && y == 0.0 {
@@ -60,8 +87,7 @@ pub(crate) fn csqrt(z: C64) -> C64 {
     }
     let r = modulus(z);
     if r < SAFE_LO {
-        // Halving a subnormal drops bits: √z = √(2^200·z)·2^-100, exactly scaled.
-        return csqrt(z * 2f64.powi(200)) * 2f64.powi(-100);
+        return csqrt_tiny(z);
     }
     // With w = r + |x| > 0: t = √(w/2) and y/(2t) = y·t/w; the square root and
     // the division are independent, so their latencies overlap.
@@ -73,6 +99,14 @@ pub(crate) fn csqrt(z: C64) -> C64 {
     } else {
         C64::new(o.abs(), t.copysign(y))
     }
+}
+
+/// √z for |z| below the safe range, where halving would drop bits of a
+/// subnormal: √z = √(2^200·z)·2^-100, exactly scaled.
+#[cold]
+#[inline(never)]
+fn csqrt_tiny(z: C64) -> C64 {
+    csqrt(z * 2f64.powi(200)) * 2f64.powi(-100)
 }
 
 /// a / b: one real division when |b|² is in the safe range, Smith's algorithm
@@ -118,8 +152,9 @@ impl Rot {
         }
         let p = norm_sqr(f);
         let d = p + norm_sqr(g);
-        let pd = p * d;
-        if pd > SAFE_LO && pd < SAFE_HI {
+        // p and d away from underflow and overflow: p·d has full precision.
+        if p > ROT_LO && d < ROT_HI {
+            let pd = p * d;
             // c = |f|/√d, s = (f/|f|)·ḡ/√d, r = (f/|f|)·√d, all from 1/t with
             // t = |f|·√d = √(pd); 1/t = √(pd)·(1/pd) overlaps the two latencies.
             let it = pd.sqrt() * (1.0 / pd);
@@ -133,23 +168,32 @@ impl Rot {
         }
     }
 
-    /// The same rotation for operands whose squares would under- or overflow.
+    /// The same rotation for operands whose squares would under- or overflow:
+    /// both are scaled by a common power of two (exact), and the phase of f is
+    /// taken with [`unit`], so that the rotation stays unitary to rounding even
+    /// when f or g is subnormal.
     #[cold]
+    #[inline(never)]
     fn zeroing_scaled(f: C64, g: C64) -> (Rot, C64) {
-        let fa = f.re.hypot(f.im);
-        let ga = g.re.hypot(g.im);
+        let e = -exponent(abs1(f).max(abs1(g)));
+        let (f1, g1) = (scale2(f, e), scale2(g, e));
+        let fa = f1.re.hypot(f1.im);
+        let ga = g1.re.hypot(g1.im);
         let nrm = fa.hypot(ga);
-        if fa == 0.0 {
-            let s = C64::new(g.re / ga, -g.im / ga);
-            return (Rot { c: 0.0, s }, C64::new(ga, 0.0));
+        if f1.re == 0.0 && f1.im == 0.0 {
+            let rot = Rot {
+                c: 0.0,
+                s: unit(g1).conj(),
+            };
+            return (rot, scale2(C64::new(ga, 0.0), -e));
         }
-        let sgn = C64::new(f.re / fa, f.im / fa);
-        let gc = C64::new(g.re / nrm, -g.im / nrm);
+        let sgn = unit(f1);
+        let gc = C64::new(g1.re / nrm, -g1.im / nrm);
         let rot = Rot {
             c: fa / nrm,
             s: sgn * gc,
         };
-        (rot, sgn * nrm)
+        (rot, scale2(sgn * nrm, -e))
     }
 
     /// [x; y] ← G·[x; y] (a row operation).
@@ -246,6 +290,9 @@ mod tests {
             (C64::new(1e-300, 0.0), C64::new(1e-300, 1e-300)),
             (C64::new(1e250, 1.0), C64::new(-1e250, 1e249)),
             (C64::new(1.0, 0.0), C64::new(1e-200, 0.0)),
+            (C64::new(5e-324, 5e-324), C64::new(-1.0, 0.0)),
+            (C64::new(5e-324, 0.0), C64::new(0.0, 1e-323)),
+            (C64::new(1e-170, -1e-170), C64::new(1e-10, 0.0)),
         ];
         for (f, g) in pairs {
             let (rot, r) = Rot::zeroing(f, g);
@@ -253,7 +300,21 @@ mod tests {
             let scale = f.norm().max(g.norm());
             assert!((x - r).norm() <= 4.0 * EPS * scale, "{f} {g}");
             assert!(y.norm() <= 4.0 * EPS * scale, "{f} {g}: {y}");
-            assert!((rot.c * rot.c + rot.s.norm_sqr() - 1.0).abs() <= 4.0 * EPS);
+            assert!(
+                (rot.c * rot.c + rot.s.norm_sqr() - 1.0).abs() <= 4.0 * EPS,
+                "not unitary for {f}, {g}"
+            );
+        }
+    }
+
+    #[test]
+    fn unit_phase_has_modulus_one_even_for_subnormals() {
+        for z in [
+            C64::new(5e-324, 5e-324),
+            C64::new(-3e-310, 1e-320),
+            C64::new(1e300, -1e300),
+        ] {
+            assert!((unit(z).norm() - 1.0).abs() <= 2.0 * EPS, "{z}");
         }
     }
 

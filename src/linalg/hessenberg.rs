@@ -8,7 +8,7 @@
 //! Columns already zero below the subdiagonal are skipped, so triangular and
 //! Hessenberg inputs pass through unchanged. Q is accumulated only when asked for.
 
-use super::cplx::{abs1, modulus, norm_sqr, ZERO};
+use super::cplx::{abs1, modulus, norm_sqr, scale2, unit, ZERO};
 use super::square::Square;
 use num_complex::Complex64 as C64;
 
@@ -71,13 +71,14 @@ fn reflector<H: Square>(h: &mut H, k: usize, u: &mut [C64]) -> Option<f64> {
     }
     u[k + 1] = h[k + 1][k];
     let mut nrm2 = below + norm_sqr(u[k + 1]);
-    let mut scale = 1.0;
+    // x is scaled by 2^e (exactly) when ‖x‖² would underflow.
+    let mut e = 0;
     if nrm2 < SAFE_NORM2 {
-        scale = (k + 1..n).map(|i| abs1(u[i])).fold(0.0, f64::max);
-        let inv = 1.0 / scale;
+        let xmax = (k + 1..n).map(|i| abs1(u[i])).fold(0.0, f64::max);
+        e = -(xmax.log2().floor() as i32);
         nrm2 = 0.0;
         for z in &mut u[k + 1..n] {
-            *z *= inv;
+            *z = scale2(*z, e);
             nrm2 += norm_sqr(*z);
         }
     }
@@ -87,10 +88,10 @@ fn reflector<H: Square>(h: &mut H, k: usize, u: &mut [C64]) -> Option<f64> {
     let phase = if a_abs == 0.0 {
         C64::new(1.0, 0.0)
     } else {
-        alpha * (1.0 / a_abs)
+        unit(alpha)
     };
     u[k + 1] = phase * (a_abs + nrm);
-    h[k + 1][k] = -phase * (nrm * scale);
+    h[k + 1][k] = scale2(-phase * nrm, -e);
     for i in k + 2..n {
         h[i][k] = ZERO;
     }

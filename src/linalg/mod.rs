@@ -134,9 +134,14 @@ impl EigSolver {
 }
 
 /// Eigenvalues of [[a, b], [c, d]] in closed form, arranged to avoid cancellation:
-/// the larger root from the discriminant with the sign of the half-trace, the
-/// smaller from the determinant. Entries of any magnitude are handled by scaling
-/// with a power of two; NaN entries give NaN eigenvalues.
+/// the larger root λ₁ = t/2 ± √((a − d)²/4 + bc) (t = a + d) with the sign of the
+/// half-trace; the smaller from the determinant, det/λ₁, which keeps its
+/// relative accuracy when |λ₂| ≪ |λ₁|, unless that disagrees with t − λ₁ by
+/// more than rounding. It then does so because the block is nearly defective
+/// (det/λ₁ would break Σλ = trace by O(√ε)), and t − λ₁ is used: the pair is then
+/// the exact spectrum of a matrix within ε‖B‖ of the block. Entries of any
+/// magnitude are handled by scaling with a power of two; NaN entries give NaN
+/// eigenvalues.
 #[inline]
 pub fn eig2(a: C64, b: C64, c: C64, d: C64) -> (C64, C64) {
     let amax = abs1(a).max(abs1(b)).max(abs1(c)).max(abs1(d));
@@ -155,7 +160,8 @@ pub fn eig2(a: C64, b: C64, c: C64, d: C64) -> (C64, C64) {
 /// [`eig2`] for entries already scaled into the kernels' safe range.
 #[inline(always)]
 pub(crate) fn eig2_in_range(a: C64, b: C64, c: C64, d: C64) -> (C64, C64) {
-    let half_tr = (a + d) * 0.5;
+    let tr = a + d;
+    let half_tr = tr * 0.5;
     let half_diff = (a - d) * 0.5;
     let disc = csqrt(half_diff * half_diff + b * c);
     let s = if half_tr.re * disc.re + half_tr.im * disc.im >= 0.0 {
@@ -166,8 +172,14 @@ pub(crate) fn eig2_in_range(a: C64, b: C64, c: C64, d: C64) -> (C64, C64) {
     if s.re == 0.0 && s.im == 0.0 {
         return (s, s);
     }
-    let det = a * d - b * c;
-    (s, cdiv(det, s))
+    let by_trace = tr - s;
+    let by_det = cdiv(a * d - b * c, s);
+    let rounding = 4.0 * cplx::EPS * (abs1(a) + abs1(d) + abs1(s));
+    if abs1(by_det - by_trace) <= rounding {
+        (s, by_det)
+    } else {
+        (s, by_trace)
+    }
 }
 
 /// Eigenvalues of a row-major m×m matrix (allocating convenience wrapper).

@@ -12,7 +12,11 @@
 //! solved directly. Every tenth iteration without deflation uses an exceptional
 //! shift built from the magnitude of a subdiagonal entry, alternately at the top
 //! and the bottom of the window (as LAPACK's `zlahqr`), which breaks the cycles
-//! that defeat the Wilkinson shift (cyclic permutations, for one). Each
+//! that defeat the Wilkinson shift (cyclic permutations, for one). From the
+//! tenth iteration on, a subdiagonal entry below ε·max|h_ij| also counts as
+//! negligible: still a backward-stable deflation, it ends the stall of highly
+//! non-normal windows whose entries are all at rounding level relative to the
+//! matrix (there rounding keeps |h_{k,k−1}| above the local test). Each
 //! deflation has an iteration cap of 30·max(10, n); past it the kernel returns
 //! [`LinalgError::NotConverged`], so no input can hang it. Written once against
 //! [`Square`]: fixed-size stack matrices and the run-time-size path share it.
@@ -46,11 +50,12 @@ pub(crate) fn eigenvalues<H: Square>(
     if n == 0 {
         return Ok(());
     }
+    let hmax = max_entry(h);
     let mut i = n - 1;
     loop {
         let mut its = 0;
         loop {
-            let l = deflation_point(h, i);
+            let l = deflation_point(h, i, stall_floor(its, hmax));
             if l == i {
                 out[i] = h[i][i];
                 if i == 0 {
@@ -87,11 +92,12 @@ pub(crate) fn schur<H: Square>(h: &mut H, q: &mut H, cap: usize) -> Result<(), L
     if n == 0 {
         return Ok(());
     }
+    let hmax = max_entry(h);
     let mut i = n - 1;
     loop {
         let mut its = 0;
         loop {
-            let l = deflation_point(h, i);
+            let l = deflation_point(h, i, stall_floor(its, hmax));
             if l == i {
                 if i == 0 {
                     return Ok(());
@@ -109,10 +115,35 @@ pub(crate) fn schur<H: Square>(h: &mut H, q: &mut H, cap: usize) -> Result<(), L
     }
 }
 
-/// The top l of the bottom-most unreduced window ending at i; negligible
-/// subdiagonal entries found on the way are set to zero.
+/// Largest |re| + |im| over the upper Hessenberg part.
 #[inline(always)]
-fn deflation_point<H: Square>(h: &mut H, i: usize) -> usize {
+fn max_entry<H: Square>(h: &H) -> f64 {
+    let n = h.dim();
+    let mut m = 0.0f64;
+    for i in 0..n {
+        for z in &h[i][i.saturating_sub(1)..] {
+            m = m.max(abs1(*z));
+        }
+    }
+    m
+}
+
+/// The absolute deflation floor after `its` iterations without deflation: none
+/// at first, ε·max|h_ij| once the iteration looks stalled.
+#[inline(always)]
+fn stall_floor(its: usize, hmax: f64) -> f64 {
+    if its >= EXCEPTIONAL_EVERY {
+        EPS * hmax
+    } else {
+        0.0
+    }
+}
+
+/// The top l of the bottom-most unreduced window ending at i; negligible
+/// subdiagonal entries found on the way are set to zero. Entries at or below
+/// `floor` are negligible too.
+#[inline(always)]
+fn deflation_point<H: Square>(h: &mut H, i: usize, floor: f64) -> usize {
     for k in (1..=i).rev() {
         let s = abs1(h[k][k - 1]);
         if s == 0.0 {
@@ -127,7 +158,7 @@ fn deflation_point<H: Square>(h: &mut H, i: usize) -> usize {
                 tst += abs1(h[k + 1][k]);
             }
         }
-        if s <= EPS * tst || s <= SMALL {
+        if s <= EPS * tst || s <= SMALL || s <= floor {
             h[k][k - 1] = ZERO;
             return k;
         }
