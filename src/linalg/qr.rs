@@ -9,7 +9,8 @@
 //! entry is set to zero when |h_{k,k−1}| ≤ ε(|h_kk| + |h_{k−1,k−1}|) (moduli in
 //! the 1-norm |re| + |im|; neighbouring subdiagonals stand in when both diagonal
 //! entries are zero). Windows of size 1 and, for eigenvalues only, size 2 are
-//! solved directly. Every tenth iteration without deflation uses an exceptional
+//! solved directly (for the Schur form, a 2×2 block is made triangular by the
+//! rotation onto its eigenvector). Every tenth iteration without deflation uses an exceptional
 //! shift built from the magnitude of a subdiagonal entry, alternately at the top
 //! and the bottom of the window (as LAPACK's `zlahqr`), which breaks the cycles
 //! that defeat the Wilkinson shift (cyclic permutations, for one). From the
@@ -105,6 +106,14 @@ pub(crate) fn schur<H: Square>(h: &mut H, q: &mut H, cap: usize) -> Result<(), L
                 i -= 1;
                 break;
             }
+            if l + 1 == i {
+                triangularise_2x2(h, q, l);
+                if l == 0 {
+                    return Ok(());
+                }
+                i = l - 1;
+                break;
+            }
             if its == cap {
                 return Err(LinalgError::NotConverged);
             }
@@ -113,6 +122,29 @@ pub(crate) fn schur<H: Square>(h: &mut H, q: &mut H, cap: usize) -> Result<(), L
             sweep::<H, true>(h, Some(q), l, i, mu);
         }
     }
+}
+
+/// Makes the unreduced 2×2 block B at rows/columns l, l+1 upper triangular by
+/// one rotation G (applied as H ← G H Gᴴ, q ← q Gᴴ) whose conjugate transpose
+/// has as first column a unit eigenvector v of B: then G B Gᴴ e₁ = λ e₁. Of the
+/// two candidates for v, [b, λ − a] and [λ − d, c], the larger is taken; the
+/// second is never zero, as c ≠ 0 in an unreduced block.
+#[inline(always)]
+fn triangularise_2x2<H: Square>(h: &mut H, q: &mut H, l: usize) {
+    let n = h.dim();
+    let (a, b, c, d) = (h[l][l], h[l][l + 1], h[l + 1][l], h[l + 1][l + 1]);
+    let (lam, _) = eig2_in_range(a, b, c, d);
+    let (v1, v2) = ((b, lam - a), (lam - d, c));
+    let (f, g) = if abs1(v1.0) + abs1(v1.1) > abs1(v2.0) + abs1(v2.1) {
+        v1
+    } else {
+        v2
+    };
+    let (rot, _) = Rot::zeroing(f, g);
+    rotate_rows(h, l, rot, l, n);
+    rotate_cols(h, l, rot, 0, l + 2);
+    rotate_cols(q, l, rot, 0, n);
+    h[l + 1][l] = ZERO;
 }
 
 /// Largest |re| + |im| over the upper Hessenberg part.
