@@ -43,7 +43,7 @@ use small::dispatch;
 #[derive(Debug, Clone, Copy, PartialEq, Eq, thiserror::Error)]
 pub enum LinalgError {
     /// The iteration did not converge within its iteration cap.
-    #[error("eigenvalue iteration did not converge")]
+    #[error("iteration did not converge within its cap")]
     NotConverged,
     /// The matrix has a NaN or infinite entry.
     #[error("matrix has a NaN or infinite entry")]
