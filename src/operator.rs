@@ -200,6 +200,7 @@ fn is_half(x: f64) -> bool {
 
 impl Operator {
     /// Assembles L(θ) for a system on a grid of spacings `h` with a spatial scheme.
+    #[allow(clippy::needless_range_loop)]
     pub fn assemble(sys: &System, h: &[f64], space: &Space) -> Result<Operator, OperatorError> {
         let m = sys.size();
         let real_coefficients = sys

@@ -1,35 +1,62 @@
 //! Small dense complex linear algebra: the hot kernel of every sweep.
 //!
 //! Two levels, as in the rest of the crate:
-//! * low level, [`EigSolver`]: eigenvalues of an m×m complex matrix given as a
-//!   row-major slice, written into a caller-owned slice, with a workspace that is
-//!   built once per worker and reused (no allocation per wavevector);
+//! * low level, [`EigSolver`] and [`SvdSolver`]: eigenvalues (optionally with
+//!   eigenvectors) and singular values of an m×m complex matrix given as a
+//!   row-major slice, written into caller-owned slices, with a workspace that is
+//!   built once per worker and reused (no allocation per wavevector for m ≤ 8);
 //! * high level, [`eigenvalues`] and friends: allocating wrappers for tests,
 //!   `kgain check` and the refinement steps.
 //!
-//! m = 1 and m = 2 use closed forms; larger sizes use nalgebra's complex Schur
-//! decomposition (Francis QR). The analyses only see this API, so a faster kernel
-//! can replace the general path without touching them.
+//! Dispatch by m: closed forms for m = 1 and 2; for 3 ≤ m ≤ 8 fixed-size stack
+//! kernels (Householder reduction to Hessenberg form, then single-shift QR with
+//! the Wilkinson shift, Golub & Van Loan, Matrix Computations, §7.4–7.5;
+//! `small`, `hessenberg`, `qr`); above 8 the same algorithms on run-time-size
+//! storage (`general`, `square`). nalgebra's complex Schur decomposition and SVD
+//! are kept as the slow references of the tests ([`reference`]). Eigenvectors
+//! come from back-substitution on the Schur form (`eigvec`), singular values
+//! from one-sided Jacobi ([`SvdSolver`]). Every path
+//! rejects NaN or infinite input with [`LinalgError::NonFinite`] and works on
+//! the input scaled by a power of two, so entries anywhere in the f64 range are
+//! handled without overflow.
 
+mod cplx;
 pub mod dense;
+mod eigvec;
+mod general;
+mod hessenberg;
 pub mod poly;
+mod qr;
+pub mod reference;
+mod small;
+mod square;
+mod svd;
 
+pub use small::MAX_FIXED;
+pub use svd::SvdSolver;
+
+use cplx::{abs1, cdiv, csqrt, pow2_scaling};
 use nalgebra::DMatrix;
 use num_complex::Complex64 as C64;
+use small::dispatch;
 
-/// Failure of an iterative kernel at one input: a value, not an abort.
+/// Failure of a kernel at one input: a value, not an abort.
 #[derive(Debug, Clone, Copy, PartialEq, Eq, thiserror::Error)]
 pub enum LinalgError {
-    /// The QR iteration did not converge within its iteration cap.
-    #[error("eigenvalue iteration did not converge")]
+    /// The iteration did not converge within its iteration cap.
+    #[error("iteration did not converge within its cap")]
     NotConverged,
+    /// The matrix has a NaN or infinite entry.
+    #[error("matrix has a NaN or infinite entry")]
+    NonFinite,
 }
 
 /// Reusable eigenvalue solver for one matrix size.
 #[derive(Debug, Clone)]
 pub struct EigSolver {
     m: usize,
-    work: DMatrix<C64>,
+    /// Workspace of the general path (`None` for m ≤ [`MAX_FIXED`]: stack only).
+    general: Option<general::Workspace>,
 }
 
 impl EigSolver {
@@ -38,13 +65,19 @@ impl EigSolver {
         assert!(m >= 1, "matrix size must be at least 1");
         Self {
             m,
-            work: DMatrix::zeros(m, m),
+            general: (m > MAX_FIXED).then(|| general::Workspace::new(m)),
         }
     }
 
     /// The matrix size this solver handles.
     pub fn size(&self) -> usize {
         self.m
+    }
+
+    fn workspace(&mut self) -> &mut general::Workspace {
+        let m = self.m;
+        self.general
+            .get_or_insert_with(|| general::Workspace::new(m))
     }
 
     /// Eigenvalues of the row-major m×m matrix `a`, written into `out` (length m).
@@ -55,59 +88,98 @@ impl EigSolver {
         assert_eq!(out.len(), m, "output slice has the wrong length");
         match m {
             1 => {
+                cplx::max_abs1(a)?;
                 out[0] = a[0];
                 Ok(())
             }
             2 => {
-                let (l1, l2) = eig2(a[0], a[1], a[2], a[3]);
-                out[0] = l1;
-                out[1] = l2;
+                cplx::max_abs1(a)?;
+                (out[0], out[1]) = eig2(a[0], a[1], a[2], a[3]);
                 Ok(())
             }
-            _ => {
-                for i in 0..m {
-                    for j in 0..m {
-                        self.work[(i, j)] = a[i * m + j];
-                    }
-                }
-                if a.iter().any(|z| !z.re.is_finite() || !z.im.is_finite()) {
-                    return Err(LinalgError::NotConverged);
-                }
-                let mat = std::mem::replace(&mut self.work, DMatrix::zeros(0, 0));
-                let Some(schur) =
-                    nalgebra::linalg::Schur::try_new(mat, 4.0 * f64::EPSILON, 1000 * m)
-                else {
-                    self.work = DMatrix::zeros(m, m);
-                    return Err(LinalgError::NotConverged);
-                };
-                let (_, t) = schur.unpack();
-                for (i, o) in out.iter_mut().enumerate() {
-                    *o = t[(i, i)];
-                }
-                self.work = t;
-                Ok(())
-            }
+            _ => dispatch!(
+                m,
+                small::eigenvalues,
+                (a, out),
+                self.workspace().eigenvalues(a, out)
+            ),
         }
+    }
+
+    /// Eigenvalues of the row-major m×m matrix `a` into `values` (length m) and
+    /// eigenvectors into `vectors` (row-major m×m): column k is a unit-2-norm
+    /// eigenvector for `values[k]`, with its largest component real and positive.
+    /// For a defective matrix the columns of a Jordan block come out nearly
+    /// parallel (each still with a small residual ‖Av − λv‖).
+    pub fn eigenvalues_and_vectors(
+        &mut self,
+        a: &[C64],
+        values: &mut [C64],
+        vectors: &mut [C64],
+    ) -> Result<(), LinalgError> {
+        let m = self.m;
+        assert_eq!(a.len(), m * m, "matrix slice has the wrong length");
+        assert_eq!(values.len(), m, "eigenvalue slice has the wrong length");
+        assert_eq!(
+            vectors.len(),
+            m * m,
+            "eigenvector slice has the wrong length"
+        );
+        dispatch!(
+            m,
+            small::eigenvalues_and_vectors,
+            (a, values, vectors),
+            self.workspace().eigenvalues_and_vectors(a, values, vectors)
+        )
     }
 }
 
 /// Eigenvalues of [[a, b], [c, d]] in closed form, arranged to avoid cancellation:
-/// the larger root from the discriminant with the sign of the half-trace, the
-/// smaller from the determinant.
+/// the larger root λ₁ = t/2 ± √((a − d)²/4 + bc) (t = a + d) with the sign of the
+/// half-trace; the smaller from the determinant, det/λ₁, which keeps its
+/// relative accuracy when |λ₂| ≪ |λ₁|, unless that disagrees with t − λ₁ by
+/// more than rounding. It then does so because the block is nearly defective
+/// (det/λ₁ would break Σλ = trace by O(√ε)), and t − λ₁ is used: the pair is then
+/// the exact spectrum of a matrix within ε‖B‖ of the block. Entries of any
+/// magnitude are handled by scaling with a power of two; NaN entries give NaN
+/// eigenvalues.
+#[inline]
 pub fn eig2(a: C64, b: C64, c: C64, d: C64) -> (C64, C64) {
-    let half_tr = (a + d) * 0.5;
+    let amax = abs1(a).max(abs1(b)).max(abs1(c)).max(abs1(d));
+    let (scale, back) = if amax > 0.0 && amax.is_finite() {
+        pow2_scaling(amax)
+    } else {
+        (1.0, 1.0)
+    };
+    if scale == 1.0 {
+        return eig2_in_range(a, b, c, d);
+    }
+    let (l1, l2) = eig2_in_range(a * scale, b * scale, c * scale, d * scale);
+    (l1 * back, l2 * back)
+}
+
+/// [`eig2`] for entries already scaled into the kernels' safe range.
+#[inline(always)]
+pub(crate) fn eig2_in_range(a: C64, b: C64, c: C64, d: C64) -> (C64, C64) {
+    let tr = a + d;
+    let half_tr = tr * 0.5;
     let half_diff = (a - d) * 0.5;
-    let disc = (half_diff * half_diff + b * c).sqrt();
-    let s = if (half_tr.conj() * disc).re >= 0.0 {
+    let disc = csqrt(half_diff * half_diff + b * c);
+    let s = if half_tr.re * disc.re + half_tr.im * disc.im >= 0.0 {
         half_tr + disc
     } else {
         half_tr - disc
     };
-    let det = a * d - b * c;
-    if s.norm() == 0.0 {
-        (C64::new(0.0, 0.0), C64::new(0.0, 0.0))
+    if s.re == 0.0 && s.im == 0.0 {
+        return (s, s);
+    }
+    let by_trace = tr - s;
+    let by_det = cdiv(a * d - b * c, s);
+    let rounding = 4.0 * cplx::EPS * (abs1(a) + abs1(d) + abs1(s));
+    if abs1(by_det - by_trace) <= rounding {
+        (s, by_det)
     } else {
-        (s, det / s)
+        (s, by_trace)
     }
 }
 
@@ -117,6 +189,28 @@ pub fn eigenvalues(a: &[C64], m: usize) -> Result<Vec<C64>, LinalgError> {
     let mut out = vec![C64::new(0.0, 0.0); m];
     solver.eigenvalues(a, &mut out)?;
     Ok(out)
+}
+
+/// Eigenvalues and unit eigenvectors (columns of the returned row-major m×m
+/// matrix) of a row-major m×m matrix (allocating convenience wrapper).
+pub fn eigenvalues_and_vectors(a: &[C64], m: usize) -> Result<(Vec<C64>, Vec<C64>), LinalgError> {
+    let mut solver = EigSolver::new(m);
+    let mut values = vec![C64::new(0.0, 0.0); m];
+    let mut vectors = vec![C64::new(0.0, 0.0); m * m];
+    solver.eigenvalues_and_vectors(a, &mut values, &mut vectors)?;
+    Ok((values, vectors))
+}
+
+/// Singular values, descending, of a row-major m×m matrix (allocating wrapper).
+pub fn singular_values(a: &[C64], m: usize) -> Result<Vec<f64>, LinalgError> {
+    let mut out = vec![0.0; m];
+    SvdSolver::new(m).singular_values(a, &mut out)?;
+    Ok(out)
+}
+
+/// The spectral norm ‖A‖₂ (largest singular value) of a row-major m×m matrix.
+pub fn norm2(a: &[C64], m: usize) -> Result<f64, LinalgError> {
+    SvdSolver::new(m).norm2(a)
 }
 
 /// Spectral radius max |λ| of a row-major m×m matrix.

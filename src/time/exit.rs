@@ -38,6 +38,7 @@ fn modulus_squared(c: &[f64], w: C64) -> (Vec<f64>, Vec<f64>) {
     (out, mag)
 }
 
+#[allow(clippy::needless_range_loop)]
 pub(super) fn one_step(os: &OneStep, w: C64) -> f64 {
     let (gp, mp) = modulus_squared(&os.p, w);
     let (gq, mq) = modulus_squared(&os.q, w);
