@@ -10,6 +10,7 @@
 //! ```text
 //! cargo run --release --example kernel_throughput            # 2^20 matrices per figure
 //! cargo run --release --example kernel_throughput -- --quick # 2^16
+//! cargo run --release --example kernel_throughput -- --sizes 2,4 --uniform
 //! ```
 
 use kgain::linalg::{reference, EigSolver, LinalgError};
@@ -187,17 +188,31 @@ fn show(r: Option<f64>) -> String {
 }
 
 fn main() {
-    let quick = std::env::args().any(|a| a == "--quick");
+    let args: Vec<String> = std::env::args().collect();
+    let quick = args.iter().any(|a| a == "--quick");
+    let uniform_only = args.iter().any(|a| a == "--uniform");
+    let sizes: Vec<usize> = match args.iter().position(|a| a == "--sizes") {
+        Some(k) => args
+            .get(k + 1)
+            .map(|list| {
+                list.split(',')
+                    .filter_map(|x| x.trim().parse().ok())
+                    .collect()
+            })
+            .unwrap_or_default(),
+        None => SIZES.to_vec(),
+    };
     let count = if quick { 1 << 16 } else { 1 << 20 };
     println!(
         "{count} matrices per kernel figure (m > 8: {}), 1/{NALGEBRA_FRACTION} of that for nalgebra",
         count / 8
     );
     println!("M matrices/s: wall clock on 1 and 2 threads, and per CPU-second on 2 threads");
-    for (family, name) in [
+    let families = [
         (Family::Uniform, "uniform complex"),
         (Family::ISymmetric, "i·(real symmetric)"),
-    ] {
+    ];
+    for &(family, name) in &families[..if uniform_only { 1 } else { 2 }] {
         println!("\n{name}");
         println!(
             "{:>3} {:>9} {:>9} {:>9} {:>9} {:>9} {:>9} {:>8} {:>11} {:>4}",
@@ -212,8 +227,8 @@ fn main() {
             "max err/‖A‖",
             "fail"
         );
-        for (idx, &m) in SIZES.iter().enumerate() {
-            let mats = pool(m, family, 0x6b67_6169_6e00 + idx as u64);
+        for &m in &sizes {
+            let mats = pool(m, family, 0x6b67_6169_6e00 + m as u64);
             // The general path (m > 8) is timed on fewer matrices.
             let count = if m > 8 { count / 8 } else { count };
             let ours = |t| {
