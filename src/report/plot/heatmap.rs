@@ -105,13 +105,31 @@ pub fn panel(
         .draw()?;
     let (ex, ey) = (edges(field.xs), edges(field.ys));
     let ny = field.ys.len();
-    chart.draw_series((0..field.xs.len()).flat_map(|i| {
-        let (ex, ey) = (&ex, &ey);
-        (0..ny).map(move |j| {
+    // One pixel per screen pixel, each coloured by the cell it falls in: as fast for
+    // 513² cells as for 33², where a rectangle per cell would not be.
+    let (px, py) = chart.plotting_area().get_pixel_range();
+    let (w, h) = (
+        (px.end - px.start).max(1) as u32,
+        (py.end - py.start).max(1) as u32,
+    );
+    let cell = |e: &[f64], t: f64| e.partition_point(|x| *x <= t).clamp(1, e.len() - 1) - 1;
+    let mut buf = vec![0u8; (w * h * 3) as usize];
+    for v in 0..h {
+        let ty = PI - 2.0 * PI * (v as f64 + 0.5) / h as f64;
+        let j = cell(&ey, ty);
+        for u in 0..w {
+            let tx = -PI + 2.0 * PI * (u as f64 + 0.5) / w as f64;
+            let i = cell(&ex, tx);
             let c = scale.colour(field.values[i * ny + j]);
-            Rectangle::new([(ex[i], ey[j]), (ex[i + 1], ey[j + 1])], c.filled())
-        })
-    }))?;
+            let k = ((v * w + u) * 3) as usize;
+            buf[k..k + 3].copy_from_slice(&[c.0, c.1, c.2]);
+        }
+    }
+    if let Some(img) =
+        BitMapElement::<_, plotters::backend::RGBPixel>::with_owned_buffer((-PI, PI), (w, h), buf)
+    {
+        chart.draw_series(std::iter::once(img))?;
+    }
     let segs = level
         .map(|l| contour::level_segments(field.xs, field.ys, &field.values, l))
         .unwrap_or_default();
