@@ -15,7 +15,8 @@
 //! Directions: ±x in 1-D; in 2-D the stored directions (10° apart) nearest
 //! 0°, 15°, 30° and 45°; in 3-D those nearest the x axis, the face diagonal
 //! and the body diagonal; in every case also the worst direction of the mode,
-//! always crimson. NaN (the mode does not propagate there) leaves gaps;
+//! always crimson and drawn first and widest, so that a direction whose curve
+//! coincides with it still shows on top. NaN (the mode does not propagate there) leaves gaps;
 //! ratios beyond the axis (phase outside [0, 1.5], group outside [−1, 1.5])
 //! are drawn at its edge and counted in a note. A case without a propagating
 //! mode (pure diffusion) gets a note instead of the panels.
@@ -545,7 +546,8 @@ pub fn draw(root: &Area, case: &Case, r: &Results, d: &DispersionResult) -> Res 
     let mut group = Vec::new();
     let mut x_min = -8.0f64;
     let mut x_max = -8.0f64;
-    for pick in &picks {
+    // the worst direction first, so that curves it coincides with stay visible on it
+    for pick in picks.iter().rev() {
         let ppw = ppw_of(pick.index);
         for p in &ppw {
             x_min = x_min.min(-p.log2());
