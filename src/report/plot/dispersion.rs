@@ -50,15 +50,18 @@ const X_LABEL: &str = "points per wavelength 2π/(|k| h_min)";
 /// The mode the picture shows: the largest finite semi-discrete resolution
 /// requirement, or, when no mode has one, the largest fully discrete one.
 pub fn shown_mode(d: &DispersionResult) -> Option<usize> {
-    let best = |f: &dyn Fn(&(Option<f64>, Option<f64>, usize)) -> Option<f64>| {
+    let best = |semi: bool| {
         d.resolution
             .iter()
             .enumerate()
-            .filter_map(|(j, r)| f(r).filter(|v| v.is_finite()).map(|v| (j, v)))
+            .filter_map(|(j, r)| {
+                let v = if semi { r.0 } else { r.1 };
+                v.filter(|v| v.is_finite()).map(|v| (j, v))
+            })
             .max_by(|a, b| a.1.total_cmp(&b.1))
             .map(|(j, _)| j)
     };
-    best(&|r| r.0).or_else(|| best(&|r| r.1))
+    best(true).or_else(|| best(false))
 }
 
 /// One direction drawn: its index, legend label and colour.
@@ -140,13 +143,36 @@ fn picks(d: &DispersionResult, worst: usize) -> Vec<Pick> {
         })
         .collect();
     if worst < d.directions.len() {
+        // a drawn direction whose curves coincide with the worst one's (a
+        // symmetry of the grid) hides it: say so in the legend
+        let same = out
+            .iter()
+            .find(|p| coincide(d, p.index, worst))
+            .map(|p| format!(", as {}", p.label))
+            .unwrap_or_default();
         out.push(Pick {
             index: worst,
-            label: format!("{} (worst)", direction_label(&d.directions[worst])),
+            label: format!("{} (worst{same})", direction_label(&d.directions[worst])),
             colour: style::WORST,
         });
     }
     out
+}
+
+/// Whether two directions have the same phase and group curves (to 10⁻⁹).
+fn coincide(d: &DispersionResult, a: usize, b: usize) -> bool {
+    let same = |x: &[Vec<f64>], y: &[Vec<f64>]| {
+        x.len() == y.len()
+            && x.iter().zip(y).all(|(r, s)| {
+                r.len() == s.len()
+                    && r.iter().zip(s).all(|(u, v)| {
+                        (u.is_nan() && v.is_nan()) || (u - v).abs() <= 1e-9 * u.abs().max(1.0)
+                    })
+            })
+    };
+    [&d.phase_curves, &d.phase_curves_discrete, &d.group_curves]
+        .iter()
+        .all(|c| same(&c[a], &c[b]))
 }
 
 /// A value axis: bottom, top, ticks and their step.
@@ -437,28 +463,24 @@ const NOTE_WIDTH: u32 = 950;
 fn flow(root: &Area, pieces: &[String], sep: &str, size: f64) -> Res<Vec<String>> {
     let font = style::text(size, style::INK);
     let fits = |s: &str| -> Res<bool> { Ok(root.estimate_text_size(s, &font)?.0 <= NOTE_WIDTH) };
-    let mut words: Vec<String> = Vec::new();
+    // tokens with the joint that goes before them on a line
+    let mut tokens: Vec<(&str, String)> = Vec::new();
     for p in pieces {
         if fits(p)? {
-            words.push(p.clone());
+            tokens.push((sep, p.clone()));
         } else {
-            words.extend(p.split(' ').map(str::to_string));
+            for (i, w) in p.split(' ').enumerate() {
+                tokens.push((if i == 0 { sep } else { " " }, w.to_string()));
+            }
         }
     }
     let mut lines: Vec<String> = Vec::new();
     let mut current = String::new();
-    for w in words {
-        let joined = if current.is_empty() {
-            w.clone()
-        } else {
-            let sep = if w.contains(' ') || current.ends_with(':') {
-                sep
-            } else {
-                " "
-            };
-            format!("{current}{sep}{w}")
-        };
-        if current.is_empty() || fits(&joined)? {
+    for (joint, w) in tokens {
+        let joined = format!("{current}{joint}{w}");
+        if current.is_empty() {
+            current = w;
+        } else if fits(&joined)? {
             current = joined;
         } else {
             lines.push(std::mem::replace(&mut current, w));
@@ -553,7 +575,7 @@ pub fn draw(root: &Area, case: &Case, r: &Results, d: &DispersionResult) -> Res 
             x_min = x_min.min(-p.log2());
             x_max = x_max.max(-p.log2());
         }
-        let width = if pick.colour == style::WORST { 3 } else { 2 };
+        let width = if pick.colour == style::WORST { 4 } else { 2 };
         phase.push(Series {
             points: column(&d.phase_curves[pick.index], &ppw),
             colour: pick.colour,
