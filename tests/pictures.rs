@@ -1,5 +1,6 @@
 //! The PNG pictures: each case dimension gets its pictures (radius, limit by
-//! direction, growth envelope, departure from normality, ‖G‖₂), every picture
+//! direction, growth envelope, departure from normality, ‖G‖₂, dispersion
+//! curves), every picture
 //! decodes at the stated size, is not blank, carries text drawn with the
 //! embedded font, and is listed in manifest.json; missing or non-finite data
 //! (an overflowing growth envelope included) leaves gaps or clipped curves
@@ -205,12 +206,13 @@ fn manifest_pictures(out: &Path) -> Vec<String> {
 }
 
 /// Every picture of a case that runs all analyses, in the order written.
-const ALL: [&str; 5] = [
+const ALL: [&str; 6] = [
     "radius.png",
     "limit_polar.png",
     "growth.png",
     "departure.png",
     "norm.png",
+    "dispersion.png",
 ];
 
 fn check_case(text: &str) {
@@ -448,5 +450,179 @@ fn one_and_three_dimensional_departure_pictures_are_drawn() {
         for name in ["departure.png", "norm.png"] {
             assert_looks_like_a_picture(&out.join(name));
         }
+    }
+}
+
+/// Dispersion only, small scans.
+const DISPERSION_1D: &str = r#"
+name = "pic-dispersion-1d"
+[grid]
+spacing = [1.0]
+[model]
+kind = "advection"
+velocity = [1.0]
+[space]
+first = "central4"
+[time]
+method = "rk4"
+courant = 0.8
+[scan]
+points = [17]
+analyses = ["dispersion"]
+"#;
+
+const DISPERSION_2D: &str = r#"
+name = "pic-dispersion-2d"
+[grid]
+spacing = [1.0, 2.0]
+[model]
+kind = "acoustics"
+sound_speed = 1.0
+density = 1.0
+velocity = [0.2, 0.0]
+[space]
+first = "central4"
+[time]
+method = "rk4"
+courant = 1.0
+[scan]
+points = [17, 17]
+analyses = ["dispersion"]
+"#;
+
+const DISPERSION_3D: &str = r#"
+name = "pic-dispersion-3d"
+[grid]
+spacing = [1.0, 1.0, 1.0]
+[model]
+kind = "advection"
+velocity = [1.0, 0.6, 0.3]
+[space]
+first = "central2"
+[time]
+method = "rk4"
+courant = 0.7
+[scan]
+points = [9, 9, 9]
+directions = 24
+analyses = ["dispersion"]
+"#;
+
+/// Diffusion without advection: no mode propagates.
+const DIFFUSION_2D: &str = r#"
+name = "pic-diffusion"
+[grid]
+spacing = [1.0, 1.0]
+[model]
+kind = "advection"
+velocity = [0.0, 0.0]
+diffusivity = 0.1
+[space]
+first = "central2"
+[time]
+method = "rk4"
+dt = 0.5
+[scan]
+points = [17, 17]
+analyses = ["dispersion"]
+"#;
+
+/// Pixels of exactly this colour.
+fn count_colour(p: &Picture, c: [u8; 3]) -> usize {
+    p.rgb.iter().filter(|x| **x == c).count()
+}
+
+/// The crimson of the worst direction and the required-ppw line.
+const CRIMSON: [u8; 3] = [0xc2, 0x1f, 0x3a];
+
+#[test]
+fn dispersion_picture_is_drawn_in_one_two_and_three_dimensions() {
+    for text in [DISPERSION_1D, DISPERSION_2D, DISPERSION_3D] {
+        let (_tmp, out) = run(text);
+        assert_eq!(manifest_pictures(&out), ["dispersion.png"]);
+        let path = out.join("dispersion.png");
+        assert_looks_like_a_picture(&path);
+        let p = decode(&path);
+        // the note naming the mode, right under the title band
+        let note = dark_pixels(&p, (0, p.width), (TITLE_BAND + 4, TITLE_BAND + 40));
+        assert!(
+            note > 300,
+            "{}: {note} dark pixels in the note",
+            path.display()
+        );
+        // both panels carry tick labels and curves
+        for (x0, x1) in [(0, p.width / 2), (p.width / 2, p.width)] {
+            let ink = dark_pixels(&p, (x0, x1), (TITLE_BAND + 60, p.height - 80));
+            assert!(
+                ink > 400,
+                "{}: {ink} dark pixels in a panel",
+                path.display()
+            );
+        }
+        // the worst direction and the required-ppw line in crimson
+        let crimson = count_colour(&p, CRIMSON);
+        assert!(
+            crimson > 600,
+            "{}: {crimson} crimson pixels",
+            path.display()
+        );
+        // the band 1 ± tolerance
+        let band = count_colour(&p, [0xdc, 0xef, 0xe1]);
+        assert!(band > 300, "{}: {band} pixels of the band", path.display());
+    }
+}
+
+#[test]
+fn dispersion_picture_without_a_propagating_mode_shows_a_note() {
+    let c = case(DIFFUSION_2D);
+    let r = results(&c);
+    let d = r.dispersion.as_ref().expect("dispersion");
+    assert!(d.resolution.iter().all(|x| x.0.is_none() && x.1.is_none()));
+    let tmp = tempfile::tempdir().expect("temp dir");
+    let files = write_pictures(tmp.path(), &c, &r).expect("pictures drawn");
+    assert_eq!(files.len(), 1);
+    let p = decode(&files[0]);
+    assert_eq!((p.width, p.height), SIZE);
+    assert!(dark_pixels(&p, (0, p.width / 2), (0, TITLE_BAND / 2)) > 300);
+    // the note in the middle of the picture, and no curve
+    let note = dark_pixels(&p, (0, p.width), (p.height / 2 - 60, p.height / 2 + 60));
+    assert!(note > 500, "{note} dark pixels in the note");
+    assert_eq!(count_colour(&p, CRIMSON), 0);
+}
+
+#[test]
+fn dispersion_picture_leaves_gaps_at_nan_and_clips_far_ratios() {
+    for text in [DISPERSION_1D, DISPERSION_2D] {
+        let c = case(text);
+        let mut r = results(&c);
+        let d = r.dispersion.as_mut().expect("dispersion");
+        for curves in [
+            &mut d.phase_curves,
+            &mut d.phase_curves_discrete,
+            &mut d.group_curves,
+        ] {
+            for (k, dir) in curves.iter_mut().enumerate() {
+                for (j, row) in dir.iter_mut().enumerate() {
+                    for v in row.iter_mut() {
+                        match (j + k) % 9 {
+                            1 => *v = f64::NAN,
+                            4 => *v = 40.0,
+                            7 => *v = -1e9,
+                            8 => *v = f64::INFINITY,
+                            _ => {}
+                        }
+                    }
+                }
+            }
+        }
+        let tmp = tempfile::tempdir().expect("temp dir");
+        let files = write_pictures(tmp.path(), &c, &r).expect("pictures drawn");
+        assert_looks_like_a_picture(&files[0]);
+        // no requirement at all, but curves: the note stands instead
+        let d = r.dispersion.as_mut().expect("dispersion");
+        d.resolution.iter_mut().for_each(|x| *x = (None, None, 0));
+        let files = write_pictures(tmp.path(), &c, &r).expect("pictures drawn");
+        let p = decode(&files[0]);
+        assert_eq!((p.width, p.height), SIZE);
     }
 }

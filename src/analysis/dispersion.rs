@@ -379,10 +379,10 @@ pub fn curve_directions(dims: usize, count: usize) -> Vec<Vec<f64>> {
 const PPW_FINE: f64 = 256.0;
 const CURVE_SAMPLES: usize = 48;
 
-/// Dispersion curves along one physical direction n: (ppw, semi phase ratio,
-/// discrete phase ratio, group ratio) per sample and mode.
-pub fn curve(f: &Frequencies, n: &[f64], dt: f64) -> Curve {
-    let spacing = &f.case.spacing;
+/// The wavenumbers |k| of the curve samples along the physical direction n:
+/// geometric from 256 points per wavelength (of h_min) to the grid limit of
+/// that direction, where some |θ_d| reaches π.
+pub fn curve_wavenumbers(n: &[f64], spacing: &[f64]) -> Vec<f64> {
     let h = spacing.iter().copied().fold(f64::INFINITY, f64::min);
     let kmax = PI
         / n.iter()
@@ -390,10 +390,30 @@ pub fn curve(f: &Frequencies, n: &[f64], dt: f64) -> Curve {
             .map(|(a, hd)| a.abs() * hd)
             .fold(0.0, f64::max);
     let kmin = 2.0 * PI / (PPW_FINE * h);
+    (0..CURVE_SAMPLES)
+        .map(|j| kmin * (kmax / kmin).powf(j as f64 / (CURVE_SAMPLES - 1) as f64))
+        .collect()
+}
+
+/// Points per wavelength 2π/(|k| h_min) of the curve samples along the
+/// physical direction n (the `ppw` of [`DispersionResult`] is that of the
+/// first direction; the grid limit differs between directions).
+pub fn curve_ppw(n: &[f64], spacing: &[f64]) -> Vec<f64> {
+    let h = spacing.iter().copied().fold(f64::INFINITY, f64::min);
+    curve_wavenumbers(n, spacing)
+        .iter()
+        .map(|kappa| 2.0 * PI / (kappa * h))
+        .collect()
+}
+
+/// Dispersion curves along one physical direction n: (ppw, semi phase ratio,
+/// discrete phase ratio, group ratio) per sample and mode.
+pub fn curve(f: &Frequencies, n: &[f64], dt: f64) -> Curve {
+    let spacing = &f.case.spacing;
+    let h = spacing.iter().copied().fold(f64::INFINITY, f64::min);
     let mut ppw = Vec::new();
     let (mut ps, mut pd, mut gr) = (Vec::new(), Vec::new(), Vec::new());
-    for j in 0..CURVE_SAMPLES {
-        let kappa = kmin * (kmax / kmin).powf(j as f64 / (CURVE_SAMPLES - 1) as f64);
+    for kappa in curve_wavenumbers(n, spacing) {
         let theta: Vec<f64> = n
             .iter()
             .zip(spacing)

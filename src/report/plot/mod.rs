@@ -6,7 +6,9 @@
 //! `limit_polar.png` the largest stable Courant number (or Δt) per wave
 //! direction ([`limit`]), `growth.png` the transient-growth envelope
 //! max_θ ‖Gⁿ‖₂ against n ([`growth`]), `departure.png` and `norm.png` the
-//! departure from normality and ‖G‖₂ over the grid ([`nonnormal`]). The maps
+//! departure from normality and ‖G‖₂ over the grid ([`nonnormal`]),
+//! `dispersion.png` the phase- and group-speed ratios of the mode that needs
+//! the finest resolution against points per wavelength ([`dispersion`]). The maps
 //! share one layout per dimension ([`field`]). A picture whose data the case
 //! did not ask for is skipped.
 //!
@@ -21,6 +23,7 @@ mod axis;
 mod canvas;
 mod colormap;
 mod contour;
+mod dispersion;
 mod field;
 mod growth;
 mod heatmap;
@@ -109,6 +112,12 @@ pub fn write_pictures(
                 .map_err(|e| fail(&path, e.to_string()))?;
             written.push(path);
         }
+    }
+    if let Some(d) = &results.dispersion {
+        let path = dir.join("dispersion.png");
+        render(&path, font, |root| dispersion::draw(root, case, results, d))
+            .map_err(|e| fail(&path, e.to_string()))?;
+        written.push(path);
     }
     Ok(written)
 }

@@ -1,0 +1,740 @@
+//! `dispersion.png`: phase- and group-speed ratios of one physical mode
+//! against the points per wavelength, for a few wave directions.
+//!
+//! The mode shown is the one that needs the most points per wavelength for
+//! its phase error to stay within the tolerance (the largest finite
+//! semi-discrete requirement, else the largest fully discrete one): the mode
+//! that sets the resolution of the grid. Left panel: c_num/c_exact, the
+//! semi-discrete ratio solid and the fully discrete one dashed in the same
+//! colour; right panel: the semi-discrete group-speed ratio along the exact
+//! group velocity. Both share a logarithmic axis of 2π/(|k| h_min), fine
+//! resolution on the left, the grid limit on the right. The ratio 1 is a thin
+//! line inside the lightly shaded band 1 ± tolerance, and the required points
+//! per wavelength (worst direction) a vertical crimson line.
+//!
+//! Directions: ±x in 1-D; in 2-D the stored directions (10° apart) nearest
+//! 0°, 15°, 30° and 45°; in 3-D those nearest the x axis, the face diagonal
+//! and the body diagonal; in every case also the worst direction of the mode,
+//! always crimson and drawn first and widest, so that a direction whose curve
+//! coincides with it still shows on top. NaN (the mode does not propagate there) leaves gaps;
+//! ratios beyond the axis (phase outside [0, 1.5], group outside [−1, 1.5])
+//! are drawn at its edge and counted in a note. A case without a propagating
+//! mode (pure diffusion) gets a note instead of the panels.
+
+use super::heatmap::{legend_entry, Key};
+use super::{style, title_band, Area, Res, SIZE, TITLE_BAND};
+use crate::analysis::dispersion::{curve_ppw, DispersionResult};
+use crate::analysis::Results;
+use crate::case::Case;
+use plotters::prelude::*;
+use plotters::style::text_anchor::{HPos, VPos};
+
+/// Colours of the directions other than the worst one (which is crimson).
+const PALETTE: [RGBColor; 4] = [
+    style::CURVE,
+    RGBColor(0x1b, 0x8a, 0x5a),
+    style::CASE,
+    style::BOUND,
+];
+
+/// The band 1 ± tolerance (a light green).
+const BAND: RGBColor = RGBColor(0xdc, 0xef, 0xe1);
+
+/// Axis limits of the phase-speed ratio.
+const PHASE_CAP: (f64, f64) = (0.0, 1.5);
+/// Axis limits of the group-speed ratio.
+const GROUP_CAP: (f64, f64) = (-1.0, 1.5);
+
+const X_LABEL: &str = "points per wavelength 2π/(|k| h_min)";
+
+/// The mode the picture shows: the largest finite semi-discrete resolution
+/// requirement, or, when no mode has one, the largest fully discrete one.
+pub fn shown_mode(d: &DispersionResult) -> Option<usize> {
+    let best = |semi: bool| {
+        d.resolution
+            .iter()
+            .enumerate()
+            .filter_map(|(j, r)| {
+                let v = if semi { r.0 } else { r.1 };
+                v.filter(|v| v.is_finite()).map(|v| (j, v))
+            })
+            .max_by(|a, b| a.1.total_cmp(&b.1))
+            .map(|(j, _)| j)
+    };
+    best(true).or_else(|| best(false))
+}
+
+/// One direction drawn: its index, legend label and colour.
+struct Pick {
+    index: usize,
+    label: String,
+    colour: RGBColor,
+}
+
+/// The angle of a 2-D direction in whole degrees, 0..360.
+fn degrees(n: &[f64]) -> f64 {
+    let a = n[1].atan2(n[0]).to_degrees().rem_euclid(360.0);
+    let a = a.round();
+    if a >= 360.0 {
+        0.0
+    } else {
+        a
+    }
+}
+
+/// The label of a direction.
+fn direction_label(n: &[f64]) -> String {
+    match n.len() {
+        1 if n[0] >= 0.0 => "+x".to_string(),
+        1 => "−x".to_string(),
+        2 => format!("{}°", degrees(n)),
+        _ => {
+            let parts: Vec<String> = n.iter().map(|c| style::num_fixed(*c, 2)).collect();
+            format!("n = ({})", parts.join(", "))
+        }
+    }
+}
+
+/// The directions drawn: a few fixed ones (see the module notes) and the
+/// worst one last, in crimson.
+fn picks(d: &DispersionResult, worst: usize) -> Vec<Pick> {
+    let dims = d.directions.first().map_or(1, Vec::len);
+    let nearest = |target: &[f64]| -> Option<usize> {
+        let norm = target.iter().map(|x| x * x).sum::<f64>().sqrt();
+        d.directions
+            .iter()
+            .enumerate()
+            .map(|(k, n)| {
+                let dot: f64 = n.iter().zip(target).map(|(a, b)| a * b).sum::<f64>() / norm;
+                (k, dot)
+            })
+            // the first of equally near directions (the smaller angle)
+            .fold(None, |best: Option<(usize, f64)>, (k, dot)| match best {
+                Some((_, b)) if dot <= b + 1e-9 => best,
+                _ => Some((k, dot)),
+            })
+            .map(|(k, _)| k)
+    };
+    let targets: Vec<Vec<f64>> = match dims {
+        1 => vec![vec![1.0], vec![-1.0]],
+        2 => [0.0f64, 15.0, 30.0, 45.0]
+            .iter()
+            .map(|a| vec![a.to_radians().cos(), a.to_radians().sin()])
+            .collect(),
+        _ => vec![
+            vec![1.0, 0.0, 0.0],
+            vec![1.0, 1.0, 0.0],
+            vec![1.0, 1.0, 1.0],
+        ],
+    };
+    let mut chosen: Vec<usize> = Vec::new();
+    for k in targets.iter().filter_map(|t| nearest(t)) {
+        if k != worst && !chosen.contains(&k) {
+            chosen.push(k);
+        }
+    }
+    let mut out: Vec<Pick> = chosen
+        .into_iter()
+        .enumerate()
+        .map(|(i, k)| Pick {
+            index: k,
+            label: direction_label(&d.directions[k]),
+            colour: PALETTE[i % PALETTE.len()],
+        })
+        .collect();
+    if worst < d.directions.len() {
+        // a drawn direction whose curves coincide with the worst one's (a
+        // symmetry of the grid) hides it: say so in the legend
+        let same = out
+            .iter()
+            .find(|p| coincide(d, p.index, worst))
+            .map(|p| format!(", as {}", p.label))
+            .unwrap_or_default();
+        out.push(Pick {
+            index: worst,
+            label: format!("{} (worst{same})", direction_label(&d.directions[worst])),
+            colour: style::WORST,
+        });
+    }
+    out
+}
+
+/// Whether two directions have the same phase and group curves (to 10⁻⁹).
+fn coincide(d: &DispersionResult, a: usize, b: usize) -> bool {
+    let same = |x: &[Vec<f64>], y: &[Vec<f64>]| {
+        x.len() == y.len()
+            && x.iter().zip(y).all(|(r, s)| {
+                r.len() == s.len()
+                    && r.iter().zip(s).all(|(u, v)| {
+                        (u.is_nan() && v.is_nan()) || (u - v).abs() <= 1e-9 * u.abs().max(1.0)
+                    })
+            })
+    };
+    [&d.phase_curves, &d.phase_curves_discrete, &d.group_curves]
+        .iter()
+        .all(|c| same(&c[a], &c[b]))
+}
+
+/// A value axis: bottom, top, ticks and their step.
+struct YRange {
+    lo: f64,
+    hi: f64,
+    ticks: Vec<f64>,
+    step: f64,
+}
+
+impl YRange {
+    /// The data range of `values` padded, snapped to the tick step, always
+    /// holding 1 ± tol and never beyond `cap`.
+    fn new(values: &[f64], cap: (f64, f64), tol: f64) -> YRange {
+        let (mn, mx) = values
+            .iter()
+            .filter(|v| v.is_finite())
+            .fold((1.0 - tol, 1.0 + tol), |(a, b), v| (a.min(*v), b.max(*v)));
+        let (mut lo, mut hi) = ((mn - 0.04).max(cap.0), (mx + 0.04).min(cap.1));
+        if hi - lo < 0.1 {
+            lo = 0.95f64.max(cap.0);
+            hi = 1.05f64.min(cap.1);
+        }
+        let (_, step) = style::nice_ticks(lo, hi, 7);
+        let lo = ((lo / step + 1e-9).floor() * step).max(cap.0);
+        let hi = ((hi / step - 1e-9).ceil() * step).min(cap.1);
+        let (ticks, step) = style::nice_ticks(lo, hi, 7);
+        YRange {
+            lo,
+            hi,
+            ticks,
+            step,
+        }
+    }
+
+    fn contains(&self, v: f64) -> bool {
+        (self.lo..=self.hi).contains(&v)
+    }
+}
+
+/// One curve of a panel: (x = −log₂ ppw, ratio) samples, its colour, dashed
+/// or solid, and its width.
+struct Series {
+    points: Vec<(f64, f64)>,
+    colour: RGBColor,
+    dashed: bool,
+    width: u32,
+}
+
+/// A vertical marker: x (−log₂ ppw), colour, dashed, and a label.
+struct Marker {
+    x: f64,
+    colour: RGBColor,
+    dashed: bool,
+    label: Option<String>,
+}
+
+/// Placement and content of one panel.
+struct Panel<'a> {
+    origin: (i32, i32),
+    size: (u32, u32),
+    title: &'a str,
+    y_label: &'a str,
+    x_range: (f64, f64),
+    y: YRange,
+    tol: f64,
+    series: Vec<Series>,
+    markers: &'a [Marker],
+}
+
+/// Draws one panel.
+fn panel(root: &Area, p: &Panel) -> Res {
+    let (w, h) = root.dim_in_pixel();
+    // margins: top, bottom, left, right
+    let area = root.margin(
+        p.origin.1 as u32,
+        h.saturating_sub(p.origin.1 as u32 + p.size.1),
+        p.origin.0 as u32,
+        w.saturating_sub(p.origin.0 as u32 + p.size.0),
+    );
+    let t = style::text(16.0, style::INK).pos(style::anchor(HPos::Left, VPos::Top));
+    root.draw(&Text::new(
+        p.title.to_string(),
+        (p.origin.0 + 74, p.origin.1),
+        t,
+    ))?;
+    let area = area.margin(28, 0, 0, 8);
+    let (x0, x1) = p.x_range;
+    let xticks: Vec<f64> = (1..=8)
+        .map(|k| -(k as f64))
+        .filter(|x| (x0 - 1e-9..=x1 + 1e-9).contains(x))
+        .collect();
+    let mut chart = ChartBuilder::on(&area)
+        .x_label_area_size(52)
+        .y_label_area_size(74)
+        .build_cartesian_2d(
+            style::Ticked::new(x0..x1, xticks),
+            style::Ticked::new(p.y.lo..p.y.hi, p.y.ticks.clone()),
+        )?;
+    let fmt_x = |v: &f64| format!("{}", 2f64.powf(-v).round());
+    let (step, largest) = (p.y.step, p.y.lo.abs().max(p.y.hi.abs()));
+    let fmt_y = |v: &f64| style::tick_label(*v, step, largest);
+    chart
+        .configure_mesh()
+        .x_desc(X_LABEL)
+        .y_desc(p.y_label)
+        .x_label_formatter(&fmt_x)
+        .y_label_formatter(&fmt_y)
+        .label_style(style::text(15.0, style::INK))
+        .axis_desc_style(style::text(16.0, style::INK))
+        .axis_style(style::INK)
+        .bold_line_style(style::RULE.stroke_width(1))
+        .light_line_style(TRANSPARENT)
+        .draw()?;
+    let (px, py) = chart.plotting_area().get_pixel_range();
+
+    // the band 1 ± tolerance and the ratio 1
+    let (blo, bhi) = ((1.0 - p.tol).max(p.y.lo), (1.0 + p.tol).min(p.y.hi));
+    if bhi > blo {
+        let a = chart.backend_coord(&(x0, bhi));
+        let b = chart.backend_coord(&(x1, blo));
+        // at least 3 px tall, so that a tight tolerance still shows
+        let (top, bottom) = if b.1 - a.1 < 3 {
+            let mid = (a.1 + b.1) / 2;
+            (mid - 1, mid + 2)
+        } else {
+            (a.1, b.1)
+        };
+        root.draw(&Rectangle::new(
+            [(px.start + 1, top), (px.end - 1, bottom)],
+            BAND.filled(),
+        ))?;
+    }
+    if p.y.contains(1.0) {
+        let y1 = chart.backend_coord(&(x0, 1.0)).1;
+        root.draw(&PathElement::new(
+            vec![(px.start + 1, y1), (px.end - 1, y1)],
+            style::MUTED.stroke_width(1),
+        ))?;
+    }
+
+    // the markers of the required resolution, under the curves
+    for m in p.markers {
+        if !(x0..=x1).contains(&m.x) {
+            continue;
+        }
+        let x = chart.backend_coord(&(m.x, p.y.lo)).0;
+        let line = vec![(x, py.start + 1), (x, py.end - 1)];
+        if m.dashed {
+            dashed(root, &line, 7, 6, m.colour, 2)?;
+        } else {
+            root.draw(&PathElement::new(line, m.colour.stroke_width(2)))?;
+        }
+    }
+
+    // the curves: broken at NaN, clamped to the axis
+    for s in &p.series {
+        let mut runs: Vec<Vec<(i32, i32)>> = vec![vec![]];
+        for &(x, v) in &s.points {
+            if v.is_nan() {
+                if !runs.last().expect("non-empty").is_empty() {
+                    runs.push(vec![]);
+                }
+                continue;
+            }
+            let c = chart.backend_coord(&(x, v.clamp(p.y.lo, p.y.hi)));
+            runs.last_mut().expect("non-empty").push(c);
+        }
+        for run in runs.into_iter().filter(|r| !r.is_empty()) {
+            if run.len() == 1 {
+                root.draw(&Circle::new(run[0], 3, s.colour.filled()))?;
+            } else if s.dashed {
+                dashed(root, &run, 9, 6, s.colour, s.width)?;
+            } else {
+                root.draw(&PathElement::new(run, s.colour.stroke_width(s.width)))?;
+            }
+        }
+    }
+
+    // the marker labels on a white box near the top of the plot
+    let mut row = py.start + 10;
+    for m in p.markers {
+        let Some(label) = &m.label else { continue };
+        if !(x0..=x1).contains(&m.x) {
+            continue;
+        }
+        let x = chart.backend_coord(&(m.x, p.y.lo)).0;
+        let t = style::text(14.0, m.colour);
+        let (w, h) = root.estimate_text_size(label, &t)?;
+        let (w, h) = (w as i32, h as i32);
+        // right of the line when it fits, else left
+        let left = if x + 8 + w < px.end - 4 {
+            x + 8
+        } else {
+            x - 8 - w
+        };
+        root.draw(&Rectangle::new(
+            [(left - 4, row - 2), (left + w + 4, row + h + 2)],
+            WHITE.mix(0.9).filled(),
+        ))?;
+        let t = t.pos(style::anchor(HPos::Left, VPos::Top));
+        root.draw(&Text::new(label.clone(), (left, row), t))?;
+        row += h + 8;
+    }
+    Ok(())
+}
+
+/// A dashed polyline through pixel points: `on` pixels drawn, `off` left out,
+/// the pattern running on along the whole line.
+fn dashed(root: &Area, pts: &[(i32, i32)], on: i32, off: i32, colour: RGBColor, width: u32) -> Res {
+    let period = f64::from(on + off);
+    let mut phase = 0.0f64; // distance travelled, modulo the period
+    let mut current: Vec<(i32, i32)> = Vec::new();
+    let style = colour.stroke_width(width);
+    for w in pts.windows(2) {
+        let (a, b) = (w[0], w[1]);
+        let (dx, dy) = (f64::from(b.0 - a.0), f64::from(b.1 - a.1));
+        let len = dx.hypot(dy);
+        if len == 0.0 {
+            continue;
+        }
+        let at = |s: f64| {
+            (
+                a.0 + (dx * s / len).round() as i32,
+                a.1 + (dy * s / len).round() as i32,
+            )
+        };
+        let mut s = 0.0;
+        while s < len {
+            let drawing = phase < f64::from(on);
+            let edge = if drawing { f64::from(on) } else { period };
+            let step = (edge - phase).min(len - s);
+            if drawing {
+                if current.is_empty() {
+                    current.push(at(s));
+                }
+                current.push(at(s + step));
+            }
+            s += step;
+            phase += step;
+            if phase >= period - 1e-9 {
+                phase = 0.0;
+            }
+            if phase >= f64::from(on) - 1e-9 && !current.is_empty() {
+                root.draw(&PathElement::new(std::mem::take(&mut current), style))?;
+            }
+        }
+    }
+    if current.len() > 1 {
+        root.draw(&PathElement::new(current, style))?;
+    }
+    Ok(())
+}
+
+/// "1%" for a tolerance of 0.01.
+fn percent(tol: f64) -> String {
+    format!("{}%", style::trimmed(100.0 * tol, 3))
+}
+
+/// A points-per-wavelength value for the notes.
+fn ppw_text(v: Option<f64>) -> String {
+    match v {
+        Some(v) if v.is_finite() => style::trimmed(v, 3),
+        _ => "—".to_string(),
+    }
+}
+
+/// Draws lines of text from `y` down; returns the row below them.
+fn note_lines(root: &Area, lines: &[(String, bool)], mut y: i32) -> Res<i32> {
+    for (text, strong) in lines {
+        let (size, colour) = if *strong {
+            (16.0, style::INK)
+        } else {
+            (14.0, style::MUTED)
+        };
+        let t = style::text(size, colour).pos(style::anchor(HPos::Left, VPos::Top));
+        root.draw(&Text::new(text.clone(), (26, y), t))?;
+        y += if *strong { 22 } else { 19 };
+    }
+    Ok(y)
+}
+
+/// Widest line of the notes, in pixels.
+const NOTE_WIDTH: u32 = 950;
+
+/// Pieces of text joined by `sep` into lines no wider than [`NOTE_WIDTH`] at
+/// this font size; a piece wider than a line is broken at its spaces.
+fn flow(root: &Area, pieces: &[String], sep: &str, size: f64) -> Res<Vec<String>> {
+    let font = style::text(size, style::INK);
+    let fits = |s: &str| -> Res<bool> { Ok(root.estimate_text_size(s, &font)?.0 <= NOTE_WIDTH) };
+    // tokens with the joint that goes before them on a line
+    let mut tokens: Vec<(&str, String)> = Vec::new();
+    for p in pieces {
+        if fits(p)? {
+            tokens.push((sep, p.clone()));
+        } else {
+            for (i, w) in p.split(' ').enumerate() {
+                tokens.push((if i == 0 { sep } else { " " }, w.to_string()));
+            }
+        }
+    }
+    let mut lines: Vec<String> = Vec::new();
+    let mut current = String::new();
+    for (joint, w) in tokens {
+        let joined = format!("{current}{joint}{w}");
+        if current.is_empty() {
+            current = w;
+        } else if fits(&joined)? {
+            current = joined;
+        } else {
+            lines.push(std::mem::replace(&mut current, w));
+        }
+    }
+    if !current.is_empty() {
+        lines.push(current);
+    }
+    Ok(lines)
+}
+
+/// The requirement of every mode, for the note: a heading and one piece per mode.
+fn requirements(d: &DispersionResult) -> Vec<String> {
+    let mut parts = vec![format!(
+        "points per wavelength for {} phase error, semi-discrete / fully discrete, worst direction:",
+        percent(d.tolerance)
+    )];
+    parts.extend(
+        d.names
+            .iter()
+            .zip(&d.resolution)
+            .map(|(name, (semi, disc, _))| match (semi, disc) {
+                (None, None) => format!("{name} does not propagate"),
+                _ => format!("{name} {} / {}", ppw_text(*semi), ppw_text(*disc)),
+            }),
+    );
+    parts
+}
+
+/// The requirement note as lines.
+fn requirement_lines(root: &Area, d: &DispersionResult) -> Res<Vec<(String, bool)>> {
+    let heading_and_modes = requirements(d);
+    let mut pieces = vec![format!(
+        "{} {}",
+        heading_and_modes[0],
+        heading_and_modes.get(1).cloned().unwrap_or_default()
+    )];
+    pieces.extend(heading_and_modes.iter().skip(2).cloned());
+    Ok(flow(root, &pieces, "  ·  ", 14.0)?
+        .into_iter()
+        .map(|l| (l, false))
+        .collect())
+}
+
+/// Draws the picture.
+pub fn draw(root: &Area, case: &Case, r: &Results, d: &DispersionResult) -> Res {
+    title_band(root, case, "dispersion: phase and group speed", r.dt)?;
+    let Some(mode) = shown_mode(d) else {
+        let mut lines = vec![(
+            "no propagating mode: the exact phase speed is zero for every mode and direction,"
+                .to_string(),
+            true,
+        )];
+        lines.push((
+            "so there is no phase or group speed ratio to draw (a purely diffusive or static system)"
+                .to_string(),
+            true,
+        ));
+        lines.extend(requirement_lines(root, d)?);
+        note_lines(root, &lines, SIZE.1 as i32 / 2 - 50)?;
+        return Ok(());
+    };
+    let (semi_need, disc_need, worst) = d.resolution[mode];
+    let name = &d.names[mode];
+    let picks = picks(d, worst);
+    let pct = percent(d.tolerance);
+
+    // samples of the shown mode per drawn direction, x = −log₂ ppw
+    let spacing = &case.spacing;
+    let ppw_of = |k: usize| {
+        let p = curve_ppw(&d.directions[k], spacing);
+        if p.len() == d.phase_curves[k].len() {
+            p
+        } else {
+            d.ppw.clone()
+        }
+    };
+    let column = |rows: &[Vec<f64>], ppw: &[f64]| -> Vec<(f64, f64)> {
+        rows.iter()
+            .zip(ppw)
+            .map(|(row, p)| (-p.log2(), row.get(mode).copied().unwrap_or(f64::NAN)))
+            .collect()
+    };
+    let mut phase = Vec::new();
+    let mut group = Vec::new();
+    let mut x_min = -8.0f64;
+    let mut x_max = -8.0f64;
+    // the worst direction first, so that curves it coincides with stay visible on it
+    for pick in picks.iter().rev() {
+        let ppw = ppw_of(pick.index);
+        for p in &ppw {
+            x_min = x_min.min(-p.log2());
+            x_max = x_max.max(-p.log2());
+        }
+        let width = if pick.colour == style::WORST { 4 } else { 2 };
+        phase.push(Series {
+            points: column(&d.phase_curves[pick.index], &ppw),
+            colour: pick.colour,
+            dashed: false,
+            width,
+        });
+        phase.push(Series {
+            points: column(&d.phase_curves_discrete[pick.index], &ppw),
+            colour: pick.colour,
+            dashed: true,
+            width,
+        });
+        group.push(Series {
+            points: column(&d.group_curves[pick.index], &ppw),
+            colour: pick.colour,
+            dashed: false,
+            width,
+        });
+    }
+    // the fine end at 256 points per wavelength, the coarse end at the grid
+    // limit of the drawn directions (at least 2 points per wavelength)
+    let x_range = (x_min.min(-8.0), x_max.max(-1.0));
+    let values = |s: &[Series]| -> Vec<f64> {
+        s.iter()
+            .flat_map(|s| s.points.iter().map(|p| p.1))
+            .collect()
+    };
+    let y_phase = YRange::new(&values(&phase), PHASE_CAP, d.tolerance);
+    let y_group = YRange::new(&values(&group), GROUP_CAP, d.tolerance);
+
+    // the notes above the panels
+    let worst_label = direction_label(&d.directions[worst]);
+    let headline = format!(
+        "mode shown: {name} — {} points per wavelength for {pct} phase error ({} fully discrete), worst direction {worst_label}",
+        ppw_text(semi_need),
+        ppw_text(disc_need)
+    );
+    let mut lines: Vec<(String, bool)> = flow(root, &[headline], " ", 16.0)?
+        .into_iter()
+        .map(|l| (l, true))
+        .collect();
+    lines.extend(requirement_lines(root, d)?);
+    let outside = |s: &[Series], y: &YRange| -> usize {
+        s.iter()
+            .flat_map(|s| s.points.iter())
+            .filter(|p| !p.1.is_nan() && !y.contains(p.1))
+            .count()
+    };
+    let mut clip = Vec::new();
+    let (cp, cg) = (outside(&phase, &y_phase), outside(&group, &y_group));
+    let samples = |n: usize| if n == 1 { "sample" } else { "samples" };
+    if cp > 0 {
+        clip.push(format!("{cp} phase {} outside [0, 1.5]", samples(cp)));
+    }
+    if cg > 0 {
+        clip.push(format!("{cg} group {} outside [−1, 1.5]", samples(cg)));
+    }
+    if !clip.is_empty() {
+        lines.push((
+            format!("{}: drawn at the edge of the axis", clip.join(", ")),
+            false,
+        ));
+    }
+    let top = note_lines(root, &lines, TITLE_BAND as i32 + 12)?;
+
+    let mut markers = Vec::new();
+    if let Some(n) = semi_need.filter(|v| v.is_finite() && *v > 0.0) {
+        markers.push(Marker {
+            x: -n.log2(),
+            colour: style::WORST,
+            dashed: false,
+            label: Some(format!(
+                "{} ppw for {pct} phase error",
+                style::trimmed(n, 3)
+            )),
+        });
+    }
+    if let Some(n) = disc_need.filter(|v| v.is_finite() && *v > 0.0) {
+        let close = semi_need.is_some_and(|s| (s / n - 1.0).abs() < 0.02);
+        if !close {
+            markers.push(Marker {
+                x: -n.log2(),
+                colour: style::WORST,
+                dashed: true,
+                label: Some(format!("{} ppw fully discrete", style::trimmed(n, 3))),
+            });
+        }
+    }
+    let group_markers: Vec<Marker> = markers
+        .iter()
+        .map(|m| Marker {
+            x: m.x,
+            colour: m.colour,
+            dashed: m.dashed,
+            label: None,
+        })
+        .collect();
+
+    let legend_top = SIZE.1 as i32 - 70;
+    let panel_top = top + 14;
+    let height = (legend_top - 10 - panel_top).max(200) as u32;
+    let half = (SIZE.0 - 40) / 2;
+    panel(
+        root,
+        &Panel {
+            origin: (14, panel_top),
+            size: (half - 10, height),
+            title: "phase speed, c_num / c_exact",
+            y_label: "phase-speed ratio",
+            x_range,
+            y: y_phase,
+            tol: d.tolerance,
+            series: phase,
+            markers: &markers,
+        },
+    )?;
+    panel(
+        root,
+        &Panel {
+            origin: (14 + half as i32 + 10, panel_top),
+            size: (half - 10, height),
+            title: "group speed, semi-discrete / exact",
+            y_label: "group-speed ratio",
+            x_range,
+            y: y_group,
+            tol: d.tolerance,
+            series: group,
+            markers: &group_markers,
+        },
+    )?;
+
+    // the legend: directions, then the line styles
+    let mut x = 30;
+    let t = style::text(14.0, style::MUTED).pos(style::anchor(HPos::Left, VPos::Center));
+    root.draw(&Text::new("direction:", (x, legend_top + 12), t))?;
+    x += 80;
+    for pick in &picks {
+        x += legend_entry(
+            root,
+            (x, legend_top + 12),
+            &Key::Line(pick.colour),
+            &pick.label,
+        )? + 22;
+    }
+    let entries = [
+        (Key::Line(style::INK), "semi-discrete".to_string()),
+        (
+            Key::Dashed(style::INK),
+            "fully discrete (phase)".to_string(),
+        ),
+        (Key::Swatch(BAND), format!("1 ± {pct}")),
+        (
+            Key::Line(style::WORST),
+            "required ppw, worst direction".to_string(),
+        ),
+    ];
+    let mut x = 30;
+    for (key, label) in &entries {
+        x += legend_entry(root, (x, legend_top + 40), key, label)? + 26;
+    }
+    Ok(())
+}
