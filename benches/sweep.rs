@@ -9,8 +9,11 @@ use kgain::sample::Par;
 use std::path::Path;
 
 fn peer(points: usize, analysis: &str) -> Case {
-    let text = std::fs::read_to_string(concat!(env!("CARGO_MANIFEST_DIR"), "/bench/peer-euler2d.toml"))
-        .expect("bench case");
+    let text = std::fs::read_to_string(concat!(
+        env!("CARGO_MANIFEST_DIR"),
+        "/bench/peer-euler2d.toml"
+    ))
+    .expect("bench case");
     let sets = [
         format!("scan.points=[{points},{points}]"),
         format!("scan.analyses=[\"{analysis}\"]"),
@@ -25,7 +28,14 @@ fn sweep(c: &mut Criterion) {
     for threads in [1, 2] {
         g.bench_function(format!("{threads}_thread"), |b| {
             b.iter(|| {
-                analyse(&map, &Options { par: Par::Threads(threads), progress: false }).expect("runs")
+                analyse(
+                    &map,
+                    &Options {
+                        par: Par::Threads(threads),
+                        progress: false,
+                    },
+                )
+                .expect("runs")
             })
         });
     }
@@ -34,7 +44,16 @@ fn sweep(c: &mut Criterion) {
     let mut g = c.benchmark_group("courant_limit_129");
     g.sample_size(10);
     g.bench_function("2_threads", |b| {
-        b.iter(|| analyse(&lim, &Options { par: Par::Threads(2), progress: false }).expect("runs"))
+        b.iter(|| {
+            analyse(
+                &lim,
+                &Options {
+                    par: Par::Threads(2),
+                    progress: false,
+                },
+            )
+            .expect("runs")
+        })
     });
     g.finish();
 }

@@ -168,3 +168,39 @@ fn thread_count_does_not_change_any_output() {
         );
     }
 }
+
+#[test]
+fn summary_table_and_json_report_the_same_numbers() {
+    // The table prints dt_max to 10 significant digits and the Courant limit to
+    // 10 decimals; both must be the values in summary.json.
+    let cf = CaseFile::new("tiny", TINY);
+    let (_, table) = run_ok(&cf, &[]);
+    let (out, _) = run_ok(&cf, &["--json"]);
+    let s = read_json(&out.join("summary.json"));
+    let line = table
+        .lines()
+        .find(|l| l.trim_start().starts_with("largest dt"))
+        .expect("a largest-dt row");
+    let field = |name: &str| -> f64 {
+        let rest = &line[line.find(name).expect("field present") + name.len()..];
+        rest.trim_start_matches([' ', '='])
+            .split([',', ' '])
+            .next()
+            .unwrap()
+            .parse()
+            .expect("a number")
+    };
+    let dt = s["limit"]["dt_max"].as_f64().unwrap();
+    let nu = s["limit"]["courant_max"].as_f64().unwrap();
+    assert_close(field("dt_max"), dt, 1e-9, "dt_max in the table");
+    assert_close(field("Courant"), nu, 1e-9, "Courant limit in the table");
+    let verdict = if s["radius"]["stable"].as_bool().unwrap() {
+        "STABLE"
+    } else {
+        "UNSTABLE"
+    };
+    assert!(
+        table.contains(&format!("{verdict}:")),
+        "verdict {verdict} in the table"
+    );
+}
