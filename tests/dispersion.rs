@@ -233,3 +233,22 @@ fn continuous_euler_frequencies_are_convected_and_acoustic() {
         }
     }
 }
+
+#[test]
+fn leapfrog_group_velocity_follows_its_discrete_dispersion_relation() {
+    // Strikwerda: leapfrog + C2 has sin(ωΔt) = ν sin θ, so the fully discrete
+    // group velocity is a cos θ / √(1 − ν² sin² θ) (a = 1, h = 1).
+    let nu = 0.5;
+    let (_, r) = run(&advection_1d("central2", "leapfrog", nu));
+    let d = disp(&r);
+    for (i, th) in r.grid.coords[0].iter().enumerate() {
+        let want = th.cos() / (1.0 - (nu * th.sin()).powi(2)).sqrt();
+        let got = d.group_discrete[i][0][0];
+        assert!((got - want).abs() <= 1e-5, "at {th}: {got} vs {want}");
+        let w = (nu * th.sin()).asin() / r.dt;
+        assert!(
+            (d.discrete[i][0].re - w).abs() <= 1e-9 * (1.0 + w.abs()),
+            "omega at {th}"
+        );
+    }
+}

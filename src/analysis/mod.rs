@@ -450,7 +450,14 @@ fn dispersion_analysis(
     grid: &Grid,
     dt: f64,
 ) -> dispersion::DispersionResult {
-    type NodeOut = (Vec<C64>, Vec<C64>, Vec<C64>, Vec<Vec<f64>>, Vec<Vec<f64>>);
+    type NodeOut = (
+        Vec<C64>,
+        Vec<C64>,
+        Vec<C64>,
+        Vec<Vec<f64>>,
+        Vec<Vec<f64>>,
+        Vec<Vec<f64>>,
+    );
     let f = dispersion::Frequencies::new(case, op);
     let bar = progress_bar(grid.len() as u64, "dispersion", opts.progress);
     let nodes: Vec<NodeOut> =
@@ -458,7 +465,8 @@ fn dispersion_analysis(
             let (num, exact) = f.matched(th);
             let disc = f.discrete(th, &num, dt);
             let (gn, ge) = f.group_velocities(th, &num, &exact);
-            (num, exact, disc, gn, ge)
+            let gd = f.discrete_group_velocities(th, &num, &disc, dt);
+            (num, exact, disc, gn, ge, gd)
         });
     bar.finish_and_clear();
     let dirs = dispersion::curve_directions(grid.points.len(), case.scan.directions);
@@ -479,7 +487,9 @@ fn dispersion_analysis(
     let mut discrete = Vec::with_capacity(nodes.len());
     let mut group = Vec::with_capacity(nodes.len());
     let mut group_exact = Vec::with_capacity(nodes.len());
-    for (a, b, c, d, e) in nodes {
+    let mut group_discrete = Vec::with_capacity(nodes.len());
+    for (a, b, c, d, e, g) in nodes {
+        group_discrete.push(g);
         numerical.push(a);
         exact.push(b);
         discrete.push(c);
@@ -502,6 +512,7 @@ fn dispersion_analysis(
         discrete,
         group,
         group_exact,
+        group_discrete,
         directions: dirs,
         ppw,
         phase_curves,

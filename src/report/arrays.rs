@@ -167,7 +167,7 @@ fn write_dispersion(
             (wn.im / c).exp()
         }
     };
-    let maps: [(&str, Vec<f64>, &'static str); 8] = [
+    let maps: [(&str, Vec<f64>, &'static str); 10] = [
         (
             "phase_speed_ratio",
             per(&|i, j| phase_ratio(d.numerical[i][j], d.exact[i][j], scale(i))),
@@ -187,6 +187,16 @@ fn write_dispersion(
             "group_angle_error",
             per(&|i, j| group_ratio(&d.group[i][j], &d.group_exact[i][j]).1),
             "angle between semi-discrete and exact group velocities",
+        ),
+        (
+            "group_speed_ratio_discrete",
+            per(&|i, j| group_ratio(&d.group_discrete[i][j], &d.group_exact[i][j]).0),
+            "fully discrete group velocity along the exact one, over the exact group speed",
+        ),
+        (
+            "group_angle_error_discrete",
+            per(&|i, j| group_ratio(&d.group_discrete[i][j], &d.group_exact[i][j]).1),
+            "angle between fully discrete and exact group velocities",
         ),
         (
             "amplitude_per_period",
@@ -210,7 +220,7 @@ fn write_dispersion(
         ),
     ];
     for (name, data, long_name) in maps {
-        let units = if name == "group_angle_error" {
+        let units = if name.starts_with("group_angle_error") {
             "radian"
         } else {
             "1"
@@ -232,6 +242,11 @@ fn write_dispersion(
             "group_velocity_exact",
             &d.group_exact,
             "exact group velocity d omega / d k",
+        ),
+        (
+            "group_velocity_discrete",
+            &d.group_discrete,
+            "fully discrete group velocity d omega / d k of the principal roots",
         ),
     ] {
         let data: Vec<f64> = src
