@@ -73,10 +73,11 @@ pub fn mode_names(sys: &System) -> Vec<String> {
 }
 
 /// Pairs `new` with `target` by the cheapest total distance (all permutations for
-/// m ≤ 6, greedy beyond); returns `new` reordered.
+/// m ≤ 4; beyond, the globally closest pair first, repeatedly); returns `new`
+/// reordered.
 fn assign(target: &[C64], new: &[C64]) -> Vec<C64> {
     let m = target.len();
-    if m <= 6 {
+    if m <= 4 {
         let mut perm: Vec<usize> = (0..m).collect();
         let mut best = (f64::INFINITY, perm.clone());
         permute(&mut perm, 0, &mut |p| {
@@ -91,18 +92,23 @@ fn assign(target: &[C64], new: &[C64]) -> Vec<C64> {
         });
         best.1.iter().map(|&j| new[j]).collect()
     } else {
-        let mut used = vec![false; new.len()];
-        target
-            .iter()
-            .map(|t| {
-                let j = (0..new.len())
-                    .filter(|j| !used[*j])
-                    .min_by(|a, b| (new[*a] - t).norm().total_cmp(&(new[*b] - t).norm()))
-                    .unwrap_or(0);
-                used[j] = true;
-                new[j]
-            })
-            .collect()
+        let mut pairs: Vec<(f64, usize, usize)> = Vec::with_capacity(m * new.len());
+        for (i, t) in target.iter().enumerate() {
+            for (j, n) in new.iter().enumerate() {
+                pairs.push(((t - n).norm(), i, j));
+            }
+        }
+        pairs.sort_by(|a, b| a.0.total_cmp(&b.0));
+        let mut out = vec![C64::new(f64::NAN, f64::NAN); m];
+        let (mut ti, mut nj) = (vec![false; m], vec![false; new.len()]);
+        for (_, i, j) in pairs {
+            if !ti[i] && !nj[j] {
+                ti[i] = true;
+                nj[j] = true;
+                out[i] = new[j];
+            }
+        }
+        out
     }
 }
 
