@@ -154,6 +154,55 @@ where
     T: Send + Clone + Default,
     F: Fn(&Node) -> T + Sync,
 {
+    sweep_span(op, grid, par, Span::Grid(symmetry), bar, f)
+}
+
+/// Evaluates `f` at the nodes of grid rows `rows` only (rows along the last axis,
+/// in C order): one slab of a larger scan, so that a caller can fold results as it
+/// goes instead of holding a value per node.
+pub fn sweep_rows<T, F>(
+    op: &Operator,
+    grid: &Grid,
+    par: Par,
+    rows: std::ops::Range<usize>,
+    bar: Option<&ProgressBar>,
+    f: F,
+) -> Vec<T>
+where
+    T: Send + Clone + Default,
+    F: Fn(&Node) -> T + Sync,
+{
+    sweep_span(op, grid, par, Span::Rows(rows), bar, f)
+}
+
+/// Rows a sweep should cover: the whole grid (half of it mirrored when even) or
+/// one slab of rows.
+enum Span {
+    Grid(Symmetry),
+    Rows(std::ops::Range<usize>),
+}
+
+/// Number of rows a sweep computes for a symmetry (the rest are mirrored).
+pub fn computed_rows(grid: &Grid, symmetry: Symmetry) -> usize {
+    let rows = grid.len() / grid.points[grid.points.len() - 1];
+    match symmetry {
+        Symmetry::Even => rows.div_ceil(2),
+        Symmetry::None => rows,
+    }
+}
+
+fn sweep_span<T, F>(
+    op: &Operator,
+    grid: &Grid,
+    par: Par,
+    span: Span,
+    bar: Option<&ProgressBar>,
+    f: F,
+) -> Vec<T>
+where
+    T: Send + Clone + Default,
+    F: Fn(&Node) -> T + Sync,
+{
     let tables = op.tabulate(&grid.coords);
     let dims = grid.points.len();
     let row = grid.points[dims - 1];
@@ -186,7 +235,7 @@ where
             });
         }
     };
-    by_rows(grid, par, symmetry, bar, init, work)
+    by_rows(grid, par, span, bar, init, work)
 }
 
 /// Runs `work(workspace, (row, chunk))` over the rows of the output in C order
@@ -195,7 +244,7 @@ where
 fn by_rows<T, W, I, F>(
     grid: &Grid,
     par: Par,
-    symmetry: Symmetry,
+    span: Span,
     bar: Option<&ProgressBar>,
     init: I,
     work: F,
@@ -208,16 +257,15 @@ where
 {
     let row = grid.points[grid.points.len() - 1];
     let total = grid.len();
-    let rows = total / row;
-    let computed_rows = match symmetry {
-        Symmetry::Even => rows.div_ceil(2),
-        Symmetry::None => rows,
+    let (first, count, mirror) = match span {
+        Span::Grid(symmetry) => (0, computed_rows(grid, symmetry), true),
+        Span::Rows(r) => (r.start, r.len(), false),
     };
-    let mut out = vec![T::default(); total];
-    let (head, tail) = out.split_at_mut(computed_rows * row);
-    let counted = |ws: &mut W, item: (usize, &mut [T])| {
-        let n = item.1.len() as u64;
-        work(ws, item);
+    let mut out = vec![T::default(); if mirror { total } else { count * row }];
+    let (head, tail) = out.split_at_mut(count * row);
+    let counted = |ws: &mut W, (r, chunk): (usize, &mut [T])| {
+        let n = chunk.len() as u64;
+        work(ws, (first + r, chunk));
         if let Some(b) = bar {
             b.inc(n);
         }
@@ -236,7 +284,7 @@ where
         }),
     }
     for (k, slot) in tail.iter_mut().enumerate() {
-        *slot = head[total - 1 - (computed_rows * row + k)].clone();
+        *slot = head[total - 1 - (count * row + k)].clone();
     }
     if let Some(b) = bar {
         b.inc(tail.len() as u64);
@@ -266,5 +314,5 @@ where
             *slot = f(&grid.theta(idx));
         }
     };
-    by_rows(grid, par, symmetry, bar, init, work)
+    by_rows(grid, par, Span::Grid(symmetry), bar, init, work)
 }

@@ -105,22 +105,78 @@ pub fn wrap(x: f64) -> f64 {
 /// How many separated grid candidates are refined.
 const CANDIDATES: usize = 8;
 
-/// The overall limit from per-node screening values `(t*, |μ|)`.
-pub fn overall(op: &Operator, exits: &ExitTimes, grid: &Grid, nodes: &[(f64, f64)]) -> Limit {
+/// How many screened wavevectors are kept for the refinement.
+pub const SCREEN_CANDIDATES: usize = 4096;
+
+/// The `keep` best screened wavevectors (smallest t*, then largest |μ|), kept as
+/// a bounded list while a sweep runs slab by slab.
+pub struct Candidates {
+    keep: usize,
+    items: Vec<(usize, f64, f64)>,
+}
+
+impl Candidates {
+    /// An empty list keeping `keep` entries.
+    pub fn new(keep: usize) -> Self {
+        Self {
+            keep,
+            items: Vec::with_capacity(2 * keep),
+        }
+    }
+
+    fn key(x: &(usize, f64, f64)) -> (f64, f64, usize) {
+        (x.1, -x.2, x.0)
+    }
+
+    /// Offers node `flat` with screening time `t` and modulus `w`.
+    pub fn offer(&mut self, flat: usize, t: f64, w: f64) {
+        self.items.push((flat, t, w));
+        if self.items.len() >= 2 * self.keep {
+            self.prune();
+        }
+    }
+
+    fn prune(&mut self) {
+        let k = self.keep.min(self.items.len());
+        if k == 0 {
+            return;
+        }
+        self.items.select_nth_unstable_by(k - 1, |a, b| {
+            Self::key(a)
+                .partial_cmp(&Self::key(b))
+                .unwrap_or(std::cmp::Ordering::Equal)
+        });
+        self.items.truncate(k);
+    }
+
+    /// The kept entries, best first.
+    pub fn into_sorted(mut self) -> Vec<(usize, f64, f64)> {
+        self.prune();
+        self.items.sort_by(|a, b| {
+            Self::key(a)
+                .partial_cmp(&Self::key(b))
+                .unwrap_or(std::cmp::Ordering::Equal)
+        });
+        self.items
+    }
+}
+
+/// The overall limit from the best screened wavevectors `(flat, t*, |μ|)`, best first.
+pub fn overall(
+    op: &Operator,
+    exits: &ExitTimes,
+    grid: &Grid,
+    screen: &[(usize, f64, f64)],
+) -> Limit {
     let dims = grid.points.len();
-    let mut order: Vec<usize> = (0..nodes.len()).filter(|&i| !nodes[i].0.is_nan()).collect();
-    let key = |i: usize| (nodes[i].0, -nodes[i].1);
-    let keep = order.len().min(4096);
-    if keep == 0 {
+    if screen.is_empty() {
         return Limit {
             kind: LimitKind::None,
             dt_max: f64::NAN,
             wavevector: vec![0.0; dims],
         };
     }
-    order.select_nth_unstable_by(keep - 1, |a, b| key(*a).partial_cmp(&key(*b)).unwrap());
-    order.truncate(keep);
-    order.sort_by(|a, b| key(*a).partial_cmp(&key(*b)).unwrap());
+    let order: Vec<usize> = screen.iter().map(|c| c.0).collect();
     let mut idx = vec![0usize; dims];
     let mut chosen: Vec<Vec<usize>> = Vec::new();
     for &i in &order {
@@ -140,17 +196,18 @@ pub fn overall(op: &Operator, exits: &ExitTimes, grid: &Grid, nodes: &[(f64, f64
         }
     }
     let best_node = order[0];
+    let best_t = screen[0].1;
     grid.unravel(best_node, &mut idx);
     let best_theta = grid.theta(&idx);
     let eval = Evaluator::new(op, exits);
-    if nodes[best_node].0 == 0.0 {
+    if best_t == 0.0 {
         return Limit {
             kind: LimitKind::None,
             dt_max: 0.0,
             wavevector: best_theta,
         };
     }
-    if nodes[best_node].0 == f64::INFINITY {
+    if best_t == f64::INFINITY {
         return Limit {
             kind: LimitKind::Unconditional,
             dt_max: f64::INFINITY,

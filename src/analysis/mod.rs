@@ -130,6 +130,9 @@ pub struct GrowthResult {
     pub verdict: String,
 }
 
+/// Wavevectors per slab of the main sweep.
+const SLAB_NODES: usize = 1 << 18;
+
 /// How the limit of one-step and multistep methods is found.
 pub const FOUND_BY_EXIT: &str =
     "first exit from the exact stability region, refined in continuous wavevector space";
@@ -187,39 +190,76 @@ pub fn analyse(case: &Case, opts: &Options) -> Result<Results, OperatorError> {
     } else {
         sample::Symmetry::None
     };
-    let nodes: Vec<(f64, f64, f64)> = sample::sweep(
-        &op,
-        &grid,
-        opts.par,
-        symmetry,
-        Some(&bar),
-        |node| match node.eigenvalues {
-            Err(_) => (f64::NAN, f64::NAN, 0.0),
-            Ok(eig) => {
-                let radius = if want_radius {
-                    eig.iter()
-                        .map(|mu| method.amplification_radius(*mu * dt))
-                        .fold(0.0, f64::max)
-                } else {
-                    0.0
-                };
-                let (t, w) = if want_limit {
-                    let noise = first_exit::noise_level(node.symbol);
-                    min_over_modes(eig, |mu| exits.estimate(mu, noise))
-                } else {
-                    (0.0, 0.0)
-                };
-                (radius, t, w)
+    // The grid is swept in slabs of rows: radius values go straight into the map
+    // (the output itself) and first-exit times into a bounded list of the best
+    // candidates, so memory stays near the size of the outputs on large 3-D scans.
+    let row = grid.points[grid.points.len() - 1];
+    let computed = sample::computed_rows(&grid, symmetry);
+    let slab = (SLAB_NODES / row).max(1);
+    let mut map = if want_radius {
+        vec![0.0; grid.len()]
+    } else {
+        Vec::new()
+    };
+    let mut screen = limit::Candidates::new(limit::SCREEN_CANDIDATES);
+    let mut failures = 0usize;
+    for r0 in (0..computed).step_by(slab) {
+        let r1 = (r0 + slab).min(computed);
+        let part: Vec<(f64, f64, f64)> =
+            sample::sweep_rows(&op, &grid, opts.par, r0..r1, Some(&bar), |node| match node
+                .eigenvalues
+            {
+                Err(_) => (f64::NAN, f64::NAN, 0.0),
+                Ok(eig) => {
+                    let radius = if want_radius {
+                        eig.iter()
+                            .map(|mu| method.amplification_radius(*mu * dt))
+                            .fold(0.0, f64::max)
+                    } else {
+                        0.0
+                    };
+                    let (t, w) = if want_limit {
+                        let noise = first_exit::noise_level(node.symbol);
+                        min_over_modes(eig, |mu| exits.estimate(mu, noise))
+                    } else {
+                        (0.0, 0.0)
+                    };
+                    (radius, t, w)
+                }
+            });
+        for (k, (rad, t, w)) in part.into_iter().enumerate() {
+            let flat = r0 * row + k;
+            if rad.is_nan() {
+                failures += 1;
             }
-        },
-    );
+            if want_radius {
+                map[flat] = rad;
+            }
+            if want_limit && !t.is_nan() {
+                screen.offer(flat, t, w);
+            }
+        }
+    }
+    let total = grid.len();
+    let mirrored = total - computed * row;
+    bar.inc(mirrored as u64);
+    if mirrored > 0 {
+        // −θ of flat index f is N−1−f
+        for f in computed * row..total {
+            let v = if want_radius { map[total - 1 - f] } else { 0.0 };
+            if v.is_nan() {
+                failures += 1;
+            }
+            if want_radius {
+                map[f] = v;
+            }
+        }
+    }
     bar.finish_and_clear();
-    let failures = nodes.iter().filter(|n| n.0.is_nan()).count();
     let dims = grid.points.len();
-    let radius =
-        want_radius.then(|| radius_result(nodes.iter().map(|n| n.0).collect(), &grid, tol));
+    let radius = want_radius.then(|| radius_result(map, &grid, tol));
     let (limit, directional) = if want_limit {
-        let screen: Vec<(f64, f64)> = nodes.iter().map(|n| (n.1, n.2)).collect();
+        let screen = screen.into_sorted();
         let overall = opts.par.run(|| limit::overall(&op, &exits, &grid, &screen));
         let dirs = directions(dims, case.scan.directions);
         let per_ray = (grid.points.iter().max().copied().unwrap_or(2) / 2).max(16);

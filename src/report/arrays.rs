@@ -4,7 +4,7 @@
 use super::ReportError;
 use crate::analysis::Results;
 use crate::case::Case;
-use ndarray::{ArrayD, IxDyn};
+use ndarray::{ArrayViewD, IxDyn};
 use num_complex::Complex64 as C64;
 use serde_json::{json, Map, Value};
 use std::path::Path;
@@ -57,11 +57,11 @@ impl Writer<'_> {
         &mut self,
         name: &str,
         shape: &[usize],
-        data: Vec<f64>,
+        data: impl AsRef<[f64]>,
         meta: Meta,
     ) -> Result<(), ReportError> {
         let path = self.dir.join(format!("{name}.npy"));
-        let arr = ArrayD::from_shape_vec(IxDyn(shape), data).expect("shape matches data");
+        let arr = ArrayViewD::from_shape(IxDyn(shape), data.as_ref()).expect("shape matches data");
         ndarray_npy::write_npy(&path, &arr).map_err(|e| ReportError::Npy {
             path: path.display().to_string(),
             message: e.to_string(),
@@ -74,11 +74,11 @@ impl Writer<'_> {
         &mut self,
         name: &str,
         shape: &[usize],
-        data: Vec<C64>,
+        data: impl AsRef<[C64]>,
         meta: Meta,
     ) -> Result<(), ReportError> {
         let path = self.dir.join(format!("{name}.npy"));
-        let arr = ArrayD::from_shape_vec(IxDyn(shape), data).expect("shape matches data");
+        let arr = ArrayViewD::from_shape(IxDyn(shape), data.as_ref()).expect("shape matches data");
         ndarray_npy::write_npy(&path, &arr).map_err(|e| ReportError::Npy {
             path: path.display().to_string(),
             message: e.to_string(),
@@ -270,7 +270,7 @@ fn write_dispersion(
     w.real(
         "dispersion_directions",
         &[nd, dims],
-        d.directions.iter().flatten().copied().collect(),
+        d.directions.iter().flatten().copied().collect::<Vec<f64>>(),
         Meta {
             dims: vec!["curve_direction", "axis"],
             units: "1",
@@ -281,7 +281,7 @@ fn write_dispersion(
     w.real(
         "dispersion_ppw",
         &[k],
-        d.ppw.clone(),
+        &d.ppw,
         Meta {
             dims: vec!["sample"],
             units: "1",
@@ -338,7 +338,7 @@ pub fn write_arrays(dir: &Path, case: &Case, r: &Results) -> Result<Value, Repor
         w.real(
             AXES[d],
             &[r.grid.points[d]],
-            r.grid.coords[d].clone(),
+            &r.grid.coords[d],
             Meta {
                 dims: vec![AXES[d]],
                 units: "radian",
@@ -354,7 +354,7 @@ pub fn write_arrays(dir: &Path, case: &Case, r: &Results) -> Result<Value, Repor
         w.real(
             "radius",
             &r.grid.points,
-            rad.map.clone(),
+            &rad.map,
             Meta {
                 dims: grid_dims.clone(),
                 units: "1",
@@ -387,7 +387,7 @@ pub fn write_arrays(dir: &Path, case: &Case, r: &Results) -> Result<Value, Repor
                 &[n],
                 ang.iter()
                     .map(|a| a.rem_euclid(std::f64::consts::TAU))
-                    .collect(),
+                    .collect::<Vec<f64>>(),
                 Meta {
                     dims: vec!["direction"],
                     units: "radian",
@@ -398,7 +398,7 @@ pub fn write_arrays(dir: &Path, case: &Case, r: &Results) -> Result<Value, Repor
         w.real(
             "limit_by_direction",
             &[n],
-            dl.dt.clone(),
+            &dl.dt,
             Meta {
                 dims: vec!["direction"],
                 units: "s",
@@ -422,7 +422,7 @@ pub fn write_arrays(dir: &Path, case: &Case, r: &Results) -> Result<Value, Repor
             w.real(
                 "courant_by_direction",
                 &[n],
-                dl.dt.iter().map(|dt| s * dt / h).collect(),
+                dl.dt.iter().map(|dt| s * dt / h).collect::<Vec<f64>>(),
                 Meta {
                     dims: vec!["direction"],
                     units: "1",
@@ -449,7 +449,7 @@ pub fn write_arrays(dir: &Path, case: &Case, r: &Results) -> Result<Value, Repor
             w.real(
                 name,
                 &r.grid.points,
-                data.clone(),
+                data,
                 Meta {
                     dims: grid_dims.clone(),
                     units: "1",
@@ -460,7 +460,7 @@ pub fn write_arrays(dir: &Path, case: &Case, r: &Results) -> Result<Value, Repor
         w.real(
             "growth",
             &[g.envelope.len()],
-            g.envelope.clone(),
+            &g.envelope,
             Meta {
                 dims: vec!["step"],
                 units: "1",
@@ -476,7 +476,7 @@ pub fn write_arrays(dir: &Path, case: &Case, r: &Results) -> Result<Value, Repor
         w.complex(
             &name,
             &[mode.vector.len()],
-            mode.vector.clone(),
+            &mode.vector,
             Meta {
                 dims: vec!["component"],
                 units: "1",
@@ -496,7 +496,7 @@ pub fn write_arrays(dir: &Path, case: &Case, r: &Results) -> Result<Value, Repor
         w.real(
             "sample_index",
             &[k],
-            s.index.iter().map(|&i| i as f64).collect(),
+            s.index.iter().map(|&i| i as f64).collect::<Vec<_>>(),
             Meta {
                 dims: vec!["sample"],
                 units: "1",
@@ -506,7 +506,7 @@ pub fn write_arrays(dir: &Path, case: &Case, r: &Results) -> Result<Value, Repor
         w.real(
             "sample_theta",
             &[k, dims],
-            s.theta.iter().flatten().copied().collect(),
+            s.theta.iter().flatten().copied().collect::<Vec<_>>(),
             Meta {
                 dims: vec!["sample", "axis"],
                 units: "radian",
@@ -516,7 +516,7 @@ pub fn write_arrays(dir: &Path, case: &Case, r: &Results) -> Result<Value, Repor
         w.complex(
             "sample_symbol",
             &[k, m, m],
-            s.symbol.iter().flatten().copied().collect(),
+            s.symbol.iter().flatten().copied().collect::<Vec<_>>(),
             Meta {
                 dims: vec!["sample", "row", "col"],
                 units: "s-1",
@@ -526,7 +526,11 @@ pub fn write_arrays(dir: &Path, case: &Case, r: &Results) -> Result<Value, Repor
         w.complex(
             "sample_amplification",
             &[k, s.size, s.size],
-            s.amplification.iter().flatten().copied().collect(),
+            s.amplification
+                .iter()
+                .flatten()
+                .copied()
+                .collect::<Vec<_>>(),
             Meta {
                 dims: vec!["sample", "row", "col"],
                 units: "1",
