@@ -146,8 +146,14 @@ pub fn progress_bar(len: u64, msg: &str, show: bool) -> ProgressBar {
     }
     let bar = ProgressBar::with_draw_target(Some(len), ProgressDrawTarget::stderr());
     if let Ok(style) =
-        ProgressStyle::with_template("{msg:>12} [{bar:36}] {percent:>3}% {per_sec:>12} eta {eta}")
+        ProgressStyle::with_template("{msg:>12} [{bar:36}] {percent:>3}% {rate:>10} eta {eta}")
     {
+        let style = style.with_key(
+            "rate",
+            |st: &indicatif::ProgressState, w: &mut dyn std::fmt::Write| {
+                let _ = write!(w, "{:.0}/s", st.per_sec());
+            },
+        );
         bar.set_style(style.progress_chars("=> "));
     }
     bar.set_message(msg.to_string());
