@@ -19,7 +19,6 @@ use plotters_backend::{
     BackendColor, BackendCoord, BackendStyle, BackendTextStyle, DrawingErrorKind,
 };
 use plotters_bitmap::BitMapBackendError;
-use std::path::Path;
 
 /// A PNG file being drawn.
 pub struct Canvas<'a> {
@@ -28,19 +27,12 @@ pub struct Canvas<'a> {
 }
 
 impl<'a> Canvas<'a> {
-    /// A canvas of `size` pixels that is written to `path` when presented.
-    pub fn new(path: &'a Path, size: (u32, u32), font: &'static FontRef<'static>) -> Self {
-        Canvas {
-            inner: BitMapBackend::new(path, size),
-            font,
-        }
-    }
-}
-
-#[cfg(test)]
-impl<'a> Canvas<'a> {
     /// A canvas drawing into an RGB buffer of `size` pixels.
-    fn with_buffer(buf: &'a mut [u8], size: (u32, u32), font: &'static FontRef<'static>) -> Self {
+    pub fn with_buffer(
+        buf: &'a mut [u8],
+        size: (u32, u32),
+        font: &'static FontRef<'static>,
+    ) -> Self {
         Canvas {
             inner: BitMapBackend::with_buffer(buf, size),
             font,

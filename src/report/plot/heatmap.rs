@@ -113,15 +113,34 @@ pub fn panel(
         (py.end - py.start).max(1) as u32,
     );
     let cell = |e: &[f64], t: f64| e.partition_point(|x| *x <= t).clamp(1, e.len() - 1) - 1;
+    // cell index of every pixel column and row, and a colour table over the scale
+    let cols: Vec<usize> = (0..w)
+        .map(|u| cell(&ex, -PI + 2.0 * PI * (u as f64 + 0.5) / w as f64))
+        .collect();
+    let rows: Vec<usize> = (0..h)
+        .map(|v| cell(&ey, PI - 2.0 * PI * (v as f64 + 0.5) / h as f64))
+        .collect();
+    const LUT: usize = 1024;
+    let lut: Vec<RGBColor> = (0..LUT)
+        .map(|k| scale.colour(scale.lo + (scale.hi - scale.lo) * k as f64 / (LUT - 1) as f64))
+        .collect();
+    let missing = scale.colour(f64::NAN);
+    let span = scale.hi - scale.lo;
     let mut buf = vec![0u8; (w * h * 3) as usize];
-    for v in 0..h {
-        let ty = PI - 2.0 * PI * (v as f64 + 0.5) / h as f64;
-        let j = cell(&ey, ty);
-        for u in 0..w {
-            let tx = -PI + 2.0 * PI * (u as f64 + 0.5) / w as f64;
-            let i = cell(&ex, tx);
-            let c = scale.colour(field.values[i * ny + j]);
-            let k = ((v * w + u) * 3) as usize;
+    for (v, &j) in rows.iter().enumerate() {
+        for (u, &i) in cols.iter().enumerate() {
+            let x = field.values[i * ny + j];
+            let c = if x.is_nan() {
+                missing
+            } else {
+                let t = if span > 0.0 {
+                    (x - scale.lo) / span
+                } else {
+                    0.5
+                };
+                lut[((t * (LUT - 1) as f64).round().clamp(0.0, (LUT - 1) as f64)) as usize]
+            };
+            let k = (v * w as usize + u) * 3;
             buf[k..k + 3].copy_from_slice(&[c.0, c.1, c.2]);
         }
     }

@@ -122,12 +122,25 @@ pub fn write_pictures(
     Ok(written)
 }
 
-/// One picture: a white canvas of [`SIZE`], drawn by `f`, encoded as PNG.
+/// One picture: a white canvas of [`SIZE`], drawn by `f` into an RGB buffer and
+/// encoded as PNG with fast compression (the pictures are flat colour fields, so
+/// heavier compression buys little and costs more than the drawing).
 fn render(path: &Path, font: &'static FontRef<'static>, f: impl FnOnce(&Area) -> Res) -> Res {
-    let root = canvas::Canvas::new(path, SIZE, font).into_drawing_area();
-    root.fill(&WHITE)?;
-    f(&root)?;
-    root.present()?;
+    let mut buf = vec![0u8; (SIZE.0 * SIZE.1 * 3) as usize];
+    {
+        let root = canvas::Canvas::with_buffer(&mut buf, SIZE, font).into_drawing_area();
+        root.fill(&WHITE)?;
+        f(&root)?;
+        root.present()?;
+    }
+    let file = std::fs::File::create(path)?;
+    let mut enc = png::Encoder::new(std::io::BufWriter::new(file), SIZE.0, SIZE.1);
+    enc.set_color(png::ColorType::Rgb);
+    enc.set_depth(png::BitDepth::Eight);
+    enc.set_compression(png::Compression::Fast);
+    let mut writer = enc.write_header()?;
+    writer.write_image_data(&buf)?;
+    writer.finish()?;
     Ok(())
 }
 
