@@ -104,7 +104,18 @@ pub fn quadratic(a: C64, b: C64, c: C64) -> (C64, C64) {
 
 /// Largest root modulus of a polynomial.
 pub fn max_root_modulus(c: &[C64]) -> Result<f64, LinalgError> {
-    Ok(roots(c)?.iter().map(|z| z.norm()).fold(0.0, f64::max))
+    // degrees 0–2 (one- and two-step methods) without allocating: the per-mode
+    // radius of a multistep sweep lands here once per eigenvalue
+    let t = trim(c);
+    match t.len() {
+        0 | 1 => Ok(0.0),
+        2 => Ok((t[0] / t[1]).norm()),
+        3 => {
+            let (r1, r2) = quadratic(t[2], t[1], t[0]);
+            Ok(r1.norm().max(r2.norm()))
+        }
+        _ => Ok(roots(t)?.iter().map(|z| z.norm()).fold(0.0, f64::max)),
+    }
 }
 
 /// Positive real roots of a real polynomial, sorted ascending, each polished by Newton.

@@ -85,6 +85,14 @@ impl Method {
     pub fn amplification_radius(&self, z: C64) -> f64 {
         match &self.scheme {
             Scheme::OneStep(os) => os.r(z).norm(),
+            Scheme::Multistep(ms) if ms.alpha.len() <= 3 => {
+                // characteristic polynomial on the stack (hot loop of the sweep)
+                let mut c = [C64::new(0.0, 0.0); 3];
+                for (cj, (a, b)) in c.iter_mut().zip(ms.alpha.iter().zip(&ms.beta)) {
+                    *cj = C64::new(*a, 0.0) - z * b;
+                }
+                crate::linalg::poly::max_root_modulus(&c[..ms.alpha.len()]).unwrap_or(f64::NAN)
+            }
             Scheme::Multistep(ms) => {
                 crate::linalg::poly::max_root_modulus(&ms.characteristic(z)).unwrap_or(f64::NAN)
             }
