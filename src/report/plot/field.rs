@@ -168,18 +168,15 @@ fn line(root: &Area, grid: &Grid, spec: &Spec) -> Res {
         .y_label_area_size(86)
         .build_cartesian_2d(style::Ticked::theta(), style::Ticked::new(lo..hi, ticks))?;
     let fmt_y = |v: &f64| style::tick_label(*v, step, largest);
-    chart
-        .configure_mesh()
-        .x_desc(AXIS_1D)
-        .y_desc(spec.quantity)
-        .x_label_formatter(&style::theta_label)
-        .y_label_formatter(&fmt_y)
-        .label_style(style::text(15.0, style::INK))
-        .axis_desc_style(style::text(17.0, style::INK))
-        .axis_style(style::INK)
-        .bold_line_style(style::RULE.stroke_width(1))
-        .light_line_style(TRANSPARENT)
-        .draw()?;
+    style::house_mesh(
+        chart
+            .configure_mesh()
+            .x_desc(AXIS_1D)
+            .y_desc(spec.quantity)
+            .x_label_formatter(&style::theta_label)
+            .y_label_formatter(&fmt_y),
+    )
+    .draw()?;
     if let Some(level) = level.filter(|l| (lo..=hi).contains(l)) {
         for k in 0..60 {
             let a = -PI + 2.0 * PI * k as f64 / 60.0;

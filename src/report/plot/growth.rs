@@ -143,18 +143,15 @@ pub fn draw(root: &Area, case: &Case, r: &Results, g: &GrowthResult) -> Res {
         )?;
     let fmt_x = |v: &f64| style::tick_label(*v, xstep, xmax);
     let fmt_y = |v: &f64| axis.label(*v);
-    chart
-        .configure_mesh()
-        .x_desc("time step n")
-        .y_desc(Y_LABEL)
-        .x_label_formatter(&fmt_x)
-        .y_label_formatter(&fmt_y)
-        .label_style(style::text(15.0, style::INK))
-        .axis_desc_style(style::text(17.0, style::INK))
-        .axis_style(style::INK)
-        .bold_line_style(style::RULE.stroke_width(1))
-        .light_line_style(TRANSPARENT)
-        .draw()?;
+    style::house_mesh(
+        chart
+            .configure_mesh()
+            .x_desc("time step n")
+            .y_desc(Y_LABEL)
+            .x_label_formatter(&fmt_x)
+            .y_label_formatter(&fmt_y),
+    )
+    .draw()?;
     let (px, py) = chart.plotting_area().get_pixel_range();
 
     // ||G^n|| = 1, dashed

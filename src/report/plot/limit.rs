@@ -211,19 +211,16 @@ fn bars(root: &Area, dl: &DirectionalLimit, s: &Series) -> Res {
         }
     };
     let fmt_y = |v: &f64| style::tick_label(*v, step, top);
-    chart
-        .configure_mesh()
-        .disable_x_mesh()
-        .x_label_formatter(&fmt_x)
-        .y_label_formatter(&fmt_y)
-        .y_desc(s.quantity)
-        .x_desc("wave direction")
-        .label_style(style::text(15.0, style::INK))
-        .axis_desc_style(style::text(17.0, style::INK))
-        .axis_style(style::INK)
-        .bold_line_style(style::RULE.stroke_width(1))
-        .light_line_style(TRANSPARENT)
-        .draw()?;
+    style::house_mesh(
+        chart
+            .configure_mesh()
+            .disable_x_mesh()
+            .x_label_formatter(&fmt_x)
+            .y_label_formatter(&fmt_y)
+            .y_desc(s.quantity)
+            .x_desc("wave direction"),
+    )
+    .draw()?;
     for (i, v) in s.values.iter().enumerate().take(2) {
         let c = 0.5 + i as f64;
         if v.is_finite() {
@@ -291,18 +288,15 @@ fn scatter(root: &Area, dl: &DirectionalLimit, s: &Series) -> Res {
         )?;
     let fmt_x = |v: &f64| format!("{v:.0}°");
     let fmt_y = |v: &f64| style::tick_label(*v, step, top);
-    chart
-        .configure_mesh()
-        .x_label_formatter(&fmt_x)
-        .y_label_formatter(&fmt_y)
-        .y_desc(s.quantity)
-        .x_desc("azimuth of the wave direction, atan2(θy, θx)")
-        .label_style(style::text(15.0, style::INK))
-        .axis_desc_style(style::text(17.0, style::INK))
-        .axis_style(style::INK)
-        .bold_line_style(style::RULE.stroke_width(1))
-        .light_line_style(TRANSPARENT)
-        .draw()?;
+    style::house_mesh(
+        chart
+            .configure_mesh()
+            .x_label_formatter(&fmt_x)
+            .y_label_formatter(&fmt_y)
+            .y_desc(s.quantity)
+            .x_desc("azimuth of the wave direction, atan2(θy, θx)"),
+    )
+    .draw()?;
     let elevation = Scale {
         lo: -90.0,
         hi: 90.0,
