@@ -249,6 +249,23 @@ pub fn wrap(s: &str, width: usize) -> Vec<String> {
     lines
 }
 
+/// The house mesh: tick labels, axis titles and axis lines in ink, bold grid
+/// lines as light rules, no minor grid lines.
+pub fn house_mesh<'m, 'a, 'b, X, Y, DB>(
+    mesh: &'m mut plotters::chart::MeshStyle<'a, 'b, X, Y, DB>,
+) -> &'m mut plotters::chart::MeshStyle<'a, 'b, X, Y, DB>
+where
+    X: Ranged<ValueType: std::fmt::Debug>,
+    Y: Ranged<ValueType: std::fmt::Debug>,
+    DB: DrawingBackend,
+{
+    mesh.label_style(text(15.0, INK))
+        .axis_desc_style(text(17.0, INK))
+        .axis_style(INK)
+        .bold_line_style(RULE.stroke_width(1))
+        .light_line_style(TRANSPARENT)
+}
+
 #[cfg(test)]
 mod tests {
     use super::*;
@@ -283,21 +300,4 @@ mod tests {
         assert_eq!(trimmed(2.0e-7, 3), "2×10⁻⁷");
         assert_eq!(trimmed(450.0, 3), "450");
     }
-}
-
-/// The house mesh: tick labels, axis titles and axis lines in ink, bold grid
-/// lines as light rules, no minor grid lines.
-pub fn house_mesh<'m, 'a, 'b, X, Y, DB>(
-    mesh: &'m mut plotters::chart::MeshStyle<'a, 'b, X, Y, DB>,
-) -> &'m mut plotters::chart::MeshStyle<'a, 'b, X, Y, DB>
-where
-    X: Ranged<ValueType: std::fmt::Debug>,
-    Y: Ranged<ValueType: std::fmt::Debug>,
-    DB: DrawingBackend,
-{
-    mesh.label_style(text(15.0, INK))
-        .axis_desc_style(text(17.0, INK))
-        .axis_style(INK)
-        .bold_line_style(RULE.stroke_width(1))
-        .light_line_style(TRANSPARENT)
 }
