@@ -14,6 +14,7 @@
 pub mod analysis;
 pub mod case;
 pub mod describe;
+pub mod destination;
 pub mod linalg;
 pub mod operator;
 pub mod physics;

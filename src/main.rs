@@ -5,6 +5,7 @@
 use clap::{Parser, Subcommand, ValueEnum};
 use kgain::analysis::{self, Options};
 use kgain::case::Case;
+use kgain::destination::{CommitError, Destination, DestinationError};
 use kgain::report;
 use kgain::sample::Par;
 use std::io::{IsTerminal, Write};
@@ -101,6 +102,15 @@ fn main() -> ExitCode {
     }
 }
 
+/// A refused destination is the user's to fix (exit 2); anything else exit 1.
+fn destination(e: DestinationError) -> Failure {
+    if e.is_refusal() {
+        Failure::Input(e.to_string())
+    } else {
+        Failure::Other(e.to_string())
+    }
+}
+
 /// Writes to stdout; a closed pipe is a normal end.
 fn emit(text: &str) {
     let mut out = std::io::stdout().lock();
@@ -143,16 +153,6 @@ fn run(cli: Cli) -> Result<(), Failure> {
             json,
         } => {
             let case = Case::load(&case, &set).map_err(|e| Failure::Input(e.to_string()))?;
-            let out = out.unwrap_or_else(|| PathBuf::from("output").join(&case.name));
-            report::check_destination(&out, &case, force)
-                .map_err(|e| Failure::Input(e.to_string()))?;
-            let need = case.memory_estimate();
-            if !quiet && need > 512 << 20 {
-                eprintln!(
-                    "kgain: this scan needs about {:.1} GiB of memory",
-                    need as f64 / (1u64 << 30) as f64
-                );
-            }
             let opts = Options {
                 par: match threads {
                     Some(0) => return Err(Failure::Input("--threads must be at least 1".into())),
@@ -161,10 +161,24 @@ fn run(cli: Cli) -> Result<(), Failure> {
                 },
                 progress: !quiet && std::io::stderr().is_terminal(),
             };
+            let out = out.unwrap_or_else(|| PathBuf::from("output").join(&case.name));
+            let dest =
+                Destination::claim(&out, report::owner(&case), force).map_err(destination)?;
+            let need = case.memory_estimate();
+            if !quiet && need > 512 << 20 {
+                eprintln!(
+                    "kgain: this scan needs about {:.1} GiB of memory",
+                    need as f64 / (1u64 << 30) as f64
+                );
+            }
             let results = analysis::analyse(&case, &opts)
                 .map_err(|e| Failure::Input(format!("{}: {e}", case.file.display())))?;
-            let written =
-                report::write(&out, &case, &results).map_err(|e| Failure::Other(e.to_string()))?;
+            let written = dest
+                .commit(|dir| report::write_into(dir, &case, &results))
+                .map_err(|e| match e {
+                    CommitError::Write(e) => Failure::Other(e.to_string()),
+                    CommitError::Destination(e) => destination(e),
+                })?;
             if json {
                 let s = report::summary_json(&case, &results);
                 emit(&(serde_json::to_string_pretty(&s).expect("JSON serialises") + "\n"));

@@ -122,7 +122,7 @@ fn run(text: &str) -> (tempfile::TempDir, PathBuf) {
     let c = case(text);
     let r = results(&c);
     let tmp = tempfile::tempdir().expect("temp dir");
-    let out = kgain::report::write(&tmp.path().join("out"), &c, &r).expect("report written");
+    let out = kgain::report::write(&tmp.path().join("out"), &c, &r, false).expect("report written");
     (tmp, out)
 }
 

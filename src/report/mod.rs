@@ -1,10 +1,9 @@
 //! The output folder: NPY arrays, manifest.json, summary.json, PNG pictures,
 //! and the human summary printed by `kgain run`.
 //!
-//! The folder is checked before any computation ([`check_destination`]) and
-//! written atomically: everything goes into a temporary sibling folder that is
-//! renamed into place at the end, so a failed run leaves nothing half-written and
-//! an existing folder from another case is never replaced without `--force`.
+//! The folder itself — which paths may be written, the lock, the atomic swap,
+//! the inventory of checksums — is [`crate::destination`]'s; this module fills a
+//! fresh folder ([`write_into`]).
 
 mod arrays;
 pub mod plot;
@@ -13,6 +12,9 @@ mod text;
 
 use crate::analysis::Results;
 use crate::case::Case;
+use crate::destination::marker::Owner;
+use crate::destination::{CommitError, Destination, DestinationError};
+use serde_json::Value;
 use std::path::{Path, PathBuf};
 
 pub use summary::summary_json;
@@ -21,14 +23,6 @@ pub use text::human_summary;
 /// Errors while writing the output folder.
 #[derive(Debug, thiserror::Error)]
 pub enum ReportError {
-    /// The destination holds something that is not this case's output.
-    #[error("{path}: the folder exists and {why}; pass --force to replace it")]
-    Exists {
-        /// The folder.
-        path: String,
-        /// Why it is not ours to replace.
-        why: String,
-    },
     /// A file-system error.
     #[error("{path}: {source}")]
     Io {
@@ -70,79 +64,55 @@ pub fn case_identity(case: &Case) -> String {
         .to_string()
 }
 
-/// Refuses a destination that exists and is not an earlier output of this case,
-/// unless `force`. Called before the sweep.
-pub fn check_destination(out: &Path, case: &Case, force: bool) -> Result<(), ReportError> {
-    if force || !out.exists() {
-        return Ok(());
-    }
-    let refuse = |why: &str| {
-        Err(ReportError::Exists {
-            path: out.display().to_string(),
-            why: why.to_string(),
-        })
-    };
-    if !out.is_dir() {
-        return refuse("is not a folder");
-    }
-    let Ok(text) = std::fs::read_to_string(out.join("summary.json")) else {
-        return refuse("is not a kgain output folder (no summary.json)");
-    };
-    let prev: serde_json::Value = serde_json::from_str(&text).unwrap_or_default();
-    let same = prev["name"].as_str() == Some(case.name.as_str())
-        && prev["case_file"].as_str() == Some(case_identity(case).as_str());
-    if same {
-        Ok(())
-    } else {
-        refuse("holds the output of another case")
+/// Who wrote an output: the case's name and its file.
+pub fn owner(case: &Case) -> Owner {
+    Owner {
+        name: case.name.clone(),
+        source: case_identity(case),
     }
 }
 
-/// Writes the whole output folder atomically; returns the folder written.
-pub fn write(out: &Path, case: &Case, results: &Results) -> Result<PathBuf, ReportError> {
-    let parent = out
-        .parent()
-        .filter(|p| !p.as_os_str().is_empty())
-        .unwrap_or(Path::new("."));
-    std::fs::create_dir_all(parent).map_err(io(parent))?;
-    let leaf = out
-        .file_name()
-        .map(|s| s.to_string_lossy().into_owned())
-        .unwrap_or_else(|| case.name.clone());
-    let tmp = parent.join(format!(".{leaf}.tmp-{}", std::process::id()));
-    if tmp.exists() {
-        std::fs::remove_dir_all(&tmp).map_err(io(&tmp))?;
-    }
-    std::fs::create_dir_all(&tmp).map_err(io(&tmp))?;
-    let result = (|| {
-        let mut manifest = arrays::write_arrays(&tmp, case, results)?;
-        let pictures = plot::write_pictures(&tmp, case, results)?;
-        manifest["pictures"] = pictures
-            .iter()
-            .filter_map(|p| p.file_name().map(|f| f.to_string_lossy().into_owned()))
-            .collect::<Vec<_>>()
-            .into();
-        let summary = summary_json(case, results);
-        let write_json = |name: &str, v: &serde_json::Value| {
-            let p = tmp.join(name);
-            let s = serde_json::to_string_pretty(v).expect("JSON values serialise");
-            std::fs::write(&p, s + "\n").map_err(io(&p))
-        };
-        write_json("manifest.json", &manifest)?;
-        write_json("summary.json", &summary)?;
-        Ok(())
-    })();
-    if let Err(e) = result {
-        let _ = std::fs::remove_dir_all(&tmp);
-        return Err(e);
-    }
-    if out.exists() {
-        let old = parent.join(format!(".{leaf}.old-{}", std::process::id()));
-        std::fs::rename(out, &old).map_err(io(out))?;
-        std::fs::rename(&tmp, out).map_err(io(out))?;
-        let _ = std::fs::remove_dir_all(&old);
-    } else {
-        std::fs::rename(&tmp, out).map_err(io(out))?;
-    }
-    Ok(out.to_path_buf())
+/// Writes every output file of the results into the folder `dir` (which exists
+/// and is empty) except `manifest.json`, whose content it returns: the caller's
+/// [`Destination`] completes it with the file inventory and writes it.
+pub fn write_into(dir: &Path, case: &Case, results: &Results) -> Result<Value, ReportError> {
+    let mut manifest = arrays::write_arrays(dir, case, results)?;
+    let pictures = plot::write_pictures(dir, case, results)?;
+    manifest["pictures"] = pictures
+        .iter()
+        .filter_map(|p| p.file_name().map(|f| f.to_string_lossy().into_owned()))
+        .collect::<Vec<_>>()
+        .into();
+    let summary = summary_json(case, results);
+    let p = dir.join("summary.json");
+    let s = serde_json::to_string_pretty(&summary).expect("JSON values serialise");
+    std::fs::write(&p, s + "\n").map_err(io(&p))?;
+    Ok(manifest)
+}
+
+/// Claims `out` (refusing a folder kgain did not write, or another case's output
+/// unless `force`) and writes the results into it; returns the folder written.
+pub fn write(
+    out: &Path,
+    case: &Case,
+    results: &Results,
+    force: bool,
+) -> Result<PathBuf, WriteError> {
+    let dest = Destination::claim(out, owner(case), force)?;
+    dest.commit(|dir| write_into(dir, case, results))
+        .map_err(|e| match e {
+            CommitError::Write(e) => WriteError::Report(e),
+            CommitError::Destination(e) => WriteError::Destination(e),
+        })
+}
+
+/// An error of [`write`].
+#[derive(Debug, thiserror::Error)]
+pub enum WriteError {
+    /// The destination was refused or could not be swapped.
+    #[error(transparent)]
+    Destination(#[from] DestinationError),
+    /// A file could not be written.
+    #[error(transparent)]
+    Report(#[from] ReportError),
 }
