@@ -1,12 +1,33 @@
 #!/usr/bin/env python3
-"""Side-by-side whole-process timing of kgain against the NumPy peer script.
+"""Side-by-side whole-process comparison of kgain with our NumPy peer (bench/numpy_peer.py).
 
-Runs each pair of commands alternately (A B A B ...) several times, reports the
-median wall time of each and the ratio, and checks that the results agree:
-  map:   kgain radius map vs `peer_sweep.py radius --points N` (numpy.allclose, atol 1e-9)
-  limit: kgain Courant limit vs `peer_sweep.py limit --points 129` and the closed form.
-Usage: python3 bench/compare.py [--runs 5] [--points 513]
-Needs target/release/kgain (cargo build --release) and ../shared/bench/peer_sweep.py.
+Both analyse the linearised 2-D Euler case of bench/peer-euler2d.toml (C4 central differences,
+classical RK4). For each task the two commands run alternately (kgain, peer, kgain, peer, ...)
+after one warm-up pair; the table gives the median wall time of each, the median peer/kgain
+ratio with its min and max over the pairs, and the peak resident memory of each process.
+
+Tasks and agreement checks:
+  radius  kgain's radius map vs `numpy_peer.py radius` on N x N (numpy.allclose, atol 1e-9);
+  limit   kgain's Courant limit vs the closed form 2 sqrt(2) (|u| + c) / (M (|u + v| + c sqrt(2)))
+          (M the largest C4 modified wavenumber, RK4's imaginary-axis limit 2 sqrt(2)) to 1e-9,
+          and vs the peer's grid bisection: the peer's value must equal the same closed form
+          restricted to the grid nodes (to 1e-9) and can only lie above kgain's exact value;
+  growth  kgain's envelope max ||G^n||_2 (identity norm: scan.weights = [1, 1, 1, 1]) vs
+          `numpy_peer.py growth` (relative 1e-9).
+
+Peak memory: each command runs under GNU time (`/usr/bin/time -f %M -o FILE`), which reports the
+peak resident set size of that process alone. Without /usr/bin/time the column says n/a: the
+rusage Python can read itself is no substitute, because Linux carries the parent's peak RSS into
+a child across fork and exec (a child's ru_maxrss from os.wait4 starts at compare.py's own RSS,
+and getrusage(RUSAGE_CHILDREN).ru_maxrss is a maximum over all children, not a sum).
+Wall times are taken around the wrapped command, so both sides carry GNU time's own start-up
+(about a millisecond); the peer's include the Python start and the numpy import, as a user sees.
+
+Usage: python3 bench/compare.py [--runs 5] [--points 513] [--limit-points 129]
+                                [--growth-points 257] [--steps 100] [--threads 0]
+                                [--only radius,limit,growth|all]
+Needs target/release/kgain (cargo build --release) and numpy; nothing outside the repository.
+Exits 1 when any agreement check fails.
 """
 import argparse
 import json
@@ -21,53 +42,207 @@ import numpy as np
 
 ROOT = os.path.dirname(os.path.dirname(os.path.abspath(__file__)))
 KGAIN = os.path.join(ROOT, "target", "release", "kgain")
-PEER = os.path.join(ROOT, "..", "shared", "bench", "peer_sweep.py")
+PEER = os.path.join(ROOT, "bench", "numpy_peer.py")
 CASE = os.path.join(ROOT, "bench", "peer-euler2d.toml")
-CLOSED = 1.4999401157  # 2*sqrt(2) / (M (u + v + sqrt 2)) * (|u| + c), M = max C4 modified wavenumber
+TASKS = ("radius", "limit", "growth")
+
+# The case's physics, restated here so the closed forms do not depend on the peer's code.
+VELOCITY = np.array([0.5, 0.2])
+SOUND_SPEED = 1.0  # sqrt(gamma p / rho) with rho = 1, p = 1/gamma
+RK4_IMAGINARY_LIMIT = 2.0 * np.sqrt(2.0)  # |R(iy)| <= 1 iff |y| <= 2 sqrt(2) (common practice)
+
+
+def c4_wavenumber(theta):
+    return (8.0 * np.sin(theta) - np.sin(2.0 * theta)) / 6.0
+
+
+def c4_wavenumber_max():
+    """Largest C4 modified wavenumber: k'(t) = (4 cos t - 2 cos^2 t + 1) / 3 = 0 at
+    cos t = 1 - sqrt(3/2), so M = sin t (8 - 2 cos t) / 6."""
+    cos_t = 1.0 - np.sqrt(1.5)
+    return np.sqrt(1.0 - cos_t**2) * (8.0 - 2.0 * cos_t) / 6.0
+
+
+def courant_limit(largest_frequency):
+    """RK4 on a purely imaginary spectrum: dt |lambda| <= 2 sqrt(2) with dt = C h / (|u| + c), h = 1.
+    `largest_frequency` is max |lambda| h; the eigenvalues of k_x A + k_y B are
+    u.k (twice) and u.k +- c |k|, so it is max of |u.k| + c |k|."""
+    return RK4_IMAGINARY_LIMIT * (np.linalg.norm(VELOCITY) + SOUND_SPEED) / largest_frequency
+
+
+def closed_form_limit():
+    m = c4_wavenumber_max()  # worst wavevector: k = (M, M), both components the sign of u and v
+    return courant_limit(m * abs(VELOCITY.sum()) + SOUND_SPEED * m * np.sqrt(2.0))
+
+
+def grid_limit(points):
+    """The same closed form with the maximum taken over the grid nodes only."""
+    k = c4_wavenumber(np.linspace(-np.pi, np.pi, points))
+    kx, ky = k[:, None], k[None, :]
+    freq = np.abs(VELOCITY[0] * kx + VELOCITY[1] * ky) + SOUND_SPEED * np.hypot(kx, ky)
+    return courant_limit(freq.max())
+
+
+GNU_TIME = "/usr/bin/time"
 
 
 def timed(cmd):
-    t0 = time.perf_counter()
-    out = subprocess.run(cmd, check=True, capture_output=True, text=True).stdout
-    return time.perf_counter() - t0, out
+    """Runs one command to completion; returns (seconds, peak RSS in MiB or None, stdout)."""
+    with tempfile.TemporaryDirectory() as tmp:
+        rss_file = os.path.join(tmp, "rss")
+        wrapped = [GNU_TIME, "-f", "%M", "-o", rss_file, *cmd] if os.path.exists(GNU_TIME) else cmd
+        t0 = time.perf_counter()
+        proc = subprocess.run(wrapped, capture_output=True, text=True)
+        seconds = time.perf_counter() - t0
+        if proc.returncode != 0:
+            sys.exit(f"command failed ({proc.returncode}): {' '.join(cmd)}\n{proc.stderr}")
+        rss = None
+        if wrapped is not cmd:
+            with open(rss_file) as f:
+                rss = int(f.read().split()[-1]) / 1024.0  # GNU time's %M is in KiB
+        return seconds, rss, proc.stdout
 
 
-def pair(name, a, b, runs):
-    ta, tb = [], []
-    timed(a), timed(b)  # warm-up
+def alternate(a, b, runs):
+    """Warm-up pair, then `runs` alternating pairs. Returns per-command times, peaks, last stdout."""
+    timed(a), timed(b)
+    rows = {"kgain": ([], []), "peer": ([], [])}
+    last = {}
     for _ in range(runs):
-        ta.append(timed(a)[0])
-        tb.append(timed(b)[0])
-    ma, mb = statistics.median(ta), statistics.median(tb)
-    ratios = sorted(y / x for x, y in zip(ta, tb))
-    print(f"{name:<34} kgain {ma:8.3f} s   peer {mb:8.3f} s   peer/kgain median {statistics.median(ratios):7.1f}x"
-          f"  (min {ratios[0]:.1f}x, max {ratios[-1]:.1f}x)")
+        for name, cmd in (("kgain", a), ("peer", b)):
+            sec, rss, out = timed(cmd)
+            rows[name][0].append(sec)
+            rows[name][1].append(rss)
+            last[name] = out
+    return rows, last
+
+
+def kgain_cmd(out, threads, *sets):
+    cmd = [KGAIN, "run", CASE, "--out", out, "--force", "--quiet"]
+    for s in sets:
+        cmd += ["--set", s]
+    return cmd + ([] if threads == 0 else ["--threads", str(threads)])
+
+
+def peer_cmd(*args):
+    return [sys.executable, PEER, *args]
+
+
+def task_radius(a, tmp):
+    n = a.points
+    k = kgain_cmd(os.path.join(tmp, "rk"), a.threads, f"scan.points=[{n},{n}]", 'scan.analyses=["radius"]')
+    p = peer_cmd("radius", "--points", str(n), "--out", os.path.join(tmp, "rp"))
+    rows, _ = alternate(k, p, a.runs)
+    ours = np.load(os.path.join(tmp, "rk", "radius.npy"))
+    peer = np.load(os.path.join(tmp, "rp", "radius.npy"))
+    same_shape = ours.shape == peer.shape
+    diff = np.abs(ours - peer).max() if same_shape else np.inf
+    ok = same_shape and np.allclose(ours, peer, rtol=0, atol=1e-9)
+    return f"radius map {n}x{n}", rows, [(ok, f"maps agree (atol 1e-9): max diff {diff:.1e}")]
+
+
+def task_limit(a, tmp):
+    n = a.limit_points
+    out = os.path.join(tmp, "lk")
+    k = kgain_cmd(out, a.threads, f"scan.points=[{n},{n}]", 'scan.analyses=["limit"]')
+    p = peer_cmd("limit", "--points", str(n))
+    rows, last = alternate(k, p, a.runs)
+    with open(os.path.join(out, "summary.json")) as f:
+        got = json.load(f)["limit"]["courant_max"]
+    peer = json.loads(last["peer"])["courant_max"]
+    closed, on_grid = closed_form_limit(), grid_limit(n)
+    both = got is not None and peer is not None
+    nan = float("nan")
+    checks = [
+        (got is not None and abs(got - closed) <= 1e-9 * closed,
+         f"kgain {number(got)} vs closed form {closed:.10f}: error {abs((got or nan) - closed):.1e}"),
+        (peer is not None and abs(peer - on_grid) <= 1e-9 * on_grid,
+         f"peer {number(peer)} vs closed form on the {n}^2 nodes {on_grid:.10f}:"
+         f" error {abs((peer or nan) - on_grid):.1e}"),
+        (both and peer >= got * (1 - 1e-9),
+         f"peer's grid bisection lies above kgain's exact limit by {(peer - got) if both else nan:.1e}"
+         " (the grid misses the worst wavevector)"),
+    ]
+    return f"Courant limit ({n}x{n} grid)", rows, checks
+
+
+def task_growth(a, tmp):
+    n, s = a.growth_points, a.steps
+    k = kgain_cmd(os.path.join(tmp, "gk"), a.threads, f"scan.points=[{n},{n}]", f"scan.steps={s}",
+                  'scan.analyses=["growth"]', "scan.weights=[1,1,1,1]")
+    p = peer_cmd("growth", "--points", str(n), "--steps", str(s), "--out", os.path.join(tmp, "gp"))
+    rows, _ = alternate(k, p, a.runs)
+    ours = np.load(os.path.join(tmp, "gk", "growth.npy"))
+    peer = np.load(os.path.join(tmp, "gp", "growth.npy"))
+    same_shape = ours.shape == peer.shape
+    rel = (np.abs(ours - peer) / np.maximum(np.abs(peer), 1e-300)).max() if same_shape else np.inf
+    ok = same_shape and rel <= 1e-9
+    return (f"growth envelope {n}x{n}, {s} steps", rows,
+            [(ok, f"envelopes agree (rel 1e-9): max rel diff {rel:.1e}, peak {ours.max():.6f}")])
+
+
+def mib(peaks):
+    return "n/a" if None in peaks else f"{max(peaks):.1f}"
+
+
+def number(x):
+    return "none" if x is None else f"{x:.10f}"
+
+
+def report(results, runs):
+    head = (f"{'task':<34} {'kgain s':>9} {'peer s':>9} {'peer/kgain':>11} {'(min-max)':>14}"
+            f" {'kgain MiB':>10} {'peer MiB':>9}")
+    source = "GNU time %M" if os.path.exists(GNU_TIME) else "n/a: /usr/bin/time not found"
+    print(f"\nmedian of {runs} alternating runs (after one warm-up pair); peak RSS of each process ({source})")
+    print(head)
+    print("-" * len(head))
+    for name, rows, _ in results:
+        tk, rk = rows["kgain"]
+        tp, rp = rows["peer"]
+        ratios = sorted(y / x for x, y in zip(tk, tp))
+        print(f"{name:<34} {statistics.median(tk):9.3f} {statistics.median(tp):9.3f}"
+              f" {statistics.median(ratios):10.1f}x {f'{ratios[0]:.1f}-{ratios[-1]:.1f}x':>14}"
+              f" {mib(rk):>10} {mib(rp):>9}")
+    print()
+    failed = 0
+    for name, _, checks in results:
+        for ok, what in checks:
+            failed += not ok
+            print(f"{'ok  ' if ok else 'FAIL'} {name}: {what}")
+    return failed
+
+
+def parse():
+    ap = argparse.ArgumentParser(description="kgain vs bench/numpy_peer.py, whole processes side by side")
+    ap.add_argument("--runs", type=int, default=5, help="alternating pairs per task (default 5)")
+    ap.add_argument("--points", type=int, default=513, help="radius map grid per axis (default 513)")
+    ap.add_argument("--limit-points", type=int, default=129, help="Courant limit grid per axis (default 129)")
+    ap.add_argument("--growth-points", type=int, default=257, help="growth envelope grid per axis (default 257)")
+    ap.add_argument("--steps", type=int, default=100, help="growth envelope horizon (default 100)")
+    ap.add_argument("--threads", type=int, default=0, help="kgain threads (0: all cores)")
+    ap.add_argument("--only", default="all", help="comma-separated subset of radius,limit,growth, or all")
+    a = ap.parse_args()
+    chosen = TASKS if a.only == "all" else tuple(t.strip() for t in a.only.split(",") if t.strip())
+    unknown = [t for t in chosen if t not in TASKS]
+    if unknown or not chosen:
+        ap.error(f"--only: unknown task(s) {unknown}; choose from {','.join(TASKS)} or all")
+    if a.runs < 1 or min(a.points, a.limit_points, a.growth_points) < 2 or a.steps < 0 or a.threads < 0:
+        ap.error("--runs >= 1, grid points >= 2, --steps >= 0 and --threads >= 0 are required")
+    a.tasks = [t for t in TASKS if t in chosen]
+    return a
 
 
 def main():
-    ap = argparse.ArgumentParser()
-    ap.add_argument("--runs", type=int, default=5)
-    ap.add_argument("--points", type=int, default=513)
-    ap.add_argument("--threads", type=int, default=0, help="kgain threads (0: all cores)")
-    a = ap.parse_args()
-    thr = [] if a.threads == 0 else ["--threads", str(a.threads)]
+    a = parse()
+    if not os.path.exists(KGAIN):
+        sys.exit(f"build kgain first: {KGAIN} not found (cargo build --release)")
+    run = {"radius": task_radius, "limit": task_limit, "growth": task_growth}
     with tempfile.TemporaryDirectory() as tmp:
-        kmap = [KGAIN, "run", CASE, "--out", os.path.join(tmp, "k"), "--force", "--quiet",
-                "--set", f"scan.points=[{a.points},{a.points}]", "--set", 'scan.analyses=["radius"]'] + thr
-        pmap = [sys.executable, PEER, "radius", "--points", str(a.points), "--out", os.path.join(tmp, "p")]
-        pair(f"radius map {a.points}x{a.points}", kmap, pmap, a.runs)
-        ours = np.load(os.path.join(tmp, "k", "radius.npy"))
-        peer = np.load(os.path.join(tmp, "p", "radius.npy"))
-        print(f"  maps agree to 1e-9: {np.allclose(ours, peer, rtol=0, atol=1e-9)} (max diff {np.abs(ours - peer).max():.1e})")
-        klim = [KGAIN, "run", CASE, "--out", os.path.join(tmp, "l"), "--force", "--quiet",
-                "--set", 'scan.analyses=["limit"]'] + thr
-        plim = [sys.executable, PEER, "limit", "--points", "129"]
-        pair("Courant limit (129x129 grid)", klim, plim, a.runs)
-        s = json.load(open(os.path.join(tmp, "l", "summary.json")))
-        got = s["limit"]["courant_max"]
-        peer_val = json.loads(timed(plim)[1])["courant_max"]
-        print(f"  kgain {got:.10f}  peer {peer_val:.10f}  closed form {CLOSED:.10f}"
-              f"  (kgain error {abs(got - CLOSED):.1e}, peer error {abs(peer_val - CLOSED):.1e})")
+        results = []
+        for t in a.tasks:
+            print(f"running {t} ...", file=sys.stderr, flush=True)
+            results.append(run[t](a, tmp))
+    sys.exit(1 if report(results, a.runs) else 0)
 
 
 if __name__ == "__main__":

@@ -8,7 +8,8 @@ at a sample of grid wavevectors (`--set scan.matrices=N`). numpy then
   2. rebuilds G from L with its own formula for the time method (Runge-Kutta
      polynomial, Crank-Nicolson solve, multistep companion matrix) and compares;
   3. for the peer case, rebuilds L itself from the C4 modified wavenumber;
-  4. compares kgain's whole radius map with the NumPy peer script's map, and its
+  4. compares kgain's whole radius map on 129^2 with our NumPy peer's
+     (bench/numpy_peer.py, in this repository), and its
      Courant limit with the closed form 2*sqrt(2)/(M (|u.(1,1)| + c sqrt(2))),
      M the largest C4 modified wavenumber (found here by a fine search).
 Exits non-zero on any disagreement.
@@ -23,7 +24,7 @@ import numpy as np
 
 ROOT = os.path.dirname(os.path.dirname(os.path.abspath(__file__)))
 KGAIN = os.path.join(ROOT, "target", "release", "kgain")
-PEER = os.path.join(ROOT, "..", "shared", "bench", "peer_sweep.py")
+PEER = os.path.join(ROOT, "bench", "numpy_peer.py")
 failures = []
 
 
@@ -124,7 +125,7 @@ def peer_case():
         Ln = -1j * (mk(th[:, 0])[:, None, None] * A + mk(th[:, 1])[:, None, None] * B)
         lerr = np.abs(Ln - L).max()
         check(lerr <= 1e-13, f"peer: symbol L rebuilt from the C4 modified wavenumber, max diff {lerr:.2e}")
-        # whole map against the NumPy peer script
+        # whole map against our NumPy peer (bench/numpy_peer.py)
         if os.path.exists(PEER):
             pdir = os.path.join(tmp, "peer")
             subprocess.run([sys.executable, PEER, "radius", "--points", "129", "--out", pdir],
@@ -132,9 +133,9 @@ def peer_case():
             peer = np.load(os.path.join(pdir, "radius.npy"))
             ours = load("radius")
             d = np.abs(peer - ours).max()
-            check(np.allclose(peer, ours, rtol=0, atol=1e-9), f"peer: radius map vs peer_sweep.py, max diff {d:.2e}")
+            check(np.allclose(peer, ours, rtol=0, atol=1e-9), f"peer: radius map vs bench/numpy_peer.py, max diff {d:.2e}")
         else:
-            check(False, f"peer script not found at {PEER}")
+            check(False, f"NumPy peer not found at {PEER}")
         # Courant limit against the closed form
         t = np.linspace(0, np.pi, 200001)
         i = np.argmax(mk(t))
