@@ -1,7 +1,9 @@
 //! Text for `kgain check` (the assembled problem) and `kgain list` (built-ins).
 
+use crate::analysis::Plan;
 use crate::case::Case;
-use crate::operator::{Operator, OperatorError};
+use crate::operator::Operator;
+use crate::problem::Problem;
 use crate::stencil::catalogue;
 use crate::time;
 use std::fmt::Write;
@@ -21,10 +23,11 @@ fn limit_text(x: f64) -> String {
 }
 
 /// The assembled problem of a case, as `kgain check` prints it.
-pub fn check(case: &Case) -> Result<String, OperatorError> {
-    let op = Operator::assemble(&case.system, &case.spacing, &case.space)?;
+pub fn check(c: &Case) -> String {
+    let case = &c.problem;
+    let op = case.operator();
     let mut s = String::new();
-    let _ = writeln!(s, "case          {} ({})", case.name, case.file.display());
+    let _ = writeln!(s, "case          {} ({})", case.name, c.file.display());
     if let Some(d) = &case.description {
         let _ = writeln!(s, "description   {d}");
     }
@@ -34,7 +37,7 @@ pub fn check(case: &Case) -> Result<String, OperatorError> {
         case.dims(),
         case.spacing
     );
-    let _ = writeln!(s, "model         {}", case.system.kind);
+    let _ = writeln!(s, "model         {}", case.system.kind.name());
     let _ = writeln!(s, "variables     {}", case.system.variables.join(", "));
     let _ = writeln!(
         s,
@@ -96,7 +99,7 @@ pub fn check(case: &Case) -> Result<String, OperatorError> {
         let _ = writeln!(
             s,
             "arrangement   {} (cell offsets per variable)",
-            case.space.arrangement
+            case.space.arrangement.name()
         );
         for (v, loc) in case.system.variables.iter().zip(&case.space.locations) {
             let _ = writeln!(s, "  {v:<6} {loc:?}");
@@ -120,26 +123,39 @@ pub fn check(case: &Case) -> Result<String, OperatorError> {
     let eig = crate::linalg::eigenvalues(&crate::linalg::from_matrix(&l), op.m).unwrap_or_default();
     let ev: Vec<String> = eig.iter().map(|z| fmt_c(*z)).collect();
     let _ = writeln!(s, "  eigenvalues: {}", ev.join(", "));
-    let _ = writeln!(s, "{}", resolution_line(case, &op));
+    let (directions, tol) = settings(&c.plan);
+    let _ = writeln!(s, "{}", resolution_line(case, &op, directions, tol));
     let _ = writeln!(
         s,
         "scan          points {:?}, {} directions, tolerance {:e}",
-        case.scan.points, case.scan.directions, case.scan.tolerance
+        c.plan.points, directions, c.plan.tolerance
     );
-    Ok(s)
+    s
+}
+
+/// The direction count and phase tolerance of a plan (defaults when the
+/// analyses using them are not asked for).
+fn settings(plan: &Plan) -> (usize, f64) {
+    let directions = plan
+        .limit
+        .as_ref()
+        .map(|l| l.directions)
+        .or(plan.dispersion.as_ref().map(|d| d.directions))
+        .unwrap_or(180);
+    let tol = plan.dispersion.as_ref().map_or(0.01, |d| d.phase_tolerance);
+    (directions, tol)
 }
 
 /// Points per wavelength each physical mode needs for the case's phase tolerance,
 /// from the dispersion curves (semi-discrete, and with the time method).
-fn resolution_line(case: &Case, op: &Operator) -> String {
-    use crate::analysis::dispersion;
-    let f = dispersion::Frequencies::new(case, op);
+fn resolution_line(case: &Problem, op: &Operator, directions: usize, tol: f64) -> String {
+    use crate::analysis::dispersion::{curves, frequencies::Frequencies};
+    let f = Frequencies::new(case, op);
     let dt = case.dt();
-    let dirs = dispersion::curve_directions(case.dims(), case.scan.directions);
-    let curves: Vec<_> = dirs.iter().map(|n| dispersion::curve(&f, n, dt)).collect();
-    let names = dispersion::mode_names(&case.system);
-    let tol = case.scan.phase_tolerance;
-    let res = dispersion::worst_resolution(&curves, names.len(), tol);
+    let dirs = curves::curve_directions(case.dims(), directions);
+    let curves_: Vec<_> = dirs.iter().map(|n| curves::curve(&f, n, dt)).collect();
+    let names = &case.system.mode_names;
+    let res = curves::worst_resolution(&curves_, names.len(), tol);
     let parts: Vec<String> = names
         .iter()
         .zip(&res)
@@ -166,32 +182,9 @@ fn resolution_line(case: &Case, op: &Operator) -> String {
 
 /// Built-in models.
 pub fn list_models() -> String {
-    let mut s = String::from("models (variables; keys)\n");
-    for (k, v, keys) in [
-        ("advection", "q", "velocity, diffusivity"),
-        (
-            "acoustics",
-            "p, u[, v, w]",
-            "sound_speed, density, velocity",
-        ),
-        (
-            "euler",
-            "rho, u[, v, w], p",
-            "density, velocity, pressure, gamma",
-        ),
-        (
-            "shallow-water",
-            "h, u[, v]",
-            "gravity, depth, velocity, coriolis; arrangements a b c d",
-        ),
-        (
-            "maxwell",
-            "ex ey ez hx hy hz",
-            "speed, polarization (2-D te: ex ey hz, tm: hx hy ez); yee",
-        ),
-        ("linear", "user-named", "variables, flux, diffusion, source"),
-    ] {
-        let _ = writeln!(s, "  {k:<15}{v:<20}{keys}");
+    let mut s = String::from("models (keys of [model]; description)\n");
+    for e in crate::physics::catalogue::all() {
+        let _ = writeln!(s, "  {:<15}{:<40}{}", e.name, e.keys.join(", "), e.summary);
     }
     s
 }

@@ -1,9 +1,12 @@
 //! The `kgain` command line: parses arguments, calls the library, renders errors
 //! once and maps them to exit codes (0 ok, 1 other failure, 2 invalid case or
-//! arguments, 3 unstable with --require-stable).
+//! arguments, 3 unstable with --require-stable). Progress bars, the memory
+//! pre-flight and the thread policy live here ([`cli`]), not in the library.
+
+mod cli;
 
 use clap::{Parser, Subcommand, ValueEnum};
-use kgain::analysis::{self, Options};
+use kgain::analysis::{analyse, Verdict};
 use kgain::case::Case;
 use kgain::destination::{CommitError, Destination, DestinationError};
 use kgain::report;
@@ -137,9 +140,7 @@ fn run(cli: Cli) -> Result<(), Failure> {
         }
         Command::Check { case, set } => {
             let case = Case::load(&case, &set).map_err(|e| Failure::Input(e.to_string()))?;
-            let text = kgain::describe::check(&case)
-                .map_err(|e| Failure::Input(format!("{}: {e}", case.file.display())))?;
-            emit(&text);
+            emit(&kgain::describe::check(&case));
             Ok(())
         }
         Command::Run {
@@ -153,44 +154,42 @@ fn run(cli: Cli) -> Result<(), Failure> {
             json,
         } => {
             let case = Case::load(&case, &set).map_err(|e| Failure::Input(e.to_string()))?;
-            let opts = Options {
-                par: match threads {
-                    Some(0) => return Err(Failure::Input("--threads must be at least 1".into())),
-                    Some(n) => Par::Threads(n),
-                    None => Par::Threads(0),
-                },
-                progress: !quiet && std::io::stderr().is_terminal(),
+            let par = match threads {
+                Some(0) => return Err(Failure::Input("--threads must be at least 1".into())),
+                Some(n) => Par::Threads(n),
+                None => Par::Threads(0),
             };
-            let out = out.unwrap_or_else(|| PathBuf::from("output").join(&case.name));
-            let dest =
-                Destination::claim(&out, report::owner(&case), force).map_err(destination)?;
-            let need = case.memory_estimate();
+            let need = cli::memory::check(&case.problem, &case.plan)
+                .map_err(|e| Failure::Input(case.error_at(e).to_string()))?;
+            let out = out.unwrap_or_else(|| PathBuf::from("output").join(&case.problem.name));
+            let dest = Destination::claim(&out, report::owner(&case.problem), force)
+                .map_err(destination)?;
             if !quiet && need > 512 << 20 {
                 eprintln!(
                     "kgain: this scan needs about {:.1} GiB of memory",
                     need as f64 / (1u64 << 30) as f64
                 );
             }
-            let results = analysis::analyse(&case, &opts)
+            let bars = cli::progress::Bars::new(!quiet && std::io::stderr().is_terminal());
+            let results = analyse(&case.problem, &case.plan, par, &bars)
                 .map_err(|e| Failure::Input(format!("{}: {e}", case.file.display())))?;
             let written = dest
-                .commit(|dir| report::write_into(dir, &case, &results))
+                .commit(|dir| report::write_into(dir, &case.problem, &results))
                 .map_err(|e| match e {
                     CommitError::Write(e) => Failure::Other(e.to_string()),
                     CommitError::Destination(e) => destination(e),
                 })?;
             if json {
-                let s = report::summary_json(&case, &results);
+                let s = report::summary_json(&case.problem, &results);
                 emit(&(serde_json::to_string_pretty(&s).expect("JSON serialises") + "\n"));
             } else if !quiet {
-                emit(&report::human_summary(&case, &results, Some(&written)));
+                emit(&report::human_summary(
+                    &case.problem,
+                    &results,
+                    Some(&written),
+                ));
             }
-            let unstable = results.radius.as_ref().is_some_and(|r| !r.stable)
-                || results.limit.as_ref().is_some_and(|l| {
-                    l.kind == analysis::LimitKind::None
-                        || (l.kind == analysis::LimitKind::Bounded && results.dt > l.dt_max)
-                });
-            if require_stable && unstable {
+            if require_stable && results.verdict == Verdict::Unstable {
                 return Err(Failure::Unstable);
             }
             Ok(())

@@ -1,9 +1,10 @@
 //! Dispersion analysis against published relations (sources beside each check).
 
-use kgain::analysis::{analyse, dispersion::DispersionResult, Options};
+#[path = "support/mod.rs"]
+mod support;
+
+use kgain::analysis::dispersion::DispersionResult;
 use kgain::case::Case;
-use kgain::sample::Par;
-use std::path::Path;
 
 /// A named closed form of one variable.
 type Form1 = (&'static str, fn(f64) -> f64);
@@ -11,15 +12,8 @@ type Form1 = (&'static str, fn(f64) -> f64);
 type Form3 = (&'static str, fn(f64, f64, f64) -> f64);
 
 fn run(text: &str) -> (Case, kgain::analysis::Results) {
-    let case = Case::from_str_with(text, Path::new("disp.toml"), &[]).expect("valid case");
-    let r = analyse(
-        &case,
-        &Options {
-            par: Par::Threads(2),
-            progress: false,
-        },
-    )
-    .expect("runs");
+    let case = support::case(text);
+    let r = support::analyse_par(&case, 2);
     (case, r)
 }
 
@@ -190,7 +184,7 @@ fn yee_fully_discrete_frequencies_satisfy_the_numerical_dispersion_relation() {
         }
         let rhs: f64 = th
             .iter()
-            .zip(&case.spacing)
+            .zip(&case.problem.spacing)
             .map(|(t, h)| ((0.5 * t).sin() / h).powi(2))
             .sum();
         // the two electromagnetic modes (names end in ±1); the static one has ω = 0

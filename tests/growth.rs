@@ -1,12 +1,13 @@
 //! Non-normality and transient growth against closed forms and theorems
 //! (Trefethen & Embree, Spectra and Pseudospectra, 2005; Henrici 1962).
 
-use kgain::analysis::{analyse, growth, Options};
-use kgain::case::Case;
+#[path = "support/mod.rs"]
+mod support;
+
+use kgain::analysis::growth;
 use kgain::sample::Par;
 use nalgebra::DMatrix;
 use num_complex::Complex64 as C64;
-use std::path::Path;
 
 fn c(re: f64, im: f64) -> C64 {
     C64::new(re, im)
@@ -29,15 +30,11 @@ fn jordan_power_norm(lambda: C64, n: usize) -> f64 {
 }
 
 fn run(text: &str, par: Par) -> kgain::analysis::Results {
-    let case = Case::from_str_with(text, Path::new("growth.toml"), &[]).expect("valid case");
-    analyse(
-        &case,
-        &Options {
-            par,
-            progress: false,
-        },
-    )
-    .expect("analysis runs")
+    let case = support::case(text);
+    match par {
+        Par::Seq => support::analyse(&case),
+        Par::Threads(n) => support::analyse_par(&case, n),
+    }
 }
 
 #[test]
@@ -116,7 +113,7 @@ fn leapfrog_at_exactly_its_limit_is_weakly_unstable() {
     let rad = r.radius.unwrap();
     assert!(rad.stable, "every |λ| ≤ 1 + tolerance");
     let g = r.growth.unwrap();
-    assert_eq!(g.class, "weakly-unstable", "{}", g.verdict);
+    assert_eq!(g.class.as_str(), "weakly-unstable", "{}", g.verdict);
     assert!(g.defective_on_circle > 0);
     // linear growth: the envelope at n is about proportional to n
     let e = &g.envelope;
@@ -139,7 +136,7 @@ fn scalar_schemes_are_normal_and_never_grow() {
     assert!(g.departure.iter().all(|d| *d == 0.0));
     assert!(g.condition.iter().all(|k| (*k - 1.0).abs() < 1e-12));
     assert!(g.envelope.iter().all(|v| *v <= 1.0 + 1e-12));
-    assert_eq!(g.class, "stable-normal");
+    assert_eq!(g.class.as_str(), "stable-normal");
 }
 
 const SEDIMENT: &str = r#"
@@ -165,28 +162,21 @@ fn pruned_envelope_equals_the_brute_force_maximum_over_the_grid() {
     // The envelope skips exact 2-norms that cannot win; it must still equal the
     // brute-force max over every node of the exact ‖G^n‖₂ (common practice check
     // of a fast path against its slow reference).
-    let case = Case::from_str_with(SEDIMENT, Path::new("s.toml"), &[]).unwrap();
-    let r = analyse(
-        &case,
-        &Options {
-            par: Par::Threads(2),
-            progress: false,
-        },
-    )
-    .unwrap();
+    let case = support::case(SEDIMENT);
+    let r = support::analyse_par(&case, 2);
     let g = r.growth.unwrap();
-    let op = kgain::operator::Operator::assemble(&case.system, &case.spacing, &case.space).unwrap();
-    let mut brute = vec![0.0f64; case.scan.steps + 1];
+    let op = case.problem.operator();
+    let mut brute = vec![0.0f64; g.steps + 1];
     for th in &r.grid.coords[0] {
-        let gm = kgain::analysis::amplification_at(&case, &op, &[*th], r.dt);
-        for (n, v) in growth::power_norms(&gm, case.scan.steps).iter().enumerate() {
+        let gm = kgain::analysis::amplification_at(&case.problem, &op, &[*th], r.dt);
+        for (n, v) in growth::power_norms(&gm, g.steps).iter().enumerate() {
             brute[n] = brute[n].max(*v);
         }
     }
     for (n, (a, b)) in g.envelope.iter().zip(&brute).enumerate() {
         assert!((a - b).abs() <= 1e-12 * b.max(1.0), "n = {n}: {a} vs {b}");
     }
-    assert_eq!(g.class, "stable-transient-growth");
+    assert_eq!(g.class.as_str(), "stable-transient-growth");
     assert!(
         g.peak.0 > 5.0,
         "a strongly non-normal flux gives large transient growth"
@@ -248,5 +238,5 @@ analyses = ["growth"]
         g.peak.0
     );
     assert!(g.departure.iter().all(|d| *d <= 1e-7));
-    assert_eq!(g.class, "stable-normal");
+    assert_eq!(g.class.as_str(), "stable-normal");
 }

@@ -6,10 +6,13 @@
 //! (an overflowing growth envelope included) leaves gaps or clipped curves
 //! rather than failing.
 
-use kgain::analysis::{analyse, Options, Results};
+#[path = "support/mod.rs"]
+mod support;
+
+use kgain::analysis::growth::Kreiss;
+use kgain::analysis::Results;
 use kgain::case::Case;
 use kgain::report::plot::{write_pictures, SIZE, TITLE_BAND};
-use kgain::sample::Par;
 use std::collections::HashSet;
 use std::path::{Path, PathBuf};
 
@@ -106,15 +109,11 @@ directions = 60
 "#;
 
 fn case(text: &str) -> Case {
-    Case::from_str_with(text, Path::new("x.toml"), &[]).expect("valid case")
+    support::case(text)
 }
 
 fn results(case: &Case) -> Results {
-    let opts = Options {
-        par: Par::Seq,
-        progress: false,
-    };
-    analyse(case, &opts).expect("analysis runs")
+    support::analyse(case)
 }
 
 /// Runs a case through the library into a temporary output folder.
@@ -122,7 +121,8 @@ fn run(text: &str) -> (tempfile::TempDir, PathBuf) {
     let c = case(text);
     let r = results(&c);
     let tmp = tempfile::tempdir().expect("temp dir");
-    let out = kgain::report::write(&tmp.path().join("out"), &c, &r, false).expect("report written");
+    let out = kgain::report::write(&tmp.path().join("out"), &c.problem, &r, false)
+        .expect("report written");
     (tmp, out)
 }
 
@@ -280,7 +280,7 @@ fn non_finite_values_leave_gaps_instead_of_failing() {
                 _ => {}
             }
         }
-        let dl = r.directional.as_mut().expect("directional");
+        let dl = &mut r.limit.as_mut().expect("limit").by_direction;
         for (i, v) in dl.dt.iter_mut().enumerate() {
             match i % 5 {
                 0 => *v = f64::INFINITY,
@@ -299,7 +299,7 @@ fn non_finite_values_leave_gaps_instead_of_failing() {
             }
         }
         let tmp = tempfile::tempdir().expect("temp dir");
-        let files = write_pictures(tmp.path(), &c, &r).expect("pictures drawn");
+        let files = write_pictures(tmp.path(), &c.problem, &r).expect("pictures drawn");
         assert_eq!(files.len(), ALL.len());
         for f in &files {
             assert_looks_like_a_picture(f);
@@ -307,14 +307,14 @@ fn non_finite_values_leave_gaps_instead_of_failing() {
         // nothing finite at all: still a picture, with a note
         let rad = r.radius.as_mut().expect("radius");
         rad.map.iter_mut().for_each(|v| *v = f64::NAN);
-        let dl = r.directional.as_mut().expect("directional");
+        let dl = &mut r.limit.as_mut().expect("limit").by_direction;
         dl.dt.iter_mut().for_each(|v| *v = f64::INFINITY);
         let g = r.growth.as_mut().expect("growth");
         for map in [&mut g.norm, &mut g.departure, &mut g.envelope] {
             map.iter_mut().for_each(|v| *v = f64::NAN);
         }
         g.peak.0 = f64::NAN;
-        let files = write_pictures(tmp.path(), &c, &r).expect("pictures drawn");
+        let files = write_pictures(tmp.path(), &c.problem, &r).expect("pictures drawn");
         for f in &files {
             let p = decode(f);
             assert_eq!((p.width, p.height), SIZE);
@@ -390,7 +390,11 @@ fn growth_picture_clips_infinite_and_nan_envelope_values() {
             g.envelope[1] = 0.0;
             g.envelope[2] = -1.0;
             g.envelope[3] = f64::NEG_INFINITY;
-            g.kreiss = Some((f64::INFINITY, vec![0.0, 0.0]));
+            g.kreiss = Some(Kreiss {
+                lower_bound: f64::INFINITY,
+                wavevector: vec![0.0, 0.0],
+                growth_bound: f64::INFINITY,
+            });
         },
         // a single step, and nothing finite at all
         |r: &mut Results| {
@@ -408,8 +412,8 @@ fn growth_picture_clips_infinite_and_nan_envelope_values() {
     for (k, change) in variants.iter().enumerate() {
         let mut r = base.clone();
         change(&mut r);
-        let files =
-            write_pictures(tmp.path(), &c, &r).unwrap_or_else(|e| panic!("variant {k}: {e}"));
+        let files = write_pictures(tmp.path(), &c.problem, &r)
+            .unwrap_or_else(|e| panic!("variant {k}: {e}"));
         let growth = files
             .iter()
             .find(|f| f.ends_with("growth.png"))
@@ -579,7 +583,7 @@ fn dispersion_picture_without_a_propagating_mode_shows_a_note() {
     let d = r.dispersion.as_ref().expect("dispersion");
     assert!(d.resolution.iter().all(|x| x.0.is_none() && x.1.is_none()));
     let tmp = tempfile::tempdir().expect("temp dir");
-    let files = write_pictures(tmp.path(), &c, &r).expect("pictures drawn");
+    let files = write_pictures(tmp.path(), &c.problem, &r).expect("pictures drawn");
     assert_eq!(files.len(), 1);
     let p = decode(&files[0]);
     assert_eq!((p.width, p.height), SIZE);
@@ -616,12 +620,12 @@ fn dispersion_picture_leaves_gaps_at_nan_and_clips_far_ratios() {
             }
         }
         let tmp = tempfile::tempdir().expect("temp dir");
-        let files = write_pictures(tmp.path(), &c, &r).expect("pictures drawn");
+        let files = write_pictures(tmp.path(), &c.problem, &r).expect("pictures drawn");
         assert_looks_like_a_picture(&files[0]);
         // no requirement at all, but curves: the note stands instead
         let d = r.dispersion.as_mut().expect("dispersion");
         d.resolution.iter_mut().for_each(|x| *x = (None, None, 0));
-        let files = write_pictures(tmp.path(), &c, &r).expect("pictures drawn");
+        let files = write_pictures(tmp.path(), &c.problem, &r).expect("pictures drawn");
         let p = decode(&files[0]);
         assert_eq!((p.width, p.height), SIZE);
     }

@@ -1,31 +1,23 @@
 //! Staggered arrangements and composite time schemes against published limits
 //! and dispersion relations (sources named beside each value).
 
-use kgain::analysis::{analyse, LimitKind, Options};
+#[path = "support/mod.rs"]
+mod support;
+
+use kgain::analysis::LimitKind;
 use kgain::case::Case;
 use kgain::operator::Operator;
-use kgain::sample::Par;
 use kgain::time::composite;
 use num_complex::Complex64 as C64;
 use std::path::Path;
-
-fn case(text: &str) -> Case {
-    Case::from_str_with(text, Path::new("test.toml"), &[]).expect("valid case")
-}
+use support::{analyse, case};
 
 fn courant_limit(text: &str) -> f64 {
     let c = case(text);
-    let r = analyse(
-        &c,
-        &Options {
-            par: Par::Seq,
-            progress: false,
-        },
-    )
-    .expect("analysis runs");
+    let r = analyse(&c);
     let l = r.limit.expect("limit computed");
     assert_eq!(l.kind, LimitKind::Bounded);
-    c.courant_of(l.dt_max).expect("has a wave speed")
+    c.problem.courant_of(l.dt_max).expect("has a wave speed")
 }
 
 fn assert_rel(got: f64, want: f64, rel: f64, what: &str) {
@@ -126,15 +118,9 @@ fn yee_courant_limit_with_unequal_spacing_2d_and_3d() {
             text = text.replace("[\"hx\", \"hy\", \"hz\"]", "[\"hz\"]");
         }
         let c = case(&text);
-        let r = analyse(
-            &c,
-            &Options {
-                par: Par::Seq,
-                progress: false,
-            },
-        )
-        .unwrap();
-        let dt = r.limit.unwrap().dt_max;
+        let r = analyse(&c);
+        let l = r.limit.unwrap();
+        let dt = l.dt_max;
         let want = 1.0 / (3.0e8 * spacing.iter().map(|h| 1.0 / (h * h)).sum::<f64>().sqrt());
         // near-defective eigenvalues at the limit cost about sqrt(eps) in |lambda|
         assert_rel(
@@ -143,9 +129,9 @@ fn yee_courant_limit_with_unequal_spacing_2d_and_3d() {
             1e-6,
             &format!("Yee limit for spacing {spacing:?}"),
         );
-        assert_eq!(
-            r.limit_verified,
-            Some((true, false)),
+        let v = l.verification.expect("a searched limit is verified");
+        assert!(
+            v.stable_below && !v.moved_down,
             "scan below the limit finds no earlier loss"
         );
     }
@@ -157,11 +143,12 @@ fn yee_numerical_dispersion_relation_holds_for_the_leapfrog_eigenvalues() {
     let spacing = [1.0e-3, 1.5e-3, 2.0e-3];
     let c0 = 3.0e8;
     let cs = case(&yee(&spacing, ""));
-    let op = Operator::assemble(&cs.system, &cs.spacing, &cs.space).unwrap();
-    let scheme = cs.method.composite().unwrap();
+    let p = &cs.problem;
+    let op = p.operator();
+    let scheme = p.method.composite().unwrap();
     let dt = 0.9 / (c0 * spacing.iter().map(|h| 1.0 / (h * h)).sum::<f64>().sqrt());
     for theta in [[0.3, -1.1, 2.0], [2.9, 0.2, -0.7], [1.0, 1.0, 1.0]] {
-        let g = composite::amplification(scheme, &cs.system, &op, &cs.spacing, &theta, dt);
+        let g = composite::amplification(scheme, &p.system, &op, &p.spacing, &theta, dt);
         let eig = kgain::linalg::eigenvalues(&kgain::linalg::from_matrix(&g), 6).unwrap();
         let rhs: f64 = theta
             .iter()
@@ -215,17 +202,7 @@ fn lie_splitting_of_upwind_euler_takes_the_smaller_one_dimensional_limit() {
     let base = "[grid]\nspacing = [1.0, 2.0]\n[model]\nkind = \"advection\"\nvelocity = [1.0, 0.5]\n[space]\nfirst = \"upwind1\"\n[time]\nmethod = \"euler\"\ndt = 0.1\n[scan]\npoints = [33, 33]\ndirections = 8\n";
     let dt = |t: &str| {
         let c = case(t);
-        analyse(
-            &c,
-            &Options {
-                par: Par::Seq,
-                progress: false,
-            },
-        )
-        .unwrap()
-        .limit
-        .unwrap()
-        .dt_max
+        analyse(&c).limit.unwrap().dt_max
     };
     let split = base.replace("dt = 0.1", "dt = 0.1\nsplitting = \"lie\"");
     assert_rel(dt(&split), 1.0_f64.min(2.0 / 0.5), 1e-9, "Lie splitting");
@@ -261,13 +238,13 @@ fn staggering_phase_leaves_eigenvalues_unchanged_under_a_shift_of_origin() {
     // DESIGN.md, common practice: moving every variable by the same half cell is a
     // diagonal unitary similarity, so the spectrum of the C-grid symbol is unchanged.
     let c = case(&shallow("c", "leapfrog", ""));
-    let op = Operator::assemble(&c.system, &c.spacing, &c.space).unwrap();
-    let mut shifted = c.space.clone();
+    let op = Operator::assemble(&c.problem.system, &c.problem.spacing, &c.problem.space).unwrap();
+    let mut shifted = c.problem.space.clone();
     for loc in shifted.locations.iter_mut() {
         loc[0] += 0.5;
         loc[1] += 0.5;
     }
-    let op2 = Operator::assemble(&c.system, &c.spacing, &shifted).unwrap();
+    let op2 = Operator::assemble(&c.problem.system, &c.problem.spacing, &shifted).unwrap();
     for theta in [[0.4, -2.2], [3.0, 1.0]] {
         let mut a = kgain::linalg::eigenvalues(&op.symbol(&theta), 3).unwrap();
         let mut b = kgain::linalg::eigenvalues(&op2.symbol(&theta), 3).unwrap();
@@ -329,13 +306,6 @@ fn leapfrog_with_added_dissipation_is_never_stable_on_a_staggered_grid() {
         "arrangement = \"c\"\ndissipation = { order = 4, strength = 0.01 }",
     );
     let c = case(&text);
-    let r = analyse(
-        &c,
-        &Options {
-            par: Par::Seq,
-            progress: false,
-        },
-    )
-    .unwrap();
+    let r = analyse(&c);
     assert_eq!(r.limit.unwrap().kind, LimitKind::None);
 }

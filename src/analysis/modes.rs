@@ -6,11 +6,33 @@ use crate::linalg::dense;
 use nalgebra::DMatrix;
 use num_complex::Complex64 as C64;
 
+/// The measure a worst-case mode explains.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum Measure {
+    /// The largest |λ| of G at the problem's Δt.
+    Radius,
+    /// The largest transient growth.
+    Growth,
+    /// The first mode to go unstable as Δt grows.
+    Limit,
+}
+
+impl Measure {
+    /// The name used in summary.json and file names.
+    pub fn as_str(self) -> &'static str {
+        match self {
+            Measure::Radius => "radius",
+            Measure::Growth => "growth",
+            Measure::Limit => "limit",
+        }
+    }
+}
+
 /// A worst-case mode.
 #[derive(Debug, Clone)]
 pub struct Mode {
-    /// Which measure it explains: "radius", "growth" or "limit".
-    pub kind: &'static str,
+    /// Which measure it explains.
+    pub kind: Measure,
     /// The wavevector θ.
     pub wavevector: Vec<f64>,
     /// Unit vector over the state (all time levels for multistep methods).
@@ -90,7 +112,7 @@ fn direction_text(theta: &[f64], forward: bool) -> String {
 
 /// Builds the description and composition of a mode.
 pub fn finish(
-    kind: &'static str,
+    kind: Measure,
     theta: &[f64],
     vector: Vec<C64>,
     vars: &[String],
@@ -111,9 +133,9 @@ pub fn finish(
         _ => "standing (zero frequency)".to_string(),
     };
     let what = match kind {
-        "radius" => "largest amplification",
-        "growth" => "largest transient growth (optimal initial perturbation)",
-        _ => "first mode to go unstable",
+        Measure::Radius => "largest amplification",
+        Measure::Growth => "largest transient growth (optimal initial perturbation)",
+        Measure::Limit => "first mode to go unstable",
     };
     let description = format!("{what}: mode {motion}, mostly {}", main.join(" and "));
     Mode {
@@ -137,4 +159,75 @@ pub fn eigenpair(a: &DMatrix<C64>, pick: impl Fn(C64) -> f64) -> Option<(C64, Ve
     let y = dense::triangular_eigenvectors(&t);
     let v = &q * y.column(k);
     Some((t[(k, k)], v.iter().copied().collect()))
+}
+
+/// The worst-case mode of every measure that ran: the eigenvector of G for the
+/// largest |λ| at the worst radius node, the optimal perturbation at the growth
+/// peak, the eigenvector of the first mode to leave the stability region at the
+/// limit wavevector. `limit_pick` ranks eigenvalues of L for the last (largest first).
+pub(super) fn worst_modes(
+    ctx: &super::context::Context,
+    r: &super::results::Results,
+    weights: Option<&[f64]>,
+    limit_pick: &dyn Fn(C64) -> f64,
+) -> Vec<Mode> {
+    let dt = r.dt;
+    let vars = &ctx.problem.system.variables;
+    let w = super::norm::NormTransform::new(ctx.problem, weights);
+    let mut modes = Vec::new();
+    if let Some(rad) = &r.radius {
+        let g = ctx.amplification(&rad.wavevector, dt);
+        if let Some((lam, v)) = eigenpair(&g, |z| z.norm()) {
+            let om = -lam.arg() / dt;
+            let v = w.scale_vector(v);
+            modes.push(finish(
+                Measure::Radius,
+                &rad.wavevector,
+                v,
+                vars,
+                lam,
+                Some(om),
+            ));
+        }
+    }
+    if let Some(gr) = r.growth.as_ref().filter(|g| g.peak.0 > 1.0 + 1e-6) {
+        let (_, n, theta) = &gr.peak;
+        let g = w.weighted(ctx.amplification(theta, dt));
+        let (factor, v) = super::growth::optimal_perturbation(&g, *n);
+        let lam = eigenpair(&g, |z| z.norm()).map(|p| p.0);
+        let om = lam.map(|l| -l.arg() / dt);
+        modes.push(finish(
+            Measure::Growth,
+            theta,
+            v,
+            vars,
+            C64::new(factor, 0.0),
+            om,
+        ));
+    }
+    if let Some(l) = r
+        .limit
+        .as_ref()
+        .filter(|l| l.kind == super::limit::LimitKind::Bounded)
+    {
+        let pair = if ctx.is_composite() {
+            let g = ctx.amplification(&l.wavevector, l.dt_max * (1.0 + 1e-6));
+            eigenpair(&g, |z| z.norm()).map(|(lam, v)| (lam, v, -lam.arg() / dt))
+        } else {
+            eigenpair(&ctx.op.symbol_matrix(&l.wavevector), limit_pick)
+                .map(|(mu, v)| (mu, v, -mu.im))
+        };
+        if let Some((val, v, om)) = pair {
+            let v = w.scale_vector(v);
+            modes.push(finish(
+                Measure::Limit,
+                &l.wavevector,
+                v,
+                vars,
+                val,
+                Some(om),
+            ));
+        }
+    }
+    modes
 }

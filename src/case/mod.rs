@@ -1,22 +1,18 @@
-//! Case files: reading, `--set` overrides, and the one conversion from the raw
-//! TOML mirror to a validated [`Case`] in which every name is resolved.
-//!
-//! Errors name the file, the dotted key and, where the key can be found in the
-//! text, its line and column; misspelt names get the nearest valid one as a hint.
+//! Case files: TOML text → a [`Problem`], a [`Plan`] and the file they came
+//! from, and nothing else. The text is read, `--set` overrides are applied to it
+//! (format-preserving), the serde mirror checks structure and unknown keys, and
+//! the problem builder and the plan check every value. Errors name the file, the
+//! dotted key and, where the key can be found in the text, its line and column;
+//! misspelt names get the nearest valid one as a hint.
 
+mod convert;
 mod locate;
-mod model;
 mod raw;
-mod scheme;
-mod suggest;
-mod validate;
 
-use crate::operator::Space;
-use crate::physics::System;
-use crate::time::Method;
+use crate::analysis::Plan;
+use crate::error::{nearest, InputError};
+use crate::problem::Problem;
 use std::path::{Path, PathBuf};
-
-pub use suggest::nearest;
 
 /// An error in a case file or an override; rendered once by the binary (exit 2).
 #[derive(Debug, thiserror::Error)]
@@ -75,115 +71,20 @@ fn hint_text(hint: &Option<String>) -> String {
         .unwrap_or_default()
 }
 
-/// The time step as the case gives it.
-#[derive(Debug, Clone, Copy, PartialEq)]
-pub enum Step {
-    /// Δt directly.
-    Dt(f64),
-    /// The Courant number ν = sΔt/h.
-    Courant(f64),
-}
-
-/// Analyses a case can ask for.
-#[derive(Debug, Clone, Copy, PartialEq, Eq)]
-pub enum Analysis {
-    /// Spectral radius map at the case's Δt.
-    Radius,
-    /// Largest stable Δt, overall and per direction.
-    Limit,
-    /// Non-normality and transient growth.
-    Growth,
-    /// Dispersion and dissipation by mode and direction.
-    Dispersion,
-}
-
-/// Scan settings.
-#[derive(Debug, Clone, PartialEq)]
-pub struct Scan {
-    /// Wavevector samples per axis.
-    pub points: Vec<usize>,
-    /// Number of wave directions.
-    pub directions: usize,
-    /// Transient-growth horizon (kept for later analyses).
-    pub steps: usize,
-    /// |λ| ≤ 1 + tolerance counts as stable.
-    pub tolerance: f64,
-    /// What to compute.
-    pub analyses: Vec<Analysis>,
-    /// How many amplification matrices to write for external cross-checks.
-    pub matrices: usize,
-    /// ε of the ε-pseudospectral radius.
-    pub epsilon: f64,
-    /// Norm weights given in the case (None: the model's energy-like defaults).
-    pub weights: Option<Vec<f64>>,
-    /// Phase-error tolerance of the resolution requirement (default 1%).
-    pub phase_tolerance: f64,
-}
-
-/// A validated case: everything resolved, nothing left as a string to interpret.
+/// A validated case: the problem, the plan and where they came from.
 #[derive(Debug, Clone)]
 pub struct Case {
-    /// Case name (the file stem unless given).
-    pub name: String,
-    /// Free text.
-    pub description: Option<String>,
+    /// The problem (named after the case).
+    pub problem: Problem,
+    /// The analyses the case asks for.
+    pub plan: Plan,
     /// The case file.
     pub file: PathBuf,
-    /// Grid spacing per axis.
-    pub spacing: Vec<f64>,
-    /// The continuous system.
-    pub system: System,
-    /// The spatial scheme.
-    pub space: Space,
-    /// The time method.
-    pub method: Method,
-    /// The time step as given.
-    pub step: Step,
-    /// Scan settings.
-    pub scan: Scan,
+    /// Its text, after `--set` overrides.
+    pub text: String,
 }
 
 impl Case {
-    /// Number of axes.
-    pub fn dims(&self) -> usize {
-        self.spacing.len()
-    }
-
-    /// Reference spacing h = min h_d.
-    pub fn reference_spacing(&self) -> f64 {
-        self.spacing.iter().copied().fold(f64::INFINITY, f64::min)
-    }
-
-    /// Δt of the case.
-    pub fn dt(&self) -> f64 {
-        match self.step {
-            Step::Dt(dt) => dt,
-            Step::Courant(nu) => nu * self.reference_spacing() / self.system.reference_speed,
-        }
-    }
-
-    /// Courant number for a Δt (None when the reference speed is zero).
-    pub fn courant_of(&self, dt: f64) -> Option<f64> {
-        let s = self.system.reference_speed;
-        (s > 0.0).then(|| s * dt / self.reference_spacing())
-    }
-
-    /// Diffusion number r = Δt D_max/h² for a Δt (None without diffusion).
-    pub fn diffusion_number_of(&self, dt: f64) -> Option<f64> {
-        let h = self.reference_spacing();
-        self.system.diffusivity_max.map(|d| dt * d / (h * h))
-    }
-
-    /// Estimated bytes of memory the run needs (working values and outputs).
-    pub fn memory_estimate(&self) -> u128 {
-        validate::memory_estimate(
-            &self.scan,
-            self.system.size(),
-            self.method.levels(),
-            self.dims(),
-        )
-    }
-
     /// Reads, overrides and validates a case file.
     pub fn load(path: &Path, overrides: &[String]) -> Result<Case, CaseError> {
         let file = path.display().to_string();
@@ -232,6 +133,34 @@ impl Case {
                 message,
             }
         })?;
-        validate::validate(raw, &text, path)
+        let located = |e: InputError| located(e, &file, &text);
+        let problem = convert::builder(&raw, path)
+            .and_then(|b| b.build())
+            .map_err(located)?;
+        let plan = convert::plan(&raw.scan, problem.dims()).map_err(located)?;
+        plan.check(&problem).map_err(located)?;
+        Ok(Case {
+            problem,
+            plan,
+            file: path.to_path_buf(),
+            text,
+        })
+    }
+
+    /// An error about one key of this case (for checks made after loading),
+    /// with the key's line and column.
+    pub fn error_at(&self, e: InputError) -> CaseError {
+        located(e, &self.file.display().to_string(), &self.text)
+    }
+}
+
+/// A keyed input error in the case file: with the key's line and column.
+fn located(e: InputError, file: &str, text: &str) -> CaseError {
+    CaseError::Invalid {
+        file: file.to_string(),
+        line: locate::key_position(text, &e.key),
+        key: e.key,
+        message: e.message,
+        hint: e.hint,
     }
 }

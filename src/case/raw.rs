@@ -33,35 +33,13 @@ pub enum OneOrMany<T> {
     Many(Vec<T>),
 }
 
-/// A matrix entry: a real number or [re, im].
-#[derive(Debug, Clone, Copy, Deserialize)]
-#[serde(untagged)]
-pub enum Entry {
-    Real(f64),
-    Complex([f64; 2]),
-}
-
-pub type RawMatrix = Vec<Vec<Entry>>;
-
+/// The `[model]` table: its kind, and the model's own keys, which the model
+/// catalogue reads and checks.
 #[derive(Debug, Clone, Deserialize)]
-#[serde(deny_unknown_fields)]
 pub struct RawModel {
     pub kind: String,
-    pub velocity: Option<Vec<f64>>,
-    pub diffusivity: Option<OneOrMany<f64>>,
-    pub sound_speed: Option<f64>,
-    pub density: Option<f64>,
-    pub pressure: Option<f64>,
-    pub gamma: Option<f64>,
-    pub gravity: Option<f64>,
-    pub depth: Option<f64>,
-    pub coriolis: Option<f64>,
-    pub speed: Option<f64>,
-    pub polarization: Option<String>,
-    pub variables: Option<Vec<String>>,
-    pub flux: Option<Vec<RawMatrix>>,
-    pub diffusion: Option<Vec<RawMatrix>>,
-    pub source: Option<RawMatrix>,
+    #[serde(flatten)]
+    pub rest: toml::Table,
 }
 
 #[derive(Debug, Clone, Default, Deserialize)]

@@ -2,8 +2,9 @@
 //! describes each: file, shape, dtype, dims, coords, units, long_name.
 
 use super::ReportError;
+use crate::analysis::modes::Measure;
 use crate::analysis::Results;
-use crate::case::Case;
+use crate::problem::Problem;
 use ndarray::{ArrayViewD, IxDyn};
 use num_complex::Complex64 as C64;
 use serde_json::{json, Map, Value};
@@ -94,7 +95,6 @@ fn write_dispersion(
     d: &crate::analysis::dispersion::DispersionResult,
     grid_dims: &[&str],
 ) -> Result<(), ReportError> {
-    use crate::analysis::dispersion::{group_ratio, phase_ratio};
     let m = d.names.len();
     let dims = r.grid.points.len();
     let mut shape = r.grid.points.clone();
@@ -138,84 +138,56 @@ fn write_dispersion(
     for key in ["frequency", "frequency_exact"] {
         w.entries[key]["labels"] = names.clone();
     }
-    let per = |f: &dyn Fn(usize, usize) -> f64| -> Vec<f64> {
-        (0..d.numerical.len())
-            .flat_map(|i| (0..m).map(move |j| (i, j)))
-            .map(|(i, j)| f(i, j))
-            .collect()
-    };
-    let scale = |i: usize| {
-        d.exact[i]
-            .iter()
-            .map(|z| z.norm())
-            .fold(0.0, f64::max)
-            .max(1e-300)
-    };
-    let amp = |wn: C64, we: C64, s: f64| {
-        if we.re.abs() <= 1e-9 * s {
-            f64::NAN
-        } else {
-            (wn.im * 2.0 * std::f64::consts::PI / we.re.abs()).exp()
-        }
-    };
-    // damping over one unit of distance travelled at the exact group speed
-    let travel = |wn: C64, ge: &[f64]| {
-        let c = ge.iter().map(|x| x * x).sum::<f64>().sqrt();
-        if c == 0.0 {
-            f64::NAN
-        } else {
-            (wn.im / c).exp()
-        }
-    };
-    let maps: [(&str, Vec<f64>, &'static str); 10] = [
+    let dm = &d.maps;
+    let maps: [(&str, &[f64], &'static str); 10] = [
         (
             "phase_speed_ratio",
-            per(&|i, j| phase_ratio(d.numerical[i][j], d.exact[i][j], scale(i))),
+            &dm.phase_speed_ratio,
             "semi-discrete phase speed over exact phase speed",
         ),
         (
             "phase_speed_ratio_discrete",
-            per(&|i, j| phase_ratio(d.discrete[i][j], d.exact[i][j], scale(i))),
+            &dm.phase_speed_ratio_discrete,
             "fully discrete phase speed over exact phase speed",
         ),
         (
             "group_speed_ratio",
-            per(&|i, j| group_ratio(&d.group[i][j], &d.group_exact[i][j]).0),
+            &dm.group_speed_ratio,
             "semi-discrete group velocity along the exact one, over the exact group speed",
         ),
         (
             "group_angle_error",
-            per(&|i, j| group_ratio(&d.group[i][j], &d.group_exact[i][j]).1),
+            &dm.group_angle_error,
             "angle between semi-discrete and exact group velocities",
         ),
         (
             "group_speed_ratio_discrete",
-            per(&|i, j| group_ratio(&d.group_discrete[i][j], &d.group_exact[i][j]).0),
+            &dm.group_speed_ratio_discrete,
             "fully discrete group velocity along the exact one, over the exact group speed",
         ),
         (
             "group_angle_error_discrete",
-            per(&|i, j| group_ratio(&d.group_discrete[i][j], &d.group_exact[i][j]).1),
+            &dm.group_angle_error_discrete,
             "angle between fully discrete and exact group velocities",
         ),
         (
             "amplitude_per_period",
-            per(&|i, j| amp(d.numerical[i][j], d.exact[i][j], scale(i))),
+            &dm.amplitude_per_period,
             "semi-discrete amplitude factor over one period of the exact wave",
         ),
         (
             "amplitude_per_period_discrete",
-            per(&|i, j| amp(d.discrete[i][j], d.exact[i][j], scale(i))),
+            &dm.amplitude_per_period_discrete,
             "fully discrete amplitude factor over one period of the exact wave",
         ),
         (
             "amplitude_per_unit_travel",
-            per(&|i, j| travel(d.numerical[i][j], &d.group_exact[i][j])),
+            &dm.amplitude_per_unit_travel,
             "semi-discrete amplitude factor over one unit of length travelled at the exact group speed",
         ),
         (
             "amplitude_per_unit_travel_discrete",
-            per(&|i, j| travel(d.discrete[i][j], &d.group_exact[i][j])),
+            &dm.amplitude_per_unit_travel_discrete,
             "fully discrete amplitude factor over one unit of length travelled at the exact group speed",
         ),
     ];
@@ -327,7 +299,7 @@ fn write_dispersion(
 }
 
 /// Writes every array of the results into `dir`; returns manifest.json's content.
-pub fn write_arrays(dir: &Path, case: &Case, r: &Results) -> Result<Value, ReportError> {
+pub fn write_arrays(dir: &Path, problem: &Problem, r: &Results) -> Result<Value, ReportError> {
     let mut w = Writer {
         dir,
         entries: Map::new(),
@@ -362,7 +334,7 @@ pub fn write_arrays(dir: &Path, case: &Case, r: &Results) -> Result<Value, Repor
             },
         )?;
     }
-    if let Some(dl) = &r.directional {
+    if let Some(dl) = r.limit.as_ref().map(|l| &l.by_direction) {
         let n = dl.directions.len();
         if dims == 3 {
             let flat: Vec<f64> = dl.directions.iter().flatten().copied().collect();
@@ -416,13 +388,11 @@ pub fn write_arrays(dir: &Path, case: &Case, r: &Results) -> Result<Value, Repor
                 long_name: "wavevector that sets the limit along each direction",
             },
         )?;
-        if case.system.reference_speed > 0.0 {
-            let h = case.reference_spacing();
-            let s = case.system.reference_speed;
+        if !dl.courant.is_empty() {
             w.real(
                 "courant_by_direction",
                 &[n],
-                dl.dt.iter().map(|dt| s * dt / h).collect::<Vec<f64>>(),
+                &dl.courant,
                 Meta {
                     dims: vec!["direction"],
                     units: "1",
@@ -472,7 +442,7 @@ pub fn write_arrays(dir: &Path, case: &Case, r: &Results) -> Result<Value, Repor
         write_dispersion(&mut w, r, d, &grid_dims)?;
     }
     for mode in &r.modes {
-        let name = format!("mode_{}", mode.kind);
+        let name = format!("mode_{}", mode.kind.as_str());
         w.complex(
             &name,
             &[mode.vector.len()],
@@ -481,9 +451,15 @@ pub fn write_arrays(dir: &Path, case: &Case, r: &Results) -> Result<Value, Repor
                 dims: vec!["component"],
                 units: "1",
                 long_name: match mode.kind {
-                    "radius" => "eigenvector of G for the largest |lambda| at the worst wavevector",
-                    "growth" => "initial perturbation with the largest growth at the peak step",
-                    _ => "eigenvector of the first mode to go unstable at the limit wavevector",
+                    Measure::Radius => {
+                        "eigenvector of G for the largest |lambda| at the worst wavevector"
+                    }
+                    Measure::Growth => {
+                        "initial perturbation with the largest growth at the peak step"
+                    }
+                    Measure::Limit => {
+                        "eigenvector of the first mode to go unstable at the limit wavevector"
+                    }
                 },
             },
         )?;
@@ -492,7 +468,7 @@ pub fn write_arrays(dir: &Path, case: &Case, r: &Results) -> Result<Value, Repor
     }
     if let Some(s) = &r.samples {
         let k = s.index.len();
-        let m = case.system.size();
+        let m = problem.system.size();
         w.real(
             "sample_index",
             &[k],
@@ -542,7 +518,7 @@ pub fn write_arrays(dir: &Path, case: &Case, r: &Results) -> Result<Value, Repor
     Ok(json!({
         "format": "kgain output",
         "version": 1,
-        "case": case.name,
+        "case": problem.name,
         "arrays": Value::Object(w.entries),
     }))
 }

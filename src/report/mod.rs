@@ -11,9 +11,9 @@ mod summary;
 mod text;
 
 use crate::analysis::Results;
-use crate::case::Case;
 use crate::destination::marker::Owner;
 use crate::destination::{CommitError, Destination, DestinationError};
+use crate::problem::Problem;
 use serde_json::Value;
 use std::path::{Path, PathBuf};
 
@@ -56,34 +56,34 @@ fn io(path: &Path) -> impl FnOnce(std::io::Error) -> ReportError + '_ {
     }
 }
 
-/// The case file's canonical path, as recorded in summary.json.
-pub fn case_identity(case: &Case) -> String {
-    std::fs::canonicalize(&case.file)
-        .unwrap_or_else(|_| case.file.clone())
-        .display()
-        .to_string()
+/// Where the problem came from, as recorded in summary.json.
+pub fn case_identity(problem: &Problem) -> String {
+    problem
+        .source
+        .clone()
+        .unwrap_or_else(|| problem.name.clone())
 }
 
 /// Who wrote an output: the case's name and its file.
-pub fn owner(case: &Case) -> Owner {
+pub fn owner(problem: &Problem) -> Owner {
     Owner {
-        name: case.name.clone(),
-        source: case_identity(case),
+        name: problem.name.clone(),
+        source: case_identity(problem),
     }
 }
 
 /// Writes every output file of the results into the folder `dir` (which exists
 /// and is empty) except `manifest.json`, whose content it returns: the caller's
 /// [`Destination`] completes it with the file inventory and writes it.
-pub fn write_into(dir: &Path, case: &Case, results: &Results) -> Result<Value, ReportError> {
-    let mut manifest = arrays::write_arrays(dir, case, results)?;
-    let pictures = plot::write_pictures(dir, case, results)?;
+pub fn write_into(dir: &Path, problem: &Problem, results: &Results) -> Result<Value, ReportError> {
+    let mut manifest = arrays::write_arrays(dir, problem, results)?;
+    let pictures = plot::write_pictures(dir, problem, results)?;
     manifest["pictures"] = pictures
         .iter()
         .filter_map(|p| p.file_name().map(|f| f.to_string_lossy().into_owned()))
         .collect::<Vec<_>>()
         .into();
-    let summary = summary_json(case, results);
+    let summary = summary_json(problem, results);
     let p = dir.join("summary.json");
     let s = serde_json::to_string_pretty(&summary).expect("JSON values serialise");
     std::fs::write(&p, s + "\n").map_err(io(&p))?;
@@ -94,12 +94,12 @@ pub fn write_into(dir: &Path, case: &Case, results: &Results) -> Result<Value, R
 /// unless `force`) and writes the results into it; returns the folder written.
 pub fn write(
     out: &Path,
-    case: &Case,
+    problem: &Problem,
     results: &Results,
     force: bool,
 ) -> Result<PathBuf, WriteError> {
-    let dest = Destination::claim(out, owner(case), force)?;
-    dest.commit(|dir| write_into(dir, case, results))
+    let dest = Destination::claim(out, owner(problem), force)?;
+    dest.commit(|dir| write_into(dir, problem, results))
         .map_err(|e| match e {
             CommitError::Write(e) => WriteError::Report(e),
             CommitError::Destination(e) => WriteError::Destination(e),

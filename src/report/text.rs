@@ -1,8 +1,8 @@
 //! The short aligned table `kgain run` prints on stdout.
 
-use super::summary::{cautions, direction_deg};
+use super::summary::direction_deg;
 use crate::analysis::{LimitKind, Results};
-use crate::case::Case;
+use crate::problem::Problem;
 use std::fmt::Write;
 
 fn theta(v: &[f64]) -> String {
@@ -18,7 +18,7 @@ fn dir(v: &[f64]) -> String {
 }
 
 /// The human summary of a run.
-pub fn human_summary(case: &Case, r: &Results, out: Option<&std::path::Path>) -> String {
+pub fn human_summary(problem: &Problem, r: &Results, out: Option<&std::path::Path>) -> String {
     let mut s = String::new();
     let row = |s: &mut String, k: &str, v: String| {
         let _ = writeln!(s, "  {k:<14}{v}");
@@ -26,22 +26,31 @@ pub fn human_summary(case: &Case, r: &Results, out: Option<&std::path::Path>) ->
     let _ = writeln!(
         s,
         "kgain: {} ({}-D {}, variables {})",
-        case.name,
-        case.dims(),
-        case.system.kind,
-        case.system.variables.join(" ")
+        problem.name,
+        problem.dims(),
+        problem.system.kind.name(),
+        problem.system.variables.join(" ")
     );
-    let names: Vec<&str> = case.space.first.iter().map(|s| s.name.as_str()).collect();
+    let names: Vec<&str> = problem
+        .space
+        .first
+        .iter()
+        .map(|s| s.name.as_str())
+        .collect();
     row(
         &mut s,
         "scheme",
-        format!("{} in space, {} in time", names.join("/"), case.method.name),
+        format!(
+            "{} in space, {} in time",
+            names.join("/"),
+            problem.method.name
+        ),
     );
-    let courant = case
+    let courant = problem
         .courant_of(r.dt)
         .map(|c| format!(", Courant {c:.6}"))
         .unwrap_or_default();
-    let diffn = case
+    let diffn = problem
         .diffusion_number_of(r.dt)
         .map(|d| format!(", diffusion number {d:.6}"))
         .unwrap_or_default();
@@ -70,11 +79,11 @@ pub fn human_summary(case: &Case, r: &Results, out: Option<&std::path::Path>) ->
                 theta(&l.wavevector)
             ),
             LimitKind::Bounded => {
-                let c = case
+                let c = problem
                     .courant_of(l.dt_max)
                     .map(|c| format!(", Courant {c:.10}"))
                     .unwrap_or_default();
-                let d = case
+                let d = problem
                     .diffusion_number_of(l.dt_max)
                     .map(|d| format!(", diffusion number {d:.10}"))
                     .unwrap_or_default();
@@ -94,12 +103,8 @@ pub fn human_summary(case: &Case, r: &Results, out: Option<&std::path::Path>) ->
             );
         }
     }
-    if let Some(d) = &r.directional {
-        let (imin, vmin) =
-            d.dt.iter().enumerate().fold(
-                (0, f64::INFINITY),
-                |b, (i, v)| if *v < b.1 { (i, *v) } else { b },
-            );
+    if let Some(d) = r.limit.as_ref().map(|l| &l.by_direction) {
+        let (imin, vmin) = (d.worst, d.dt.get(d.worst).copied().unwrap_or(f64::INFINITY));
         let vmax = d.dt.iter().copied().fold(0.0, f64::max);
         if vmin.is_finite() {
             row(
@@ -115,13 +120,13 @@ pub fn human_summary(case: &Case, r: &Results, out: Option<&std::path::Path>) ->
     }
     if let Some(g) = &r.growth {
         row(&mut s, "growth", g.verdict.clone());
-        if let Some((k, _)) = &g.kreiss {
+        if let Some(k) = &g.kreiss {
             row(
                 &mut s,
                 "kreiss",
                 format!(
-                    "K >= {k:.6} (sampled), eps-pseudospectral radius {:.6} (eps = {:e})",
-                    g.pseudospectral.1, g.pseudospectral.0
+                    "K >= {:.6} (sampled), eps-pseudospectral radius {:.6} (eps = {:e})",
+                    k.lower_bound, g.pseudospectral.1, g.pseudospectral.0
                 ),
             );
         }
@@ -161,13 +166,17 @@ pub fn human_summary(case: &Case, r: &Results, out: Option<&std::path::Path>) ->
         }
     }
     for m in &r.modes {
-        row(&mut s, &format!("{} mode", m.kind), m.description.clone());
+        row(
+            &mut s,
+            &format!("{} mode", m.kind.as_str()),
+            m.description.clone(),
+        );
     }
     if let Some(o) = out {
         row(&mut s, "output", format!("{}/", o.display()));
     }
-    for c in cautions(case, r) {
-        row(&mut s, "caution", c);
+    for c in &r.cautions {
+        row(&mut s, "caution", c.clone());
     }
     s
 }

@@ -225,7 +225,7 @@ impl Stencil {
             }
         }
         let h = std::f64::consts::PI / n as f64;
-        let (t, v) = golden_max(
+        let (t, v) = crate::numeric::minimise::golden_max(
             &f,
             (best_t - h).max(0.0),
             (best_t + h).min(std::f64::consts::PI),
@@ -257,15 +257,7 @@ impl Stencil {
         for i in 1..=n {
             let t = pi * i as f64 / n as f64;
             if err(t) > tol {
-                let (mut a, mut b) = (last, t);
-                for _ in 0..60 {
-                    let mid = 0.5 * (a + b);
-                    if err(mid) > tol {
-                        b = mid;
-                    } else {
-                        a = mid;
-                    }
-                }
+                let (a, _) = crate::numeric::bracket::bisect(|x| err(x) <= tol, last, t, 0.0, 60);
                 return (a / pi, 2.0 * pi / a);
             }
             last = t;
@@ -297,34 +289,6 @@ fn paired_sum(offsets: &[f64], weights: &[f64], theta: f64) -> C64 {
         im += (w - partner) * s;
     }
     C64::new(re, im)
-}
-
-/// Golden-section search for a maximum of a unimodal function on [a, b].
-pub fn golden_max(f: &impl Fn(f64) -> f64, mut a: f64, mut b: f64) -> (f64, f64) {
-    let g = 0.5 * (5f64.sqrt() - 1.0);
-    let mut c = b - g * (b - a);
-    let mut d = a + g * (b - a);
-    let (mut fc, mut fd) = (f(c), f(d));
-    for _ in 0..100 {
-        if (b - a).abs() < 1e-13 {
-            break;
-        }
-        if fc > fd {
-            b = d;
-            d = c;
-            fd = fc;
-            c = b - g * (b - a);
-            fc = f(c);
-        } else {
-            a = c;
-            c = d;
-            fc = fd;
-            d = a + g * (b - a);
-            fd = f(d);
-        }
-    }
-    let t = 0.5 * (a + b);
-    (t, f(t))
 }
 
 #[cfg(test)]

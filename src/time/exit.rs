@@ -114,16 +114,9 @@ pub(super) fn multistep(ms: &Multistep, w: C64) -> f64 {
             continue;
         }
         if a.0.signum() != b.0.signum() {
-            let (mut lo, mut hi) = (om(k), om(k + 1));
             let s_lo = a.0.signum();
-            for _ in 0..80 {
-                let mid = 0.5 * (lo + hi);
-                if locus(mid).0.signum() == s_lo {
-                    lo = mid;
-                } else {
-                    hi = mid;
-                }
-            }
+            let same_side = |x: f64| locus(x).0.signum() == s_lo;
+            let (lo, hi) = crate::numeric::bracket::bisect(same_side, om(k), om(k + 1), 0.0, 80);
             let (_, scale, r) = locus(0.5 * (lo + hi));
             // A sign change through a pole of ρ/σ (σ = 0) gives a huge |r|: skip it.
             if scale > 0.0 {
@@ -149,7 +142,7 @@ pub(super) fn multistep(ms: &Multistep, w: C64) -> f64 {
             .unwrap_or(start);
         let lo = om(imax.saturating_sub(1));
         let hi = om((imax + 1).min(LOCUS_SAMPLES));
-        let (_, rmax) = crate::stencil::golden_max(&|x| locus(x).2, lo, hi);
+        let (_, rmax) = crate::numeric::minimise::golden_max(&|x| locus(x).2, lo, hi);
         push(&mut breaks, rmax.max(samples[imax].2));
         let imin = run
             .min_by(|a, b| samples[*a].2.total_cmp(&samples[*b].2))

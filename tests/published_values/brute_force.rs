@@ -20,9 +20,14 @@ fn assert_limit_brackets_the_radius_threshold(text: &str, fine_points: &str) {
                 "scan.analyses=[\"radius\"]".to_string(),
             ],
         );
-        assert_close(c.dt(), factor * dt, 4.0 * EPS, "the override sets Δt");
+        assert_close(
+            c.problem.dt(),
+            factor * dt,
+            4.0 * EPS,
+            "the override sets Δt",
+        );
         let rad = analyse(&c).radius.expect("radius ran");
-        let tol = c.scan.tolerance;
+        let tol = c.plan.tolerance;
         assert_eq!(
             rad.max <= 1.0 + tol,
             should_be_stable,
@@ -111,7 +116,7 @@ fn first_exit_limit_brackets_brute_force_scan_for_ab2_upwind1() {
 fn assert_overall_within_directional(text: &str) {
     let (_, r) = run(text);
     let overall = r.limit.as_ref().unwrap().dt_max;
-    let d = r.directional.as_ref().unwrap();
+    let d = &r.limit.as_ref().unwrap().by_direction;
     let worst = d.dt.iter().copied().fold(f64::INFINITY, f64::min);
     assert!(
         overall <= worst * (1.0 + 1e-9),

@@ -204,7 +204,7 @@ fn multistep_intervals_set_the_limits_of_advection_and_diffusion_cases() {
         &[33],
     ));
     assert_close(
-        c.courant_of(dt_max(&r)).unwrap(),
+        c.problem.courant_of(dt_max(&r)).unwrap(),
         1.0,
         1e-9,
         "leapfrog + C2: ν ≤ 1",
@@ -256,12 +256,12 @@ fn butcher_tableau_of_classical_rk4_reproduces_the_rk4_limit() {
         &[33],
     ));
     assert_close(
-        c.courant_of(dt_max(&r)).unwrap(),
+        c.problem.courant_of(dt_max(&r)).unwrap(),
         2.0 * SQRT_2,
         1e-9,
         "RK4 tableau + C2",
     );
-    assert_eq!(c.method.order, 4);
+    assert_eq!(c.problem.method.order, 4);
 }
 
 #[test]
@@ -354,7 +354,7 @@ fn real_axis_limit_is_the_first_exit_not_a_later_reentry() {
     );
     let c = case(&text);
     assert_close(
-        c.method.real_limit(),
+        c.problem.method.real_limit(),
         5.0,
         1e-12,
         "first exit on the real axis",

@@ -18,7 +18,12 @@ fn rk4_central2_advection_limit_is_two_root_two_at_half_pi() {
         &[33],
     ));
     let dt = dt_max(&r);
-    assert_close(c.courant_of(dt).unwrap(), 2.0 * SQRT_2, 1e-12, "ν_max");
+    assert_close(
+        c.problem.courant_of(dt).unwrap(),
+        2.0 * SQRT_2,
+        1e-12,
+        "ν_max",
+    );
     let th = r.limit.as_ref().unwrap().wavevector[0];
     assert_close(th.abs(), FRAC_PI_2, extremum_position_tol(), "worst |θ|");
     // The case's Courant number 1 is inside the limit.
@@ -48,7 +53,7 @@ fn rk4_central4_advection_limit_is_two_root_two_over_the_c4_maximum() {
     ));
     let dt = dt_max(&r);
     assert_close(dt, want * 0.25 / 3.0, 1e-9, "Δt_max = ν_max h/|a|");
-    assert_close(c.courant_of(dt).unwrap(), want, 1e-9, "ν_max");
+    assert_close(c.problem.courant_of(dt).unwrap(), want, 1e-9, "ν_max");
     let th = r.limit.as_ref().unwrap().wavevector[0];
     assert_close(th.abs(), at, extremum_position_tol(), "worst |θ|");
 }
@@ -72,7 +77,7 @@ fn forward_euler_upwind_2d_limit_is_courant_sum_at_most_one() {
     let dt = dt_max(&r);
     assert_close(dt, 0.2, 1e-9, "Δt_max = 1/(|a_x|/h_x + |a_y|/h_y)");
     assert_close(
-        c.courant_of(dt).unwrap(),
+        c.problem.courant_of(dt).unwrap(),
         1.0,
         1e-9,
         "ν_max in the reference speed",
@@ -87,7 +92,7 @@ fn forward_euler_upwind_2d_limit_is_courant_sum_at_most_one() {
     );
     // By direction: along +x only a_x acts (h_x/|a_x| = 1/3), along +y only a_y
     // (h_y/|a_y| = 1/2), and the worst directions are the antidiagonal ones.
-    let d = r.directional.as_ref().unwrap();
+    let d = &r.limit.as_ref().unwrap().by_direction;
     let at_angle = |deg: f64| {
         let i = d
             .directions
@@ -127,7 +132,7 @@ fn leapfrog_central2_2d_limit_is_courant_sum_at_most_one() {
     let dt = dt_max(&r);
     assert_close(dt, 1.0 / 2.2, 1e-9, "Δt_max = 1/(a_x/h_x + a_y/h_y)");
     assert_close(
-        c.courant_of(dt).unwrap(),
+        c.problem.courant_of(dt).unwrap(),
         2.0 / 2.2,
         1e-9,
         "ν_max in the reference speed",
@@ -139,7 +144,7 @@ fn leapfrog_central2_2d_limit_is_courant_sum_at_most_one() {
         w[0] * w[1] > 0.0,
         "worst θx and θy have the same sign: {w:?}"
     );
-    let d = r.directional.as_ref().unwrap();
+    let d = &r.limit.as_ref().unwrap().by_direction;
     let (imin, worst) =
         d.dt.iter().enumerate().fold(
             (0, f64::INFINITY),
@@ -174,7 +179,7 @@ fn forward_euler_diffusion_limit_is_diffusion_number_sum_at_most_half() {
     let w = &r.limit.as_ref().unwrap().wavevector;
     assert_close(w[0].abs(), PI, 4.0 * EPS, "worst |θx| = π");
     assert_close(w[1].abs(), PI, 4.0 * EPS, "worst |θy| = π");
-    let s = kgain::report::summary_json(&c, &r);
+    let s = kgain::report::summary_json(&c.problem, &r);
     let r_max = s["limit"]["diffusion_number_max"]
         .as_f64()
         .expect("a diffusion number");
@@ -204,7 +209,7 @@ fn forward_euler_diffusion_limit_with_per_axis_diffusivities() {
     ));
     let dt = dt_max(&r);
     assert_close(dt, 1.0 / 0.9, 1e-12, "Δt_max");
-    let s = kgain::report::summary_json(&c, &r);
+    let s = kgain::report::summary_json(&c.problem, &r);
     let r_max = s["limit"]["diffusion_number_max"]
         .as_f64()
         .expect("a diffusion number");
@@ -226,7 +231,7 @@ fn forward_euler_diffusion_limit_in_three_dimensions() {
     let want = 1.0 / (2.0 * 0.25 * 5.25);
     assert_close(dt, want, 1e-12, "Δt_max");
     assert_close(
-        c.diffusion_number_of(dt).unwrap(),
+        c.problem.diffusion_number_of(dt).unwrap(),
         want * 0.25 / 0.25,
         1e-12,
         "r_max",
@@ -261,7 +266,7 @@ fn heun_and_forward_euler_with_central_advection_have_no_stable_dt() {
             &[33, 33],
         ));
         assert_eq!(kind(&r), LimitKind::None, "{method} + C2");
-        let s = kgain::report::summary_json(&c, &r);
+        let s = kgain::report::summary_json(&c.problem, &r);
         assert_eq!(s["limit"]["kind"], "none");
         assert_eq!(
             s["limit"]["dt_max"].as_f64(),
@@ -293,7 +298,7 @@ fn crank_nicolson_and_backward_euler_are_unconditional_for_advection_and_diffusi
             LimitKind::Unconditional,
             "{method} + C2 advection"
         );
-        let s = kgain::report::summary_json(&c, &r);
+        let s = kgain::report::summary_json(&c.problem, &r);
         assert_eq!(s["limit"]["kind"], "unconditional");
         assert!(s["limit"]["dt_max"].is_null(), "{method}: dt_max is null");
         let rad = r.radius.as_ref().unwrap();
@@ -361,7 +366,7 @@ fn second_order_dissipation_of_strength_two_turns_central_into_upwind() {
     );
     let (c, r) = run(&text);
     assert_close(
-        c.courant_of(dt_max(&r)).unwrap(),
+        c.problem.courant_of(dt_max(&r)).unwrap(),
         1.0,
         1e-9,
         "ν_max = 1 as for upwind1",
@@ -374,8 +379,7 @@ fn second_order_dissipation_of_strength_two_turns_central_into_upwind() {
         "courant = 0.5",
         &[65],
     ));
-    let ops = [&c, &up]
-        .map(|k| kgain::operator::Operator::assemble(&k.system, &k.spacing, &k.space).unwrap());
+    let ops = [&c, &up].map(|k| k.problem.operator());
     for k in 0..=16 {
         let th = [-PI + 2.0 * PI * k as f64 / 16.0];
         let (a, b) = (ops[0].symbol(&th)[0], ops[1].symbol(&th)[0]);

@@ -207,7 +207,7 @@ fn rk4_limit_with_each_central_stencil_is_two_root_two_over_its_maximum() {
             "courant = 1.0",
             &[65],
         ));
-        let nu = c.courant_of(dt_max(&r)).unwrap();
+        let nu = c.problem.courant_of(dt_max(&r)).unwrap();
         assert_close(
             nu,
             2.0 * SQRT_2 / max,

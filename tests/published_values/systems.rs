@@ -33,9 +33,14 @@ points = [65]
 "#
         );
         let (c, r) = run(&text);
-        assert_close(c.system.reference_speed, 1.5, 4.0 * EPS, "s = |U| + c");
         assert_close(
-            c.courant_of(dt_max(&r)).unwrap(),
+            c.problem.system.reference_speed,
+            1.5,
+            4.0 * EPS,
+            "s = |U| + c",
+        );
+        assert_close(
+            c.problem.courant_of(dt_max(&r)).unwrap(),
             1.0,
             1e-9,
             &format!("{upwind}: ν_max"),
@@ -87,8 +92,13 @@ fn peer_euler_2d_courant_limit_matches_closed_form_and_a_fine_search() {
     assert_close(searched, closed, 4.0 * EPS, "fine search vs closed form");
     // The engine, from the case text.
     let (case, r) = run(PEER_EULER);
-    assert_close(case.system.reference_speed, s, 4.0 * EPS, "s = |u| + c");
-    let courant = case.courant_of(dt_max(&r)).unwrap();
+    assert_close(
+        case.problem.system.reference_speed,
+        s,
+        4.0 * EPS,
+        "s = |u| + c",
+    );
+    let courant = case.problem.courant_of(dt_max(&r)).unwrap();
     assert_close(courant, closed, 1e-9, "peer Euler Courant limit");
     let w = &r.limit.as_ref().unwrap().wavevector;
     assert_close(
@@ -114,10 +124,11 @@ fn peer_euler_2d_courant_limit_matches_closed_form_and_a_fine_search() {
 fn symbol_scale(sym: &[C64], case: &kgain::case::Case, weight_sum: f64) -> f64 {
     let norm = sym.iter().map(|z| z.norm_sqr()).sum::<f64>().sqrt();
     let terms: f64 = case
+        .problem
         .system
         .flux
         .iter()
-        .zip(&case.spacing)
+        .zip(&case.problem.spacing)
         .map(|(a, h)| a.norm() * weight_sum / h)
         .sum();
     norm + terms
@@ -130,7 +141,12 @@ fn euler_symbol_eigenvalues_follow_the_dispersion_relation_with_modified_wavenum
     // same with k replaced by the modified wavenumbers κ_d = m(θ_d)/h_d, μ = −iω.
     let text = PEER_EULER.replace("spacing = [1.0, 1.0]", "spacing = [1.0, 0.5]");
     let case = case(&text);
-    let op = kgain::operator::Operator::assemble(&case.system, &case.spacing, &case.space).unwrap();
+    let op = kgain::operator::Operator::assemble(
+        &case.problem.system,
+        &case.problem.spacing,
+        &case.problem.space,
+    )
+    .unwrap();
     let (ux, uy, c) = (0.5, 0.2, (1.4f64 * 0.7142857142857143).sqrt());
     for th in [
         [0.0, 0.0],
@@ -176,7 +192,12 @@ points = [9, 9, 9]
     let case = case(text);
     let h = [1.0, 0.5, 2.0];
     let u = [0.3, -0.2, 0.1];
-    let op = kgain::operator::Operator::assemble(&case.system, &case.spacing, &case.space).unwrap();
+    let op = kgain::operator::Operator::assemble(
+        &case.problem.system,
+        &case.problem.spacing,
+        &case.problem.space,
+    )
+    .unwrap();
     for th in [
         [0.4, -1.2, 2.5],
         [PI / 2.0, PI / 2.0, PI / 2.0],
@@ -218,10 +239,10 @@ courant = 1.0
 points = [33, 33]
 "#;
     let (c, r) = run(text);
-    assert_close(c.system.reference_speed, 2.0, 1e-9, "s");
+    assert_close(c.problem.system.reference_speed, 2.0, 1e-9, "s");
     assert_close(dt_max(&r), SQRT_2, 1e-9, "Δt_max");
     assert_close(
-        c.courant_of(dt_max(&r)).unwrap(),
+        c.problem.courant_of(dt_max(&r)).unwrap(),
         2.0 * SQRT_2,
         1e-9,
         "ν_max",

@@ -7,9 +7,9 @@
 //! Each test crate uses only part of this module.
 #![allow(dead_code)]
 
-use kgain::analysis::{self, Options, Results};
+use kgain::analysis::{self, Results};
 use kgain::case::Case;
-use kgain::sample::Par;
+use kgain::sample::{NoProgress, Par};
 use num_complex::Complex64 as C64;
 use std::path::{Path, PathBuf};
 
@@ -61,12 +61,18 @@ pub fn case_with(text: &str, overrides: &[String]) -> Case {
 /// Runs every analysis the case asks for, sequentially and without progress bars.
 #[track_caller]
 pub fn analyse(case: &Case) -> Results {
+    analysis::analyse(&case.problem, &case.plan, Par::Seq, &NoProgress)
+        .unwrap_or_else(|e| panic!("analysis should succeed: {e}"))
+}
+
+/// Runs the analyses in parallel on `threads` threads.
+#[track_caller]
+pub fn analyse_par(case: &Case, threads: usize) -> Results {
     analysis::analyse(
-        case,
-        &Options {
-            par: Par::Seq,
-            progress: false,
-        },
+        &case.problem,
+        &case.plan,
+        Par::Threads(threads),
+        &NoProgress,
     )
     .unwrap_or_else(|e| panic!("analysis should succeed: {e}"))
 }

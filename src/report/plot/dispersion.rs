@@ -23,9 +23,10 @@
 
 use super::heatmap::{legend_entry, Key};
 use super::{style, title_band, Area, Res, SIZE, TITLE_BAND};
-use crate::analysis::dispersion::{curve_ppw, DispersionResult};
+use crate::analysis::dispersion::curves::curve_ppw;
+use crate::analysis::dispersion::DispersionResult;
 use crate::analysis::Results;
-use crate::case::Case;
+use crate::problem::Problem;
 use plotters::prelude::*;
 use plotters::style::text_anchor::{HPos, VPos};
 
@@ -526,8 +527,8 @@ fn requirement_lines(root: &Area, d: &DispersionResult) -> Res<Vec<(String, bool
 }
 
 /// Draws the picture.
-pub fn draw(root: &Area, case: &Case, r: &Results, d: &DispersionResult) -> Res {
-    title_band(root, case, "dispersion: phase and group speed", r.dt)?;
+pub fn draw(root: &Area, problem: &Problem, r: &Results, d: &DispersionResult) -> Res {
+    title_band(root, problem, "dispersion: phase and group speed", r.dt)?;
     let Some(mode) = shown_mode(d) else {
         let mut lines = vec![(
             "no propagating mode: the exact phase speed is zero for every mode and direction,"
@@ -549,7 +550,7 @@ pub fn draw(root: &Area, case: &Case, r: &Results, d: &DispersionResult) -> Res 
     let pct = percent(d.tolerance);
 
     // samples of the shown mode per drawn direction, x = −log₂ ppw
-    let spacing = &case.spacing;
+    let spacing = &problem.spacing;
     let ppw_of = |k: usize| {
         let p = curve_ppw(&d.directions[k], spacing);
         if p.len() == d.phase_curves[k].len() {

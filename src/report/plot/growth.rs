@@ -14,8 +14,9 @@
 use super::axis::YAxis;
 use super::heatmap::{callout, callout_box, callout_size, legend_row, target, Key};
 use super::{style, title_band, Area, Res, SIZE, TITLE_BAND};
-use crate::analysis::{GrowthResult, Results};
-use crate::case::Case;
+use crate::analysis::growth::GrowthResult;
+use crate::analysis::Results;
+use crate::problem::Problem;
 use plotters::prelude::*;
 use plotters::style::text_anchor::{HPos, VPos};
 
@@ -46,7 +47,7 @@ fn band_lines(g: &GrowthResult, axis: &YAxis) -> Vec<(String, bool)> {
         .map(|l| (l, true))
         .collect();
     let (eps, pseudo) = g.pseudospectral;
-    let mut facts = vec![format!("class {}", g.class)];
+    let mut facts = vec![format!("class {}", g.class.as_str())];
     if pseudo.is_finite() {
         facts.push(format!(
             "ε-pseudospectral radius at the peak wavevector {} (ε = {})",
@@ -96,16 +97,20 @@ fn band_lines(g: &GrowthResult, axis: &YAxis) -> Vec<(String, bool)> {
 }
 
 /// Draws the picture.
-pub fn draw(root: &Area, case: &Case, r: &Results, g: &GrowthResult) -> Res {
+pub fn draw(root: &Area, problem: &Problem, r: &Results, g: &GrowthResult) -> Res {
     title_band(
         root,
-        case,
+        problem,
         "transient growth of ||G^n||_2 over the steps",
         r.dt,
     )?;
     let steps = g.envelope.len().saturating_sub(1);
     let (pv, pn, ptheta) = (&g.peak.0, g.peak.1, &g.peak.2);
-    let kreiss = g.kreiss.as_ref().map(|k| k.0).filter(|k| k.is_finite());
+    let kreiss = g
+        .kreiss
+        .as_ref()
+        .map(|k| k.lower_bound)
+        .filter(|k| k.is_finite());
     let mut spanned: Vec<f64> = g.envelope.clone();
     spanned.push(1.0);
     spanned.extend(kreiss);

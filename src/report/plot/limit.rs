@@ -11,7 +11,7 @@ use super::colormap::{colour_bar, Bar, Scale};
 use super::heatmap::{callout, legend_row, target, Key};
 use super::{polar, style, title_band, Area, Res, SIZE, TITLE_BAND};
 use crate::analysis::{DirectionalLimit, Results};
-use crate::case::Case;
+use crate::problem::Problem;
 use plotters::prelude::*;
 use plotters::style::text_anchor::{HPos, VPos};
 
@@ -30,11 +30,11 @@ pub struct Series {
 }
 
 impl Series {
-    fn new(case: &Case, r: &Results, dl: &DirectionalLimit) -> Series {
-        let courant = case.system.reference_speed > 0.0;
+    fn new(problem: &Problem, r: &Results, dl: &DirectionalLimit) -> Series {
+        let courant = problem.system.reference_speed > 0.0;
         let unit = |dt: f64| {
             if courant {
-                case.courant_of(dt).unwrap_or(f64::NAN)
+                problem.courant_of(dt).unwrap_or(f64::NAN)
             } else {
                 dt
             }
@@ -140,14 +140,14 @@ impl Series {
 }
 
 /// Draws the picture for the case's dimension.
-pub fn draw(root: &Area, case: &Case, r: &Results, dl: &DirectionalLimit) -> Res {
+pub fn draw(root: &Area, problem: &Problem, r: &Results, dl: &DirectionalLimit) -> Res {
     title_band(
         root,
-        case,
+        problem,
         "largest stable time step by wave direction",
         r.dt,
     )?;
-    let s = Series::new(case, r, dl);
+    let s = Series::new(problem, r, dl);
     match r.grid.points.len() {
         1 => bars(root, dl, &s),
         2 => polar::draw(root, dl, &s),

@@ -35,7 +35,7 @@ mod style;
 
 use super::ReportError;
 use crate::analysis::Results;
-use crate::case::Case;
+use crate::problem::Problem;
 use ab_glyph::FontRef;
 use plotters::coord::Shift;
 use plotters::prelude::*;
@@ -78,7 +78,7 @@ fn font() -> Result<&'static FontRef<'static>, String> {
 /// written, in a fixed order.
 pub fn write_pictures(
     dir: &Path,
-    case: &Case,
+    problem: &Problem,
     results: &Results,
 ) -> Result<Vec<PathBuf>, ReportError> {
     let fail = |path: &Path, message: String| ReportError::Plot {
@@ -89,18 +89,20 @@ pub fn write_pictures(
     let mut written = Vec::new();
     if let Some(rad) = &results.radius {
         let path = dir.join("radius.png");
-        render(&path, font, |root| radius::draw(root, case, results, rad))
-            .map_err(|e| fail(&path, e.to_string()))?;
+        render(&path, font, |root| {
+            radius::draw(root, problem, results, rad)
+        })
+        .map_err(|e| fail(&path, e.to_string()))?;
         written.push(path);
     }
-    if let Some(dl) = &results.directional {
+    if let Some(dl) = results.limit.as_ref().map(|l| &l.by_direction) {
         let path = dir.join("limit_polar.png");
-        render(&path, font, |root| limit::draw(root, case, results, dl))
+        render(&path, font, |root| limit::draw(root, problem, results, dl))
             .map_err(|e| fail(&path, e.to_string()))?;
         written.push(path);
     }
     if let Some(g) = &results.growth {
-        type Draw = fn(&Area, &Case, &Results, &crate::analysis::GrowthResult) -> Res;
+        type Draw = fn(&Area, &Problem, &Results, &crate::analysis::growth::GrowthResult) -> Res;
         let pictures: [(&str, Draw); 3] = [
             ("growth.png", growth::draw),
             ("departure.png", nonnormal::departure),
@@ -108,15 +110,17 @@ pub fn write_pictures(
         ];
         for (name, draw) in pictures {
             let path = dir.join(name);
-            render(&path, font, |root| draw(root, case, results, g))
+            render(&path, font, |root| draw(root, problem, results, g))
                 .map_err(|e| fail(&path, e.to_string()))?;
             written.push(path);
         }
     }
     if let Some(d) = &results.dispersion {
         let path = dir.join("dispersion.png");
-        render(&path, font, |root| dispersion::draw(root, case, results, d))
-            .map_err(|e| fail(&path, e.to_string()))?;
+        render(&path, font, |root| {
+            dispersion::draw(root, problem, results, d)
+        })
+        .map_err(|e| fail(&path, e.to_string()))?;
         written.push(path);
     }
     Ok(written)
@@ -145,15 +149,20 @@ fn render(path: &Path, font: &'static FontRef<'static>, f: impl FnOnce(&Area) ->
 }
 
 /// The scheme in words, for the second title line.
-fn scheme_line(case: &Case, dt: f64) -> String {
-    let mut names: Vec<&str> = case.space.first.iter().map(|s| s.name.as_str()).collect();
+fn scheme_line(problem: &Problem, dt: f64) -> String {
+    let mut names: Vec<&str> = problem
+        .space
+        .first
+        .iter()
+        .map(|s| s.name.as_str())
+        .collect();
     names.dedup();
     let mut parts = vec![
-        format!("{}-D {}", case.dims(), case.system.kind),
-        format!("{} in time", case.method.name),
+        format!("{}-D {}", problem.dims(), problem.system.kind.name()),
+        format!("{} in time", problem.method.name),
         format!("{} in space", names.join(" / ")),
     ];
-    if let Some(d) = &case.space.dissipation {
+    if let Some(d) = &problem.space.dissipation {
         parts.push(format!(
             "dissipation p = {}, σ = {}",
             d.order,
@@ -161,10 +170,10 @@ fn scheme_line(case: &Case, dt: f64) -> String {
         ));
     }
     let mut step = format!("Δt = {}", style::num(dt, 4));
-    if let Some(nu) = case.courant_of(dt) {
+    if let Some(nu) = problem.courant_of(dt) {
         step.push_str(&format!(", ν = {}", style::num(nu, 4)));
     }
-    if let Some(r) = case.diffusion_number_of(dt) {
+    if let Some(r) = problem.diffusion_number_of(dt) {
         step.push_str(&format!(", r = {}", style::num(r, 4)));
     }
     parts.push(step);
@@ -172,15 +181,15 @@ fn scheme_line(case: &Case, dt: f64) -> String {
 }
 
 /// The title band: the case name and what the picture shows, then the scheme.
-fn title_band(root: &Area, case: &Case, what: &str, dt: f64) -> Res {
+fn title_band(root: &Area, problem: &Problem, what: &str, dt: f64) -> Res {
     let (w, _) = root.dim_in_pixel();
     root.draw(&Text::new(
-        format!("{} — {what}", case.name),
+        format!("{} — {what}", problem.name),
         (26, 16),
         style::text(23.0, style::INK),
     ))?;
     root.draw(&Text::new(
-        scheme_line(case, dt),
+        scheme_line(problem, dt),
         (26, 48),
         style::text(15.0, style::MUTED),
     ))?;

@@ -14,8 +14,9 @@
 use super::colormap::Scale;
 use super::field::{self, Level, Spec};
 use super::{style, title_band, Area, Res};
-use crate::analysis::{GrowthResult, Results};
-use crate::case::Case;
+use crate::analysis::growth::GrowthResult;
+use crate::analysis::Results;
+use crate::problem::Problem;
 
 /// Below this largest departure G is normal up to roundoff.
 const ROUNDOFF: f64 = 1e-8;
@@ -53,8 +54,8 @@ pub fn departure_top(max: f64) -> f64 {
 }
 
 /// Draws `departure.png`.
-pub fn departure(root: &Area, case: &Case, r: &Results, g: &GrowthResult) -> Res {
-    title_band(root, case, "departure from normality of G", r.dt)?;
+pub fn departure(root: &Area, problem: &Problem, r: &Results, g: &GrowthResult) -> Res {
+    title_band(root, problem, "departure from normality of G", r.dt)?;
     let Some((imax, max)) = largest(&g.departure) else {
         return field::no_data(
             root,
@@ -86,8 +87,8 @@ pub fn departure(root: &Area, case: &Case, r: &Results, g: &GrowthResult) -> Res
 }
 
 /// Draws `norm.png`.
-pub fn norm(root: &Area, case: &Case, r: &Results, g: &GrowthResult) -> Res {
-    title_band(root, case, "one-step amplification ||G||_2", r.dt)?;
+pub fn norm(root: &Area, problem: &Problem, r: &Results, g: &GrowthResult) -> Res {
+    title_band(root, problem, "one-step amplification ||G||_2", r.dt)?;
     let (Some(scale), Some((imax, max))) = (Scale::of(g.norm.iter().copied()), largest(&g.norm))
     else {
         return field::no_data(
@@ -97,14 +98,14 @@ pub fn norm(root: &Area, case: &Case, r: &Results, g: &GrowthResult) -> Res {
     };
     let theta = theta_at(r, imax);
     let digits = if (max - 1.0).abs() < 1e-3 { 8 } else { 5 };
-    let tol = style::num(case.scan.tolerance, 2);
+    let tol = style::num(r.plan.tolerance, 2);
     let spec = Spec {
         values: &g.norm,
         scale,
         quantity: "||G||_2 (weighted norm)",
         curve: "||G(θ)||_2",
         level: Some(Level {
-            value: 1.0 + case.scan.tolerance,
+            value: 1.0 + r.plan.tolerance,
             crossed: format!("||G||_2 = 1 + {tol}: one step amplifies beyond"),
             missed: format!("||G||_2 = 1 + {tol}: not reached on this map"),
             everywhere: format!("||G||_2 > 1 + {tol} on the whole map"),

@@ -12,13 +12,13 @@ use super::colormap::Scale;
 use super::field::{self, Level, Spec};
 use super::{style, title_band, Area, Res};
 use crate::analysis::{RadiusResult, Results};
-use crate::case::Case;
+use crate::problem::Problem;
 
 /// Draws the picture for the case's dimension.
-pub fn draw(root: &Area, case: &Case, r: &Results, rad: &RadiusResult) -> Res {
+pub fn draw(root: &Area, problem: &Problem, r: &Results, rad: &RadiusResult) -> Res {
     title_band(
         root,
-        case,
+        problem,
         "spectral radius of the amplification matrix",
         r.dt,
     )?;
@@ -28,14 +28,14 @@ pub fn draw(root: &Area, case: &Case, r: &Results, rad: &RadiusResult) -> Res {
             "no finite spectral radius: the eigenvalue kernel failed at every wavevector",
         );
     };
-    let tol = style::num(case.scan.tolerance, 2);
+    let tol = style::num(r.plan.tolerance, 2);
     let spec = Spec {
         values: &rad.map,
         scale,
         quantity: "spectral radius |λ|max",
         curve: "ρ(G(θ))",
         level: Some(Level {
-            value: 1.0 + case.scan.tolerance,
+            value: 1.0 + r.plan.tolerance,
             crossed: format!("|λ| = 1 + {tol}: stability boundary"),
             missed: format!("|λ| = 1 + {tol}: not reached on this map"),
             everywhere: format!("|λ| > 1 + {tol} on the whole map"),

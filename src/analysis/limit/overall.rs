@@ -1,48 +1,17 @@
-//! The largest stable Δt: screening on the grid, exact first-exit times at the
-//! candidates, refinement in continuous θ; and the same along each wave direction.
+//! The largest stable Δt of one-step and multistep methods: screening on the
+//! grid, exact first-exit times at the candidates, refinement in continuous θ;
+//! and the same along each wave direction.
 
 use super::first_exit::{min_over_modes, ExitTimes};
-use super::refine::{compass_minimise, golden_minimise};
+use super::{Limit, LimitKind};
 use crate::linalg::EigSolver;
+use crate::numeric::minimise::{compass_min, golden_min};
 use crate::operator::Operator;
-use crate::sample::{ray_length, Grid};
+use crate::sample::{ray_length, Grid, Progress};
 use num_complex::Complex64 as C64;
 use rayon::prelude::*;
 use std::cell::RefCell;
 use std::f64::consts::PI;
-
-/// What kind of limit the scheme has.
-#[derive(Debug, Clone, Copy, PartialEq, Eq)]
-pub enum LimitKind {
-    /// A finite largest stable Δt.
-    Bounded,
-    /// Stable for every Δt > 0.
-    Unconditional,
-    /// Unstable for every Δt > 0.
-    None,
-}
-
-impl LimitKind {
-    /// The name used in summary.json.
-    pub fn as_str(&self) -> &'static str {
-        match self {
-            LimitKind::Bounded => "bounded",
-            LimitKind::Unconditional => "unconditional",
-            LimitKind::None => "none",
-        }
-    }
-}
-
-/// The overall limit.
-#[derive(Debug, Clone)]
-pub struct Limit {
-    /// Kind.
-    pub kind: LimitKind,
-    /// Largest stable Δt (∞ for unconditional, 0 for none).
-    pub dt_max: f64,
-    /// The wavevector that sets it, wrapped into [−π, π]^d.
-    pub wavevector: Vec<f64>,
-}
 
 /// Exact min over modes of t*(μ(θ)) at any θ.
 pub struct Evaluator<'a> {
@@ -228,7 +197,7 @@ pub fn overall(
     let mut best = (f(&best_theta), best_theta);
     for c in &chosen {
         let x0 = grid.theta(c);
-        let (x, v) = compass_minimise(&f, &x0, step, 1e-11, 2000);
+        let (x, v) = compass_min(&f, &x0, step, 1e-11, 2000);
         if v < best.0 {
             best = (v, x);
         }
@@ -258,7 +227,7 @@ pub fn by_direction(
     directions: &[Vec<f64>],
     samples: usize,
     even: bool,
-    bar: Option<&indicatif::ProgressBar>,
+    progress: &dyn Progress,
 ) -> Vec<(f64, Vec<f64>)> {
     let opposite = opposites(directions, even);
     let computed: Vec<(f64, Vec<f64>)> = directions
@@ -266,12 +235,10 @@ pub fn by_direction(
         .zip(&opposite)
         .map(|(n, opp)| {
             if opp.is_some() {
-                if let Some(b) = bar {
-                    b.inc(1);
-                }
+                progress.advance(1);
                 return (f64::NAN, Vec::new());
             }
-            ray_limit(op, exits, n, samples, bar)
+            ray_limit(op, exits, n, samples, progress)
         })
         .collect();
     mirror_fill(computed, &opposite)
@@ -314,7 +281,7 @@ fn ray_limit(
     exits: &ExitTimes,
     n: &[f64],
     samples: usize,
-    bar: Option<&indicatif::ProgressBar>,
+    progress: &dyn Progress,
 ) -> (f64, Vec<f64>) {
     let eval = Evaluator::new(op, exits);
     let smax = ray_length(n);
@@ -326,9 +293,7 @@ fn ray_limit(
             best = (v, k);
         }
     }
-    if let Some(b) = bar {
-        b.inc(1);
-    }
+    progress.advance(1);
     let k = best.1;
     let s_k = smax * k as f64 / samples as f64;
     let exact_k = eval.exact(&at(s_k));
@@ -345,7 +310,7 @@ fn ray_limit(
             v
         }
     };
-    let (s, v) = golden_minimise(&g, lo.max(1e-12 * smax), hi);
+    let (s, v) = golden_min(&g, lo.max(1e-12 * smax), hi);
     if v < exact_k {
         (v, at(s))
     } else {

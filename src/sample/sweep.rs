@@ -1,123 +1,14 @@
-//! Wavevector grids, wave directions and the parallel sweep.
-//!
-//! Grid coordinates are θ_i = −π + 2π·i/(N−1), computed from the integer i (both
-//! ends included). The sweep evaluates the spatial symbol at every node from
-//! per-axis tables, computes its eigenvalues with one reusable solver per worker,
-//! and hands them to a caller's closure; results come back in C order.
-//! Parallelism is passed in ([`Par`]): a sequential and a parallel sweep give
-//! bit-identical results.
+//! The parallel sweep over a wavevector grid: the spatial symbol at every node
+//! from per-axis tables, its eigenvalues with one reusable solver per worker, and
+//! a caller's closure per node; results come back in C order. With the conjugate
+//! symmetry L(−θ) = conj L(θ) of real schemes only half the rows are computed and
+//! the rest mirrored.
 
+use super::{Grid, Par, Progress};
 use crate::linalg::{EigSolver, LinalgError};
 use crate::operator::Operator;
-use indicatif::ProgressBar;
 use num_complex::Complex64 as C64;
 use rayon::prelude::*;
-use std::f64::consts::PI;
-
-/// Degree of parallelism.
-#[derive(Debug, Clone, Copy, PartialEq, Eq)]
-pub enum Par {
-    /// On the calling thread.
-    Seq,
-    /// On a local pool of this many threads (0: one per core).
-    Threads(usize),
-}
-
-impl Par {
-    /// Runs `f` under this parallelism (a local rayon pool, never the global one).
-    pub fn run<R: Send>(&self, f: impl FnOnce() -> R + Send) -> R {
-        match self {
-            Par::Seq => f(),
-            Par::Threads(n) => match rayon::ThreadPoolBuilder::new().num_threads(*n).build() {
-                Ok(pool) => pool.install(f),
-                Err(_) => f(),
-            },
-        }
-    }
-}
-
-/// The coordinates θ_i = −π + 2π i/(n−1), i = 0..n−1.
-pub fn axis_coords(n: usize) -> Vec<f64> {
-    (0..n)
-        .map(|i| -PI + 2.0 * PI * i as f64 / (n - 1) as f64)
-        .collect()
-}
-
-/// A tensor grid of wavevectors.
-#[derive(Debug, Clone)]
-pub struct Grid {
-    /// Points per axis.
-    pub points: Vec<usize>,
-    /// Coordinates per axis.
-    pub coords: Vec<Vec<f64>>,
-}
-
-impl Grid {
-    /// A grid with the given number of points per axis (each ≥ 2).
-    pub fn new(points: &[usize]) -> Grid {
-        assert!(
-            points.iter().all(|&n| n >= 2),
-            "grid axes need at least 2 points"
-        );
-        Grid {
-            points: points.to_vec(),
-            coords: points.iter().map(|&n| axis_coords(n)).collect(),
-        }
-    }
-
-    /// Total number of nodes.
-    pub fn len(&self) -> usize {
-        self.points.iter().product()
-    }
-
-    /// Whether the grid is empty (never, for a valid grid).
-    pub fn is_empty(&self) -> bool {
-        self.len() == 0
-    }
-
-    /// Per-axis indices of a flat (C-order) index.
-    pub fn unravel(&self, mut flat: usize, idx: &mut [usize]) {
-        for d in (0..self.points.len()).rev() {
-            idx[d] = flat % self.points[d];
-            flat /= self.points[d];
-        }
-    }
-
-    /// θ at per-axis indices.
-    pub fn theta(&self, idx: &[usize]) -> Vec<f64> {
-        idx.iter().zip(&self.coords).map(|(i, c)| c[*i]).collect()
-    }
-
-    /// Spacing of axis d.
-    pub fn step(&self, d: usize) -> f64 {
-        2.0 * PI / (self.points[d] - 1) as f64
-    }
-}
-
-/// D angles 2πj/D, j = 0..D−1 (2D wave directions).
-pub fn circle_directions(count: usize) -> Vec<f64> {
-    (0..count)
-        .map(|j| 2.0 * PI * j as f64 / count as f64)
-        .collect()
-}
-
-/// D quasi-uniform unit vectors on the sphere (Fibonacci lattice).
-pub fn sphere_directions(count: usize) -> Vec<[f64; 3]> {
-    let golden = PI * (3.0 - 5f64.sqrt());
-    (0..count)
-        .map(|j| {
-            let z = 1.0 - 2.0 * (j as f64 + 0.5) / count as f64;
-            let r = (1.0 - z * z).max(0.0).sqrt();
-            let phi = golden * j as f64;
-            [r * phi.cos(), r * phi.sin(), z]
-        })
-        .collect()
-}
-
-/// Length of the ray from θ = 0 along unit vector n to the boundary of [−π, π]^d.
-pub fn ray_length(n: &[f64]) -> f64 {
-    PI / n.iter().map(|x| x.abs()).fold(0.0, f64::max)
-}
 
 /// What the sweep hands to the caller at each node.
 pub struct Node<'a> {
@@ -147,14 +38,14 @@ pub fn sweep<T, F>(
     grid: &Grid,
     par: Par,
     symmetry: Symmetry,
-    bar: Option<&ProgressBar>,
+    progress: &dyn Progress,
     f: F,
 ) -> Vec<T>
 where
     T: Send + Clone + Default,
     F: Fn(&Node) -> T + Sync,
 {
-    sweep_span(op, grid, par, Span::Grid(symmetry), bar, f)
+    sweep_span(op, grid, par, Span::Grid(symmetry), progress, f)
 }
 
 /// Evaluates `f` at the nodes of grid rows `rows` only (rows along the last axis,
@@ -165,14 +56,14 @@ pub fn sweep_rows<T, F>(
     grid: &Grid,
     par: Par,
     rows: std::ops::Range<usize>,
-    bar: Option<&ProgressBar>,
+    progress: &dyn Progress,
     f: F,
 ) -> Vec<T>
 where
     T: Send + Clone + Default,
     F: Fn(&Node) -> T + Sync,
 {
-    sweep_span(op, grid, par, Span::Rows(rows), bar, f)
+    sweep_span(op, grid, par, Span::Rows(rows), progress, f)
 }
 
 /// Rows a sweep should cover: the whole grid (half of it mirrored when even) or
@@ -196,7 +87,7 @@ fn sweep_span<T, F>(
     grid: &Grid,
     par: Par,
     span: Span,
-    bar: Option<&ProgressBar>,
+    progress: &dyn Progress,
     f: F,
 ) -> Vec<T>
 where
@@ -235,7 +126,7 @@ where
             });
         }
     };
-    by_rows(grid, par, span, bar, init, work)
+    by_rows(grid, par, span, progress, init, work)
 }
 
 /// Runs `work(workspace, (row, chunk))` over the rows of the output in C order
@@ -245,7 +136,7 @@ fn by_rows<T, W, I, F>(
     grid: &Grid,
     par: Par,
     span: Span,
-    bar: Option<&ProgressBar>,
+    progress: &dyn Progress,
     init: I,
     work: F,
 ) -> Vec<T>
@@ -266,9 +157,7 @@ where
     let counted = |ws: &mut W, (r, chunk): (usize, &mut [T])| {
         let n = chunk.len() as u64;
         work(ws, (first + r, chunk));
-        if let Some(b) = bar {
-            b.inc(n);
-        }
+        progress.advance(n);
     };
     match par {
         Par::Seq => {
@@ -286,21 +175,13 @@ where
     for (k, slot) in tail.iter_mut().enumerate() {
         *slot = head[total - 1 - (count * row + k)].clone();
     }
-    if let Some(b) = bar {
-        b.inc(tail.len() as u64);
-    }
+    progress.advance(tail.len() as u64);
     out
 }
 
 /// Evaluates `f(θ)` at every grid node in C order (for quantities that need more
 /// than the eigenvalues of L, such as composite amplification matrices).
-pub fn map<T, F>(
-    grid: &Grid,
-    par: Par,
-    symmetry: Symmetry,
-    bar: Option<&ProgressBar>,
-    f: F,
-) -> Vec<T>
+pub fn map<T, F>(grid: &Grid, par: Par, symmetry: Symmetry, progress: &dyn Progress, f: F) -> Vec<T>
 where
     T: Send + Clone + Default,
     F: Fn(&[f64]) -> T + Sync,
@@ -314,5 +195,5 @@ where
             *slot = f(&grid.theta(idx));
         }
     };
-    by_rows(grid, par, Span::Grid(symmetry), bar, init, work)
+    by_rows(grid, par, Span::Grid(symmetry), progress, init, work)
 }

@@ -9,12 +9,14 @@
 //! finally scans Δt on a uniform grid below the limit, so that a stable window
 //! cannot hide an earlier loss of stability.
 
-use super::limit::{wrap, Limit, LimitKind};
-use super::refine::{compass_minimise, golden_minimise};
-use crate::case::Case;
+use super::overall::{mirror_fill, opposites, wrap};
+use super::{Limit, LimitKind};
 use crate::linalg;
+use crate::numeric::bracket::bisect;
+use crate::numeric::minimise::{compass_min, golden_min};
 use crate::operator::Operator;
-use crate::sample::{ray_length, Grid};
+use crate::problem::Problem;
+use crate::sample::{ray_length, Grid, Progress};
 use crate::time::composite::{self, Composite};
 use rayon::prelude::*;
 use std::sync::atomic::{AtomicUsize, Ordering};
@@ -25,7 +27,7 @@ const BISECTIONS: usize = 60;
 
 /// ρ(G(θ, Δt)) of a composite scheme.
 pub struct CompositeEval<'a> {
-    case: &'a Case,
+    problem: &'a Problem,
     op: &'a Operator,
     scheme: &'a Composite,
     tol: f64,
@@ -43,13 +45,13 @@ pub struct CompositeLimit {
 }
 
 impl<'a> CompositeEval<'a> {
-    /// For a case whose method is composite.
-    pub fn new(case: &'a Case, op: &'a Operator, scheme: &'a Composite) -> Self {
+    /// For a problem whose method is composite, with the stability tolerance.
+    pub fn new(problem: &'a Problem, op: &'a Operator, scheme: &'a Composite, tol: f64) -> Self {
         Self {
-            case,
+            problem,
             op,
             scheme,
-            tol: case.scan.tolerance,
+            tol,
         }
     }
 
@@ -57,9 +59,9 @@ impl<'a> CompositeEval<'a> {
     pub fn radius(&self, theta: &[f64], dt: f64) -> f64 {
         let g = composite::amplification(
             self.scheme,
-            &self.case.system,
+            &self.problem.system,
             self.op,
-            &self.case.spacing,
+            &self.problem.spacing,
             theta,
             dt,
         );
@@ -119,18 +121,8 @@ impl<'a> CompositeEval<'a> {
                 }
             }
         }
-        for _ in 0..BISECTIONS {
-            if hi - lo <= 1e-12 * hi {
-                break;
-            }
-            let mid = 0.5 * (lo + hi);
-            if self.any_unstable(points, mid, hint).is_some() {
-                hi = mid;
-            } else {
-                lo = mid;
-            }
-        }
-        Some((lo, hi))
+        let stable = |dt: f64| self.any_unstable(points, dt, hint).is_none();
+        Some(bisect(stable, lo, hi, 1e-12, BISECTIONS))
     }
 
     /// First loss of stability at one wavevector within [lo, hi] (hi if stable there).
@@ -138,22 +130,10 @@ impl<'a> CompositeEval<'a> {
         if !self.unstable(theta, hi) {
             return hi;
         }
-        let (mut a, mut b) = (lo, hi);
-        if self.unstable(theta, a) {
-            return a;
+        if self.unstable(theta, lo) {
+            return lo;
         }
-        for _ in 0..50 {
-            if b - a <= 1e-12 * b {
-                break;
-            }
-            let mid = 0.5 * (a + b);
-            if self.unstable(theta, mid) {
-                b = mid;
-            } else {
-                a = mid;
-            }
-        }
-        a
+        bisect(|dt| !self.unstable(theta, dt), lo, hi, 1e-12, 50).0
     }
 
     /// The worst point at Δt: largest radius.
@@ -220,7 +200,7 @@ impl<'a> CompositeEval<'a> {
             .map(|d| grid.step(d))
             .fold(f64::INFINITY, f64::min);
         let f = |x: &[f64]| self.exit_at(x, 0.5 * lo, hi);
-        let (x, v) = compass_minimise(&f, &points[iw], step, 1e-9, 1500);
+        let (x, v) = compass_min(&f, &points[iw], step, 1e-9, 1500);
         let (dt, theta) = if v < lo {
             (v, x)
         } else {
@@ -248,16 +228,14 @@ impl<'a> CompositeEval<'a> {
         directions: &[Vec<f64>],
         samples: usize,
         start: f64,
-        bar: Option<&indicatif::ProgressBar>,
+        progress: &dyn Progress,
     ) -> Vec<(f64, Vec<f64>)> {
-        let opposite = super::limit::opposites(directions, self.op.real_coefficients);
+        let opposite = opposites(directions, self.op.real_coefficients);
         let computed = directions
             .iter()
             .zip(&opposite)
             .map(|(n, opp)| {
-                if let Some(b) = bar {
-                    b.inc(1);
-                }
+                progress.advance(1);
                 if opp.is_some() {
                     return (f64::NAN, Vec::new());
                 }
@@ -279,7 +257,7 @@ impl<'a> CompositeEval<'a> {
                 let a = smax * k as f64 / samples as f64;
                 let b = (smax * (k + 2) as f64 / samples as f64).min(smax);
                 let g = |s: f64| self.exit_at(&at(s), 0.5 * lo, hi);
-                let (s, v) = golden_minimise(&g, a.max(1e-12 * smax), b);
+                let (s, v) = golden_min(&g, a.max(1e-12 * smax), b);
                 if v < lo {
                     (v, at(s))
                 } else {
@@ -287,6 +265,6 @@ impl<'a> CompositeEval<'a> {
                 }
             })
             .collect();
-        super::limit::mirror_fill(computed, &opposite)
+        mirror_fill(computed, &opposite)
     }
 }

@@ -1,7 +1,6 @@
-//! Beyond the spectral radius: ‖G‖₂, Henrici's departure from normality, the
-//! eigenvector condition number, the transient-growth envelope max_θ ‖Gⁿ‖₂, a
-//! Kreiss-constant lower bound and the ε-pseudospectral radius (Trefethen &
-//! Embree, Spectra and Pseudospectra, 2005).
+//! Per-wavevector non-normality measures — ‖G‖₂, Henrici's departure from
+//! normality, the eigenvector condition number — and the transient-growth
+//! envelope max_θ ‖Gⁿ‖₂ (Trefethen & Embree, Spectra and Pseudospectra, 2005).
 //!
 //! One Schur factorisation G = QTQᴴ per wavevector serves everything:
 //! ‖Gⁿ‖₂ = ‖Tⁿ‖₂, and the powers of the triangular T are formed with a running
@@ -140,92 +139,4 @@ pub fn node(g: &DMatrix<C64>, steps: usize, env: &Envelope) -> (NodeMeasures, (f
         }
     }
     (measures, peak)
-}
-
-/// Kreiss-constant lower bound sup (|z| − 1)‖(zI − G)⁻¹‖₂ over sampled |z| > 1
-/// (radii 1 + 10^(−k/4), k = 0..32, 128 angles); infinite when ρ(G) > 1.
-pub fn kreiss_lower_bound(g: &DMatrix<C64>) -> f64 {
-    let m = g.nrows();
-    let id = DMatrix::<C64>::identity(m, m);
-    let rho = crate::linalg::spectral_radius(&crate::linalg::from_matrix(g), m).unwrap_or(f64::NAN);
-    if rho > 1.0 + 1e-12 {
-        return f64::INFINITY;
-    }
-    let mut best: f64 = 0.0;
-    for k in 0..=32 {
-        let r = 1.0 + 10f64.powf(-(k as f64) / 4.0);
-        for a in 0..128 {
-            let z = C64::from_polar(r, std::f64::consts::TAU * a as f64 / 128.0);
-            let smin = dense::sigma_min(&(&id * z - g));
-            if smin > 0.0 {
-                best = best.max((r - 1.0) / smin);
-            }
-        }
-    }
-    best
-}
-
-/// ε-pseudospectral radius max{|z| : σ_min(zI − G) ≤ ε}: along 128 rays, the
-/// outermost boundary point, scanning inward from ‖G‖₂ + ε and bisecting.
-pub fn pseudospectral_radius(g: &DMatrix<C64>, eps: f64) -> f64 {
-    let m = g.nrows();
-    let id = DMatrix::<C64>::identity(m, m);
-    let outer = dense::norm2(g) + eps;
-    let inside = |z: C64| dense::sigma_min(&(&id * z - g)) <= eps;
-    let mut best: f64 = 0.0;
-    let samples = 256;
-    for a in 0..128 {
-        let w = C64::from_polar(1.0, std::f64::consts::TAU * a as f64 / 128.0);
-        let mut hi = outer;
-        for k in (0..samples).rev() {
-            let r = outer * k as f64 / samples as f64;
-            if inside(w * r) {
-                let mut lo = r;
-                for _ in 0..50 {
-                    let mid = 0.5 * (lo + hi);
-                    if inside(w * mid) {
-                        lo = mid;
-                    } else {
-                        hi = mid;
-                    }
-                }
-                best = best.max(lo);
-                break;
-            }
-            hi = r;
-        }
-    }
-    // σ_min(zI − G) ≤ |z − λ|: the ε-disc around every eigenvalue is inside
-    let rho = crate::linalg::spectral_radius(&crate::linalg::from_matrix(g), m).unwrap_or(0.0);
-    best.max(rho + eps)
-}
-
-/// Right singular vector of the largest singular value of Gⁿ: the initial
-/// perturbation that grows most in n steps.
-pub fn optimal_perturbation(g: &DMatrix<C64>, n: usize) -> (f64, Vec<C64>) {
-    let m = g.nrows();
-    let mut p = DMatrix::<C64>::identity(m, m);
-    let mut log_scale = 0.0f64;
-    for _ in 0..n {
-        p = &p * g;
-        let f = dense::frobenius(&p);
-        if f > 1e100 {
-            p /= C64::new(f, 0.0);
-            log_scale += f.ln();
-        }
-    }
-    let svd = p.svd(false, true);
-    let (imax, smax) =
-        svd.singular_values
-            .iter()
-            .enumerate()
-            .fold(
-                (0, f64::NEG_INFINITY),
-                |b, (i, s)| if *s > b.1 { (i, *s) } else { b },
-            );
-    let v = svd
-        .v_t
-        .map(|vt| (0..m).map(|j| vt[(imax, j)].conj()).collect())
-        .unwrap_or_else(|| vec![C64::new(f64::NAN, 0.0); m]);
-    (smax * log_scale.exp(), v)
 }

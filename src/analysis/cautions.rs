@@ -1,0 +1,37 @@
+//! The cautions every result carries — what von Neumann analysis does and does
+//! not establish, and the margin to keep — and those particular to a run.
+
+use super::limit::LimitKind;
+use super::results::Results;
+use crate::problem::Problem;
+
+/// The cautions of a run.
+pub(super) fn cautions(problem: &Problem, r: &Results) -> Vec<String> {
+    let mut c = vec![
+        "Von Neumann analysis of a linear, constant-coefficient problem on a periodic grid: a necessary condition for the stability of a real solver, not a sufficient one (boundaries, variable coefficients, nonlinearity and filters can each destabilise a scheme that passes here).".to_string(),
+        "Use a safety margin on any time step reported here, e.g. 0.8 to 0.9 times dt_max.".to_string(),
+    ];
+    if r.failures > 0 {
+        c.push(format!(
+            "the eigenvalue kernel did not converge at {} wavevector(s); their values are NaN and they were skipped",
+            r.failures
+        ));
+    }
+    if let Some(l) = &r.limit {
+        if l.kind == LimitKind::None {
+            c.push(format!(
+                "no time step is stable: the {} method amplifies some wavevector for every dt > 0",
+                problem.method.name
+            ));
+        }
+    }
+    if let Some(rad) = &r.radius {
+        if !rad.stable {
+            c.push(format!(
+                "unstable at the case time step: max |lambda| = {:.6} exceeds 1 + tolerance",
+                rad.max
+            ));
+        }
+    }
+    c
+}

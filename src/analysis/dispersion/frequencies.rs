@@ -1,0 +1,283 @@
+//! Frequencies of a discretisation and of the continuous system, matched mode by
+//! mode.
+//!
+//! Semi-discrete frequencies ω = i·eig L(θ) (a mode e^{i(k·x − ωt)}), the
+//! continuous system's ω = i·eig L_c(k) at k_d = θ_d/h_d, and fully discrete ω
+//! from the eigenvalues of G, λ = e^{−iωΔt}, on the branch nearest the
+//! semi-discrete ω (so the branch follows the mode continuously from small
+//! wavenumbers rather than the principal logarithm).
+//!
+//! Modes are matched by continuation from the long-wave limit: along the ray
+//! from θ = 0 to each wavevector both spectra are followed step by step (each step
+//! pairs eigenvalues with the previous ones, extrapolated linearly, by the
+//! cheapest assignment); at the start of the ray the numerical and exact spectra
+//! agree, and the exact ones carry the model's mode names.
+
+use crate::analysis::context::amplification_at;
+use crate::linalg::{self, EigSolver};
+use crate::operator::Operator;
+use crate::problem::Problem;
+use num_complex::Complex64 as C64;
+use std::f64::consts::PI;
+
+/// Steps of the continuation along a ray.
+const TRACK_STEPS: usize = 20;
+/// Relative start of the ray (long-wave limit).
+const START: f64 = 1e-4;
+
+/// Pairs `new` with `target` by the cheapest total distance (all permutations for
+/// m ≤ 4; beyond, the globally closest pair first, repeatedly); returns `new`
+/// reordered.
+fn assign(target: &[C64], new: &[C64]) -> Vec<C64> {
+    let m = target.len();
+    if m <= 4 {
+        let mut perm: Vec<usize> = (0..m).collect();
+        let mut best = (f64::INFINITY, perm.clone());
+        permute(&mut perm, 0, &mut |p| {
+            let cost: f64 = p
+                .iter()
+                .enumerate()
+                .map(|(i, &j)| (target[i] - new[j]).norm())
+                .sum();
+            if cost < best.0 {
+                best = (cost, p.to_vec());
+            }
+        });
+        best.1.iter().map(|&j| new[j]).collect()
+    } else {
+        let mut pairs: Vec<(f64, usize, usize)> = Vec::with_capacity(m * new.len());
+        for (i, t) in target.iter().enumerate() {
+            for (j, n) in new.iter().enumerate() {
+                pairs.push(((t - n).norm(), i, j));
+            }
+        }
+        pairs.sort_by(|a, b| a.0.total_cmp(&b.0));
+        let mut out = vec![C64::new(f64::NAN, f64::NAN); m];
+        let (mut ti, mut nj) = (vec![false; m], vec![false; new.len()]);
+        for (_, i, j) in pairs {
+            if !ti[i] && !nj[j] {
+                ti[i] = true;
+                nj[j] = true;
+                out[i] = new[j];
+            }
+        }
+        out
+    }
+}
+
+fn permute(p: &mut [usize], k: usize, f: &mut impl FnMut(&[usize])) {
+    if k == p.len() {
+        f(p);
+        return;
+    }
+    for i in k..p.len() {
+        p.swap(k, i);
+        permute(p, k + 1, f);
+        p.swap(k, i);
+    }
+}
+
+/// Frequencies along a ray, evaluated by `freq` at fractions s of the end point.
+struct Tracker<'a> {
+    freq: &'a dyn Fn(&[f64]) -> Vec<C64>,
+}
+
+impl Tracker<'_> {
+    /// Frequencies at `theta`, in the order they have at the start of the ray
+    /// (ascending Re ω there).
+    fn follow(&self, theta: &[f64]) -> Vec<C64> {
+        let at = |s: f64| -> Vec<f64> { theta.iter().map(|t| t * s).collect() };
+        let mut prev = (self.freq)(&at(START));
+        prev.sort_by(|a, b| a.re.total_cmp(&b.re));
+        // geometric steps: in the long-wave limit ω grows in proportion to s, so the
+        // first prediction scales the start values and later ones extrapolate
+        let ratio = (1.0 / START).powf(1.0 / TRACK_STEPS as f64);
+        let mut prev2: Option<Vec<C64>> = None;
+        let mut s_prev = START;
+        let mut s_prev2 = START;
+        for k in 1..=TRACK_STEPS {
+            let s = if k == TRACK_STEPS {
+                1.0
+            } else {
+                START * ratio.powi(k as i32)
+            };
+            let raw = (self.freq)(&at(s));
+            let predicted: Vec<C64> = match &prev2 {
+                None => prev.iter().map(|a| a * (s / s_prev)).collect(),
+                Some(p2) => {
+                    let slope = (s - s_prev) / (s_prev - s_prev2);
+                    prev.iter()
+                        .zip(p2)
+                        .map(|(a, b)| a + (a - b) * slope)
+                        .collect()
+                }
+            };
+            let next = assign(&predicted, &raw);
+            prev2 = Some(std::mem::replace(&mut prev, next));
+            s_prev2 = s_prev;
+            s_prev = s;
+        }
+        prev
+    }
+}
+
+/// Semi-discrete and exact frequencies at θ, each in physical-mode order.
+pub struct Frequencies<'a> {
+    problem: &'a Problem,
+    op: &'a Operator,
+}
+
+impl<'a> Frequencies<'a> {
+    /// For a problem and its operator.
+    pub fn new(problem: &'a Problem, op: &'a Operator) -> Self {
+        Self { problem, op }
+    }
+
+    /// The problem.
+    pub fn problem(&self) -> &Problem {
+        self.problem
+    }
+
+    fn eig(&self, l: &[C64]) -> Vec<C64> {
+        let m = self.op.m;
+        let mut out = vec![C64::new(0.0, 0.0); m];
+        if EigSolver::new(m).eigenvalues(l, &mut out).is_err() {
+            out.fill(C64::new(f64::NAN, f64::NAN));
+        }
+        out.iter().map(|mu| C64::new(0.0, 1.0) * mu).collect()
+    }
+
+    /// Semi-discrete ω at θ (unordered).
+    pub fn numerical_raw(&self, theta: &[f64]) -> Vec<C64> {
+        self.eig(&self.op.symbol(theta))
+    }
+
+    /// Exact ω at the physical wavevector of θ (unordered).
+    pub fn exact_raw(&self, theta: &[f64]) -> Vec<C64> {
+        let k: Vec<f64> = theta
+            .iter()
+            .zip(&self.problem.spacing)
+            .map(|(t, h)| t / h)
+            .collect();
+        self.eig(&linalg::from_matrix(
+            &self.problem.system.continuous_symbol(&k),
+        ))
+    }
+
+    /// (numerical, exact) ω at θ, both in physical-mode order.
+    pub fn matched(&self, theta: &[f64]) -> (Vec<C64>, Vec<C64>) {
+        let num = Tracker {
+            freq: &|t| self.numerical_raw(t),
+        }
+        .follow(theta);
+        let exact = Tracker {
+            freq: &|t| self.exact_raw(t),
+        }
+        .follow(theta);
+        (num, exact)
+    }
+
+    /// Group velocities (physical units) of the matched numerical and exact modes
+    /// at θ, by central differences in θ.
+    pub fn group_velocities(
+        &self,
+        theta: &[f64],
+        num: &[C64],
+        exact: &[C64],
+    ) -> (Vec<Vec<f64>>, Vec<Vec<f64>>) {
+        let m = num.len();
+        let d = theta.len();
+        let mut gn = vec![vec![0.0; d]; m];
+        let mut ge = vec![vec![0.0; d]; m];
+        let delta = 1e-6;
+        for ax in 0..d {
+            let mut tp = theta.to_vec();
+            let mut tm = theta.to_vec();
+            tp[ax] += delta;
+            tm[ax] -= delta;
+            let h = self.problem.spacing[ax];
+            let np = assign(num, &self.numerical_raw(&tp));
+            let nm = assign(num, &self.numerical_raw(&tm));
+            let ep = assign(exact, &self.exact_raw(&tp));
+            let em = assign(exact, &self.exact_raw(&tm));
+            for j in 0..m {
+                gn[j][ax] = (np[j].re - nm[j].re) / (2.0 * delta) * h;
+                ge[j][ax] = (ep[j].re - em[j].re) / (2.0 * delta) * h;
+            }
+        }
+        (gn, ge)
+    }
+
+    /// Fully discrete group velocities of the principal roots at θ, by central
+    /// differences of the fully discrete ω (each branch followed from θ).
+    pub fn discrete_group_velocities(
+        &self,
+        theta: &[f64],
+        num: &[C64],
+        disc: &[C64],
+        dt: f64,
+    ) -> Vec<Vec<f64>> {
+        let m = num.len();
+        let d = theta.len();
+        let mut g = vec![vec![0.0; d]; m];
+        let delta = 1e-6;
+        for ax in 0..d {
+            let mut tp = theta.to_vec();
+            let mut tm = theta.to_vec();
+            tp[ax] += delta;
+            tm[ax] -= delta;
+            let h = self.problem.spacing[ax];
+            let near = |t: &[f64]| {
+                let n = assign(num, &self.numerical_raw(t));
+                let w = self.discrete(t, &n, dt);
+                assign(&disc[..m], &w[..m])
+            };
+            let (wp, wm) = (near(&tp), near(&tm));
+            for j in 0..m {
+                g[j][ax] = (wp[j].re - wm[j].re) / (2.0 * delta) * h;
+            }
+        }
+        g
+    }
+
+    /// Fully discrete ω for the matched semi-discrete modes (principal roots, in
+    /// physical-mode order) followed by the computational modes.
+    pub fn discrete(&self, theta: &[f64], num: &[C64], dt: f64) -> Vec<C64> {
+        let g = amplification_at(self.problem, self.op, theta, dt);
+        let size = g.nrows();
+        let lam = linalg::eigenvalues(&linalg::from_matrix(&g), size)
+            .unwrap_or_else(|_| vec![C64::new(f64::NAN, f64::NAN); size]);
+        // principal root of each mode: the eigenvalue nearest e^{−iωΔt}
+        let target: Vec<C64> = num
+            .iter()
+            .map(|w| (C64::new(0.0, -1.0) * w * dt).exp())
+            .collect();
+        let mut used = vec![false; size];
+        let mut out = Vec::with_capacity(size);
+        for (t, w) in target.iter().zip(num) {
+            let j = (0..size)
+                .filter(|j| !used[*j])
+                .min_by(|a, b| (lam[*a] - t).norm().total_cmp(&(lam[*b] - t).norm()))
+                .unwrap_or(0);
+            used[j] = true;
+            out.push(log_branch(lam[j], dt, w.re));
+        }
+        for (j, l) in lam.iter().enumerate() {
+            if !used[j] {
+                out.push(log_branch(*l, dt, 0.0));
+            }
+        }
+        out
+    }
+}
+
+/// ω = i ln λ / Δt on the branch whose real part is nearest `near`.
+pub fn log_branch(lam: C64, dt: f64, near: f64) -> C64 {
+    if lam.norm() == 0.0 {
+        return C64::new(f64::NAN, f64::NEG_INFINITY);
+    }
+    let base = -lam.arg() / dt;
+    let period = 2.0 * PI / dt;
+    let k = ((near - base) / period).round();
+    C64::new(base + k * period, lam.norm().ln() / dt)
+}

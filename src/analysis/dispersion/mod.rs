@@ -1,0 +1,183 @@
+//! Dispersion and dissipation by mode and direction: frequencies matched to the
+//! physical modes at every grid node ([`frequencies`]), maps derived from them
+//! ([`maps`]), curves along physical directions and the resolution each mode
+//! needs ([`curves`]). A fully discrete eigenvalue with no semi-discrete partner —
+//! the extra roots of a multistep method — is a computational mode; a numerical
+//! mode whose group velocity opposes the physical one is a parasitic
+//! (grid-scale) wave.
+
+pub mod curves;
+pub mod frequencies;
+pub mod maps;
+
+use super::context::Context;
+use super::plan::DispersionParams;
+use crate::sample::{self, Stage};
+use frequencies::Frequencies;
+use maps::{DerivedMaps, NodeFrequencies};
+use num_complex::Complex64 as C64;
+
+/// Everything the dispersion analysis produces.
+#[derive(Debug, Clone)]
+pub struct DispersionResult {
+    /// Physical mode names (m).
+    pub names: Vec<String>,
+    /// Number of computational (extra fully discrete) modes.
+    pub computational: usize,
+    /// Per node: semi-discrete ω (m), C order.
+    pub numerical: Vec<Vec<C64>>,
+    /// Per node: exact ω (m).
+    pub exact: Vec<Vec<C64>>,
+    /// Per node: fully discrete ω (m principal + computational).
+    pub discrete: Vec<Vec<C64>>,
+    /// Per node: numerical group velocity (m × d).
+    pub group: Vec<Vec<Vec<f64>>>,
+    /// Per node: exact group velocity (m × d).
+    pub group_exact: Vec<Vec<Vec<f64>>>,
+    /// Per node: fully discrete group velocity (m × d).
+    pub group_discrete: Vec<Vec<Vec<f64>>>,
+    /// Physical directions of the curves (unit vectors in k-space).
+    pub directions: Vec<Vec<f64>>,
+    /// Points per wavelength of the curve samples.
+    pub ppw: Vec<f64>,
+    /// Phase-speed ratio c_num/c_exact, semi-discrete [direction][sample][mode].
+    pub phase_curves: Vec<Vec<Vec<f64>>>,
+    /// The same, fully discrete.
+    pub phase_curves_discrete: Vec<Vec<Vec<f64>>>,
+    /// Group-speed ratio along the physical group velocity, semi-discrete.
+    pub group_curves: Vec<Vec<Vec<f64>>>,
+    /// Per mode: (semi-discrete, fully discrete) points per wavelength needed for
+    /// |phase error| ≤ tolerance in the worst direction, and that direction's index.
+    pub resolution: Vec<(Option<f64>, Option<f64>, usize)>,
+    /// Phase tolerance used.
+    pub tolerance: f64,
+    /// Maps derived from the frequencies at every node.
+    pub maps: DerivedMaps,
+    /// Per mode: share of grid wavevectors where the numerical group velocity
+    /// opposes the exact one (parasitic, grid-scale waves).
+    pub parasitic_fraction: Vec<f64>,
+}
+
+/// Phase-speed ratio Re ω_num / Re ω_exact, NaN where the exact mode does not move.
+pub fn phase_ratio(num: C64, exact: C64, scale: f64) -> f64 {
+    if exact.re.abs() <= 1e-9 * scale {
+        f64::NAN
+    } else {
+        num.re / exact.re
+    }
+}
+
+/// (group-speed ratio along ĉ_exact, angle between the two velocities).
+pub fn group_ratio(gn: &[f64], ge: &[f64]) -> (f64, f64) {
+    let e2: f64 = ge.iter().map(|x| x * x).sum();
+    let n2: f64 = gn.iter().map(|x| x * x).sum();
+    if e2 == 0.0 {
+        return (f64::NAN, f64::NAN);
+    }
+    let dot: f64 = gn.iter().zip(ge).map(|(a, b)| a * b).sum();
+    let cos = if n2 > 0.0 {
+        (dot / (n2 * e2).sqrt()).clamp(-1.0, 1.0)
+    } else {
+        f64::NAN
+    };
+    (dot / e2, cos.acos())
+}
+
+type NodeOut = (
+    Vec<C64>,
+    Vec<C64>,
+    Vec<C64>,
+    Vec<Vec<f64>>,
+    Vec<Vec<f64>>,
+    Vec<Vec<f64>>,
+);
+
+/// The dispersion analysis.
+pub(super) fn analyse(ctx: &Context, p: &DispersionParams) -> DispersionResult {
+    let (grid, dt) = (&ctx.grid, ctx.dt);
+    let f = Frequencies::new(ctx.problem, &ctx.op);
+    ctx.progress.start(Stage::Dispersion, grid.len() as u64);
+    let nodes: Vec<NodeOut> =
+        sample::map(grid, ctx.par, sample::Symmetry::None, ctx.progress, |th| {
+            let (num, exact) = f.matched(th);
+            let disc = f.discrete(th, &num, dt);
+            let (gn, ge) = f.group_velocities(th, &num, &exact);
+            let gd = f.discrete_group_velocities(th, &num, &disc, dt);
+            (num, exact, disc, gn, ge, gd)
+        });
+    ctx.progress.finish();
+    let dirs = curves::curve_directions(grid.points.len(), p.directions);
+    let curves: Vec<_> = ctx.par.run(|| {
+        use rayon::prelude::*;
+        dirs.par_iter().map(|n| curves::curve(&f, n, dt)).collect()
+    });
+    let names = ctx.problem.system.mode_names.clone();
+    let m = names.len();
+    let tol = p.phase_tolerance;
+    let resolution = curves::worst_resolution(&curves, m, tol);
+    let computational = nodes.first().map_or(0, |n| n.2.len().saturating_sub(m));
+    let ppw = curves.first().map(|c| c.0.clone()).unwrap_or_default();
+    let mut maps = DerivedMaps::default();
+    let mut opposed = vec![0usize; m];
+    for (num, exact, disc, gn, ge, gd) in &nodes {
+        maps.push(&NodeFrequencies {
+            numerical: num,
+            exact,
+            discrete: disc,
+            group: gn,
+            group_exact: ge,
+            group_discrete: gd,
+        });
+        for (j, count) in opposed.iter_mut().enumerate() {
+            let dot: f64 = gn[j].iter().zip(&ge[j]).map(|(a, b)| a * b).sum();
+            if dot < 0.0 {
+                *count += 1;
+            }
+        }
+    }
+    let parasitic_fraction = opposed
+        .iter()
+        .map(|c| *c as f64 / nodes.len().max(1) as f64)
+        .collect();
+    let mut numerical = Vec::with_capacity(nodes.len());
+    let mut exact = Vec::with_capacity(nodes.len());
+    let mut discrete = Vec::with_capacity(nodes.len());
+    let mut group = Vec::with_capacity(nodes.len());
+    let mut group_exact = Vec::with_capacity(nodes.len());
+    let mut group_discrete = Vec::with_capacity(nodes.len());
+    for (a, b, c, d, e, g) in nodes {
+        numerical.push(a);
+        exact.push(b);
+        discrete.push(c);
+        group.push(d);
+        group_exact.push(e);
+        group_discrete.push(g);
+    }
+    let mut phase_curves = Vec::new();
+    let mut phase_curves_discrete = Vec::new();
+    let mut group_curves = Vec::new();
+    for (_, ps, pd, gr) in curves {
+        phase_curves.push(ps);
+        phase_curves_discrete.push(pd);
+        group_curves.push(gr);
+    }
+    DispersionResult {
+        names,
+        computational,
+        numerical,
+        exact,
+        discrete,
+        group,
+        group_exact,
+        group_discrete,
+        directions: dirs,
+        ppw,
+        phase_curves,
+        phase_curves_discrete,
+        group_curves,
+        resolution,
+        tolerance: tol,
+        maps,
+        parasitic_fraction,
+    }
+}

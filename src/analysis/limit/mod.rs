@@ -1,0 +1,251 @@
+//! The largest stable Δt, overall and along each wave direction.
+//!
+//! For one-step and linear multistep methods the limit comes from the exact
+//! first exit of each eigenvalue of L from the method's stability region
+//! ([`first_exit`], [`overall`]); for composite schemes from a verified search on
+//! Δt ([`search`]). Both give a [`LimitResult`] of the same shape.
+
+pub mod first_exit;
+pub mod overall;
+pub mod search;
+
+use super::context::Context;
+use crate::numeric::directions;
+use crate::sample::Stage;
+use first_exit::ExitTimes;
+use search::CompositeEval;
+
+pub use overall::wrap;
+
+/// What kind of limit the scheme has.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum LimitKind {
+    /// A finite largest stable Δt.
+    Bounded,
+    /// Stable for every Δt > 0.
+    Unconditional,
+    /// Unstable for every Δt > 0.
+    None,
+}
+
+impl LimitKind {
+    /// The name used in summary.json.
+    pub fn as_str(&self) -> &'static str {
+        match self {
+            LimitKind::Bounded => "bounded",
+            LimitKind::Unconditional => "unconditional",
+            LimitKind::None => "none",
+        }
+    }
+}
+
+/// A limit and the wavevector that sets it.
+#[derive(Debug, Clone)]
+pub struct Limit {
+    /// Kind.
+    pub kind: LimitKind,
+    /// Largest stable Δt (∞ for unconditional, 0 for none).
+    pub dt_max: f64,
+    /// The wavevector that sets it, wrapped into [−π, π]^d.
+    pub wavevector: Vec<f64>,
+}
+
+/// How a limit was found.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum FoundBy {
+    /// First exit from the exact stability region (one-step, multistep).
+    FirstExit,
+    /// A search on Δt (composite schemes).
+    Search,
+}
+
+impl FoundBy {
+    /// A sentence for summaries.
+    pub fn describe(self) -> &'static str {
+        match self {
+            FoundBy::FirstExit => "first exit from the exact stability region, refined in continuous wavevector space",
+            FoundBy::Search => "search on dt (bracketing and bisection over the wavevector grid), refined in continuous wavevector space, verified by a uniform dt scan below the limit",
+        }
+    }
+}
+
+/// What the uniform Δt scan below a searched limit found.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub struct Verification {
+    /// How many Δt values below the limit were scanned.
+    pub steps_scanned: usize,
+    /// Whether every one was stable everywhere (after any correction).
+    pub stable_below: bool,
+    /// Whether the scan found an earlier loss of stability and moved the limit down.
+    pub moved_down: bool,
+}
+
+/// Wave directions and the limit along each.
+#[derive(Debug, Clone)]
+pub struct DirectionalLimit {
+    /// Unit vectors in θ-space.
+    pub directions: Vec<Vec<f64>>,
+    /// Largest stable Δt along each.
+    pub dt: Vec<f64>,
+    /// The wavevector setting each.
+    pub wavevector: Vec<Vec<f64>>,
+    /// Courant number of each Δt (empty without a wave speed).
+    pub courant: Vec<f64>,
+    /// Index of the direction with the smallest Δt.
+    pub worst: usize,
+}
+
+/// The limit analysis.
+#[derive(Debug, Clone)]
+pub struct LimitResult {
+    /// Kind.
+    pub kind: LimitKind,
+    /// Largest stable Δt (∞ for unconditional, 0 for none).
+    pub dt_max: f64,
+    /// The wavevector that sets it, wrapped into [−π, π]^d.
+    pub wavevector: Vec<f64>,
+    /// dt_max as a Courant number (None without a wave speed or when unbounded).
+    pub courant_max: Option<f64>,
+    /// dt_max as a diffusion number (None without diffusion or when unbounded).
+    pub diffusion_number_max: Option<f64>,
+    /// Whether the problem's Δt is within the limit.
+    pub stable_at_dt: bool,
+    /// How it was found.
+    pub found_by: FoundBy,
+    /// For searched limits: the scan below it.
+    pub verification: Option<Verification>,
+    /// The limit by wave direction.
+    pub by_direction: DirectionalLimit,
+}
+
+/// Wave directions for the limit: ±x in 1-D, angles in 2-D, sphere points in 3-D.
+pub fn limit_directions(dims: usize, count: usize) -> Vec<Vec<f64>> {
+    directions::unit_vectors(dims, count)
+}
+
+/// The limit of a one-step or multistep method from the screened candidates.
+pub(super) fn by_first_exit(
+    ctx: &Context,
+    exits: &ExitTimes,
+    screen: &[(usize, f64, f64)],
+    count: usize,
+) -> LimitResult {
+    let op = &ctx.op;
+    let overall = ctx
+        .par
+        .run(|| overall::overall(op, exits, &ctx.grid, screen));
+    let dirs = limit_directions(ctx.problem.dims(), count);
+    let per_ray = (ctx.grid.points.iter().max().copied().unwrap_or(2) / 2).max(16);
+    ctx.progress.start(Stage::Directions, dirs.len() as u64);
+    let res = ctx.par.run(|| {
+        overall::by_direction(
+            op,
+            exits,
+            &dirs,
+            per_ray,
+            op.real_coefficients,
+            ctx.progress,
+        )
+    });
+    ctx.progress.finish();
+    finish(ctx, overall, dirs, res, FoundBy::FirstExit, None)
+}
+
+/// The limit of a composite scheme by the verified search.
+pub(super) fn by_search(ctx: &Context, ev: &CompositeEval, count: usize) -> LimitResult {
+    let overall = ctx.par.run(|| ev.overall(&ctx.grid));
+    let verification = Verification {
+        steps_scanned: search::VERIFY_STEPS,
+        stable_below: overall.verified,
+        moved_down: overall.corrected,
+    };
+    let dirs = limit_directions(ctx.problem.dims(), count);
+    let per_ray = (ctx.grid.points.iter().max().copied().unwrap_or(2) / 4).max(16);
+    ctx.progress.start(Stage::Directions, dirs.len() as u64);
+    let start = overall.limit.dt_max;
+    let res = ctx
+        .par
+        .run(|| ev.by_direction(&dirs, per_ray, start, ctx.progress));
+    ctx.progress.finish();
+    finish(
+        ctx,
+        overall.limit,
+        dirs,
+        res,
+        FoundBy::Search,
+        Some(verification),
+    )
+}
+
+fn finish(
+    ctx: &Context,
+    mut overall: Limit,
+    dirs: Vec<Vec<f64>>,
+    res: Vec<(f64, Vec<f64>)>,
+    found_by: FoundBy,
+    verification: Option<Verification>,
+) -> LimitResult {
+    let (dt, wavevector): (Vec<f64>, Vec<Vec<f64>>) = res.into_iter().unzip();
+    let p = ctx.problem;
+    let courant = match p.system.reference_speed > 0.0 {
+        true => dt
+            .iter()
+            .map(|d| p.courant_of(*d).unwrap_or(f64::NAN))
+            .collect(),
+        false => Vec::new(),
+    };
+    let worst = dt
+        .iter()
+        .enumerate()
+        .fold(
+            (0, f64::INFINITY),
+            |b, (i, v)| if *v < b.1 { (i, *v) } else { b },
+        )
+        .0;
+    let by_direction = DirectionalLimit {
+        directions: dirs,
+        dt,
+        wavevector,
+        courant,
+        worst,
+    };
+    reconcile(&mut overall, &by_direction);
+    let scaled = |f: Option<f64>| match overall.kind {
+        LimitKind::Bounded => f,
+        LimitKind::None => f.map(|_| 0.0),
+        LimitKind::Unconditional => None,
+    };
+    LimitResult {
+        kind: overall.kind,
+        courant_max: scaled(p.courant_of(overall.dt_max)),
+        diffusion_number_max: scaled(p.diffusion_number_of(overall.dt_max)),
+        stable_at_dt: match overall.kind {
+            LimitKind::Bounded => ctx.dt <= overall.dt_max,
+            LimitKind::Unconditional => true,
+            LimitKind::None => false,
+        },
+        dt_max: overall.dt_max,
+        wavevector: overall.wavevector,
+        found_by,
+        verification,
+        by_direction,
+    }
+}
+
+/// The overall limit can be no larger than any directional one: on a coarse grid
+/// (say every node at θ ∈ {−π, 0, π}) the rays see wavevectors the grid misses.
+fn reconcile(overall: &mut Limit, dl: &DirectionalLimit) {
+    let best = dl.dt.iter().enumerate().filter(|(_, v)| !v.is_nan()).fold(
+        (usize::MAX, f64::INFINITY),
+        |b, (i, v)| if *v < b.1 { (i, *v) } else { b },
+    );
+    if best.0 != usize::MAX && (overall.dt_max.is_nan() || best.1 < overall.dt_max) {
+        overall.dt_max = best.1;
+        overall.wavevector = dl.wavevector[best.0].iter().map(|x| wrap(*x)).collect();
+        overall.kind = if best.1 == 0.0 {
+            LimitKind::None
+        } else {
+            LimitKind::Bounded
+        };
+    }
+}

@@ -1,0 +1,6 @@
+//! The command line's own layer: what a terminal program decides and the
+//! library does not — progress bars on stderr ([`progress`]) and the memory
+//! pre-flight against this machine ([`memory`]).
+
+pub mod memory;
+pub mod progress;

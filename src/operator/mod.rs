@@ -1,0 +1,275 @@
+//! The spatial symbol L(θ) of a discretised system: model × stencils × upwinding
+//! × grid arrangement.
+//!
+//! For u_t + Σ A_d u_{x_d} = Σ K_d u_{x_d x_d} + S u discretised with first- and
+//! second-derivative stencils of symbols S¹_d(θ_d), S²_d(θ_d) (unit grid),
+//!
+//!   L(θ) = S − Σ_d [A⁺_d S¹_d(θ_d) + A⁻_d S¹*_d(θ_d)]/h_d + Σ_d K_d S²_d(θ_d)/h_d²
+//!          − Σ_d σ (s/h_d) sin^p(θ_d/2) I,
+//!
+//! where a central stencil uses A⁺ = A, A⁻ = 0 and a biased stencil uses the split
+//! A = A⁺ + A⁻ with the mirrored stencil S¹* for A⁻: characteristic
+//! (A± = V Λ± V⁻¹) or Rusanov (A± = (A ± ρ(A) I)/2).
+//!
+//! On a staggered arrangement each variable sits at its own offset in the cell
+//! (0 or ½ per axis). The coupling of variable j into the equation of variable i
+//! then uses, along the derivative axis, the staggered difference when the two
+//! are half a cell apart (offsets ±½: symbol 2i sin(θ/2) for `central2`) and
+//! the ordinary one otherwise, and a two-point average (symbol cos(θ/2)) along
+//! every other axis where they are half a cell apart. Each variable's Fourier
+//! amplitude is taken at its own location, so staggering is a phase and L is
+//! unitarily similar to the matrix with all amplitudes at the cell centre.
+//! Every term is a constant matrix times a product of one-axis factors, so the
+//! symbol on a grid is assembled from per-axis tables.
+
+mod collocated;
+mod space;
+mod staggered;
+
+pub use space::{Arrangement, Dissipation, Space, Upwind};
+
+use crate::physics::System;
+use crate::stencil::Stencil;
+use nalgebra::DMatrix;
+use num_complex::Complex64 as C64;
+
+/// The one-axis scalar factor of a term.
+#[derive(Debug, Clone)]
+pub enum Factor {
+    /// `scale` × symbol of a stencil.
+    Stencil {
+        /// The stencil.
+        stencil: Stencil,
+        /// Multiplier (−1/h for fluxes, 1/h² for diffusion).
+        scale: f64,
+    },
+    /// −coeff · sin^order(θ/2).
+    Dissipation {
+        /// σ s / h_d.
+        coeff: f64,
+        /// Even power.
+        order: u32,
+    },
+    /// Two-point average across half a cell: cos(θ/2).
+    Average,
+}
+
+impl Factor {
+    /// The factor at θ_d.
+    pub fn eval(&self, theta: f64) -> C64 {
+        match self {
+            Factor::Stencil { stencil, scale } => stencil.symbol(theta) * *scale,
+            Factor::Dissipation { coeff, order } => {
+                C64::new(-coeff * (0.5 * theta).sin().powi(*order as i32), 0.0)
+            }
+            Factor::Average => C64::new((0.5 * theta).cos(), 0.0),
+        }
+    }
+}
+
+/// What a term discretises (used to split L for IMEX and splitting schemes).
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum TermKind {
+    /// −A_d ∂_d.
+    Flux,
+    /// K_d ∂_d².
+    Diffusion,
+    /// Added dissipation.
+    Dissipation,
+    /// Source S (with averages on a staggered arrangement).
+    Source,
+}
+
+/// One term: a constant matrix times a product of one-axis factors.
+#[derive(Debug, Clone)]
+pub struct Term {
+    /// What it discretises.
+    pub kind: TermKind,
+    /// The axis it belongs to (its derivative axis; 0 for sources).
+    pub axis: usize,
+    /// Row-major m×m matrix.
+    pub matrix: Vec<C64>,
+    /// The factors and the axis each depends on.
+    pub factors: Vec<(usize, Factor)>,
+    /// Human description for `kgain check`.
+    pub label: String,
+}
+
+impl Term {
+    /// The product of the factors at θ.
+    pub fn factor_at(&self, theta: &[f64]) -> C64 {
+        self.factors
+            .iter()
+            .fold(C64::new(1.0, 0.0), |acc, (d, f)| acc * f.eval(theta[*d]))
+    }
+}
+
+/// The assembled spatial operator.
+#[derive(Debug, Clone)]
+pub struct Operator {
+    /// Number of variables.
+    pub m: usize,
+    /// Number of axes.
+    pub dims: usize,
+    /// Row-major constant part (source on a collocated arrangement).
+    pub constant: Vec<C64>,
+    /// θ-dependent terms.
+    pub terms: Vec<Term>,
+    /// Whether every coefficient is real in physical space, so L(−θ) = conj L(θ).
+    pub real_coefficients: bool,
+}
+
+/// Why the operator could not be assembled.
+#[derive(Debug, Clone, PartialEq, thiserror::Error)]
+pub enum OperatorError {
+    /// A flux matrix that cannot be split into characteristic parts.
+    #[error("the flux matrix along axis {axis} is not diagonalisable, so characteristic upwinding is undefined; use space.upwind = \"rusanov\" or a central stencil")]
+    NotDiagonalisable {
+        /// The axis.
+        axis: usize,
+    },
+    /// A stencil whose offsets do not fit the staggering it is asked to bridge.
+    #[error("stencil '{stencil}' cannot couple variables {shift} cell apart along axis {axis} on the '{arrangement}' arrangement: its offsets must be {need}")]
+    Staggering {
+        /// Stencil name.
+        stencil: String,
+        /// The axis.
+        axis: usize,
+        /// "half a" or "no".
+        shift: &'static str,
+        /// The arrangement.
+        arrangement: String,
+        /// What the offsets must be.
+        need: &'static str,
+    },
+}
+
+pub(crate) fn flat(a: &DMatrix<C64>) -> Vec<C64> {
+    crate::linalg::from_matrix(a)
+}
+
+pub(crate) const AXIS: [&str; 3] = ["x", "y", "z"];
+
+impl Operator {
+    /// Assembles L(θ) for a system on a grid of spacings `h` with a spatial scheme.
+    pub fn assemble(sys: &System, h: &[f64], space: &Space) -> Result<Operator, OperatorError> {
+        let real_coefficients = sys
+            .flux
+            .iter()
+            .chain(&sys.diffusion)
+            .chain(std::iter::once(&sys.source))
+            .all(|a| a.iter().all(|z| z.im == 0.0));
+        if space.locations.is_empty() {
+            collocated::assemble(sys, h, space, real_coefficients)
+        } else {
+            staggered::assemble(sys, h, space, real_coefficients)
+        }
+    }
+
+    /// L(θ) into a row-major m×m slice.
+    pub fn symbol_into(&self, theta: &[f64], out: &mut [C64]) {
+        self.symbol_filtered_into(theta, |_| true, true, out)
+    }
+
+    /// The part of L(θ) made of the terms `keep` selects (and of the constant part
+    /// when `constant`), into `out`.
+    pub fn symbol_filtered_into(
+        &self,
+        theta: &[f64],
+        keep: impl Fn(&Term) -> bool,
+        constant: bool,
+        out: &mut [C64],
+    ) {
+        if constant {
+            out.copy_from_slice(&self.constant);
+        } else {
+            out.fill(C64::new(0.0, 0.0));
+        }
+        for t in self.terms.iter().filter(|t| keep(t)) {
+            let f = t.factor_at(theta);
+            for (o, a) in out.iter_mut().zip(&t.matrix) {
+                *o += a * f;
+            }
+        }
+    }
+
+    /// L(θ) as a new row-major vector.
+    pub fn symbol(&self, theta: &[f64]) -> Vec<C64> {
+        let mut out = vec![C64::new(0.0, 0.0); self.m * self.m];
+        self.symbol_into(theta, &mut out);
+        out
+    }
+
+    /// L(θ) as an nalgebra matrix.
+    pub fn symbol_matrix(&self, theta: &[f64]) -> DMatrix<C64> {
+        crate::linalg::to_matrix(&self.symbol(theta), self.m)
+    }
+
+    /// A part of L(θ) as an nalgebra matrix.
+    pub fn part_matrix(
+        &self,
+        theta: &[f64],
+        keep: impl Fn(&Term) -> bool,
+        constant: bool,
+    ) -> DMatrix<C64> {
+        let mut out = vec![C64::new(0.0, 0.0); self.m * self.m];
+        self.symbol_filtered_into(theta, keep, constant, &mut out);
+        crate::linalg::to_matrix(&out, self.m)
+    }
+
+    /// Each term's factors tabulated on the per-axis coordinates
+    /// (`tables[t][k][i]`: term t, factor k, grid index i along that factor's axis).
+    pub fn tabulate(&self, coords: &[Vec<f64>]) -> Vec<Vec<Vec<C64>>> {
+        self.terms
+            .iter()
+            .map(|t| {
+                t.factors
+                    .iter()
+                    .map(|(d, f)| coords[*d].iter().map(|&th| f.eval(th)).collect())
+                    .collect()
+            })
+            .collect()
+    }
+
+    /// L at the grid node with per-axis indices `idx`, from tabulated factors.
+    pub fn symbol_from_tables(&self, tables: &[Vec<Vec<C64>>], idx: &[usize], out: &mut [C64]) {
+        out.copy_from_slice(&self.constant);
+        for (t, tab) in self.terms.iter().zip(tables) {
+            let f = t
+                .factors
+                .iter()
+                .zip(tab)
+                .fold(C64::new(1.0, 0.0), |acc, ((d, _), col)| acc * col[idx[*d]]);
+            for (o, a) in out.iter_mut().zip(&t.matrix) {
+                *o += a * f;
+            }
+        }
+    }
+
+    /// Largest |factor product| × ‖matrix‖_F summed over terms, plus ‖constant‖_F:
+    /// a size scale of L(θ) over all θ.
+    pub fn scale(&self) -> f64 {
+        let norm = |v: &[C64]| v.iter().map(|z| z.norm_sqr()).sum::<f64>().sqrt();
+        let probe: Vec<f64> = (0..64)
+            .map(|k| std::f64::consts::PI * k as f64 / 63.0)
+            .collect();
+        let terms: f64 = self
+            .terms
+            .iter()
+            .map(|t| {
+                let f: f64 = t
+                    .factors
+                    .iter()
+                    .map(|(_, f)| {
+                        probe
+                            .iter()
+                            .map(|&th| f.eval(th).norm())
+                            .fold(0.0, f64::max)
+                    })
+                    .product();
+                norm(&t.matrix) * f
+            })
+            .sum();
+        norm(&self.constant) + terms
+    }
+}

@@ -1,0 +1,51 @@
+//! The reference speed of a system: its largest characteristic speed over all
+//! directions, max over unit n of ρ(Σ_d n_d A_d).
+//!
+//! In 1-D that is ρ(A_x); in 2-D a scan of 720 angles refined by golden-section
+//! search; in 3-D 2000 Fibonacci-sphere directions refined by a compass search
+//! in the two angles.
+
+use super::System;
+use crate::numeric::{directions, minimise};
+
+/// Largest characteristic speed of `s` over all directions.
+pub(super) fn max_speed(s: &System) -> f64 {
+    let m = s.size();
+    let speed = |n: &[f64]| {
+        let a = crate::linalg::from_matrix(&s.flux_along(n));
+        crate::linalg::spectral_radius(&a, m).unwrap_or(f64::NAN)
+    };
+    match s.dims() {
+        1 => speed(&[1.0]),
+        2 => {
+            let f = |t: f64| speed(&[t.cos(), t.sin()]);
+            let n = 720;
+            let h = std::f64::consts::PI / n as f64;
+            let (i_best, _) = (0..n)
+                .map(|i| (i, f(i as f64 * h)))
+                .fold((0, f64::MIN), |b, x| if x.1 > b.1 { x } else { b });
+            let t0 = i_best as f64 * h;
+            let (_, v) = minimise::golden_max(&f, t0 - h, t0 + h);
+            v.max(f(t0))
+        }
+        _ => {
+            let dirs = directions::sphere(2000);
+            let mut best = (0usize, f64::MIN);
+            for (i, n) in dirs.iter().enumerate() {
+                let v = speed(n);
+                if v > best.1 {
+                    best = (i, v);
+                }
+            }
+            let to_angles = |n: &[f64; 3]| (n[2].clamp(-1.0, 1.0).acos(), n[1].atan2(n[0]));
+            let f = |x: &[f64]| {
+                let (st, ct) = x[0].sin_cos();
+                let (sp, cp) = x[1].sin_cos();
+                -speed(&[st * cp, st * sp, ct])
+            };
+            let (a, b) = to_angles(&dirs[best.0]);
+            let (_, v) = minimise::compass_min(&f, &[a, b], 0.05, 1e-9, 400);
+            (-v).max(best.1)
+        }
+    }
+}

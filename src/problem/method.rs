@@ -1,0 +1,208 @@
+//! The time method from its name and options: built-in one-step and multistep
+//! methods, θ-methods, Butcher tableaux, the composite schemes (forward–backward,
+//! IMEX, Lax–Wendroff, Lax–Friedrichs) and dimension splitting of a one-step
+//! method.
+
+use super::builder::MethodSpec;
+use crate::error::InputError;
+use crate::operator::Space;
+use crate::physics::System;
+use crate::time::composite::{Composite, Imex, Splitting};
+use crate::time::{self, Method, Scheme};
+
+const COMPOSITE_METHODS: [&str; 5] = [
+    "forward-backward",
+    "imex-euler",
+    "imex-cnab2",
+    "lax-wendroff",
+    "lax-friedrichs",
+];
+
+fn only_with(key: &str, method: &str) -> InputError {
+    InputError::new(key, format!("is only used with method = \"{method}\""))
+}
+
+/// Resolves the method of `spec` for a system and spatial scheme.
+pub(super) fn method(spec: &MethodSpec, sys: &System, space: &Space) -> Result<Method, InputError> {
+    let name = spec.name.as_deref().ok_or_else(|| {
+        InputError::new("time.method", "is required").hint("e.g. method = \"rk4\"")
+    })?;
+    let mut valid = time::method_names();
+    valid.extend(COMPOSITE_METHODS);
+    let uses_order = name == "forward-backward";
+    if !uses_order && spec.first.is_some() {
+        return Err(only_with("time.first", "forward-backward"));
+    }
+    if !uses_order && spec.sequence.is_some() {
+        return Err(only_with("time.sequence", "forward-backward"));
+    }
+    if name != "theta" && spec.theta.is_some() {
+        return Err(only_with("time.theta", "theta"));
+    }
+    if name != "tableau" && spec.tableau.is_some() {
+        return Err(only_with("time.tableau", "tableau"));
+    }
+    let splitting = match spec.splitting.as_deref().unwrap_or("none") {
+        "none" => None,
+        "lie" => Some(Splitting::Lie),
+        "strang" => Some(Splitting::Strang),
+        other => {
+            return Err(InputError::unknown(
+                "time.splitting",
+                "splitting",
+                other,
+                &["none", "lie", "strang"],
+            ))
+        }
+    };
+    let composite = |c: Composite, order: u32| Method {
+        name: name.to_string(),
+        order,
+        explicit: !matches!(c, Composite::Imex(_)),
+        scheme: Scheme::Composite(c),
+    };
+    let base = match name {
+        "forward-backward" => {
+            let rank = update_ranks(spec, sys)?;
+            return no_split(splitting, name)
+                .map(|_| composite(Composite::ForwardBackward { rank }, 1));
+        }
+        "imex-euler" => {
+            return no_split(splitting, name).map(|_| composite(Composite::Imex(Imex::Euler), 1))
+        }
+        "imex-cnab2" => {
+            return no_split(splitting, name).map(|_| composite(Composite::Imex(Imex::Cnab2), 2))
+        }
+        "lax-wendroff" | "lax-friedrichs" => {
+            no_split(splitting, name)?;
+            if !space.locations.is_empty() {
+                return Err(InputError::new(
+                    "space.arrangement",
+                    format!("method '{name}' defines its own collocated differences"),
+                )
+                .hint("remove space.arrangement or set it to \"collocated\""));
+            }
+            let (c, order) = if name == "lax-wendroff" {
+                (Composite::LaxWendroff, 2)
+            } else {
+                (Composite::LaxFriedrichs, 1)
+            };
+            return Ok(composite(c, order));
+        }
+        "theta" => {
+            let th = spec.theta.ok_or_else(|| {
+                InputError::new("time.theta", "is required for method = \"theta\"")
+            })?;
+            time::methods::theta(th).map_err(|e| InputError::new("time.theta", e.to_string()))?
+        }
+        "tableau" => {
+            let tb = spec.tableau.as_ref().ok_or_else(|| {
+                InputError::new("time.tableau", "is required for method = \"tableau\"")
+            })?;
+            if let Some(c) = &tb.c {
+                let rows_ok = c.len() == tb.a.len()
+                    && c.iter()
+                        .zip(&tb.a)
+                        .all(|(ci, row)| (ci - row.iter().sum::<f64>()).abs() <= 1e-10);
+                if !rows_ok {
+                    return Err(InputError::new(
+                        "time.tableau.c",
+                        "must equal the row sums of a (c_i = sum_j a_ij); it may be omitted",
+                    ));
+                }
+            }
+            time::methods::tableau(&tb.a, &tb.b)
+                .map_err(|e| InputError::new("time.tableau", e.to_string()))?
+        }
+        _ => time::builtin(name)
+            .ok_or_else(|| InputError::unknown("time.method", "time method", name, &valid))?,
+    };
+    let Some(kind) = splitting else {
+        return Ok(base);
+    };
+    if base.levels() > 1 {
+        return Err(InputError::new(
+            "time.splitting",
+            format!("splitting needs a one-step method, and '{name}' is a multistep method"),
+        )
+        .hint("use a Runge-Kutta or theta method, or splitting = \"none\""));
+    }
+    let order = if kind == Splitting::Strang {
+        base.order.min(2)
+    } else {
+        1
+    };
+    let tag = if kind == Splitting::Lie {
+        "lie"
+    } else {
+        "strang"
+    };
+    Ok(Method {
+        name: format!("{name}+{tag}"),
+        order,
+        explicit: base.explicit,
+        scheme: Scheme::Composite(Composite::Split {
+            kind,
+            inner: Box::new(base),
+        }),
+    })
+}
+
+fn no_split(splitting: Option<Splitting>, name: &str) -> Result<(), InputError> {
+    match splitting {
+        None => Ok(()),
+        Some(_) => Err(InputError::new(
+            "time.splitting",
+            format!("method '{name}' is already a composite scheme and cannot be split"),
+        )),
+    }
+}
+
+/// Update ranks of forward-backward stepping: `time.first` (updated first, the
+/// rest after) or `time.sequence` (every variable, in update order).
+fn update_ranks(spec: &MethodSpec, sys: &System) -> Result<Vec<usize>, InputError> {
+    let vars = &sys.variables;
+    let lookup = |key: &str, v: &str| {
+        vars.iter().position(|x| x == v).ok_or_else(|| {
+            let list: Vec<&str> = vars.iter().map(|s| s.as_str()).collect();
+            InputError::unknown(key, "variable", v, &list)
+        })
+    };
+    match (&spec.first, &spec.sequence) {
+        (Some(_), Some(_)) => Err(InputError::new(
+            "time.sequence",
+            "give time.first or time.sequence, not both",
+        )),
+        (None, None) => Err(InputError::new(
+            "time.first",
+            "forward-backward needs the variables updated first",
+        )
+        .hint(format!("e.g. first = [\"{}\"]", vars[0]))),
+        (Some(first), None) => {
+            let mut rank = vec![1; vars.len()];
+            for (k, v) in first.iter().enumerate() {
+                rank[lookup(&format!("time.first.{k}"), v)?] = 0;
+            }
+            if rank.iter().all(|r| *r == 0) || first.is_empty() {
+                return Err(InputError::new(
+                    "time.first",
+                    "must name some, but not all, of the variables",
+                ));
+            }
+            Ok(rank)
+        }
+        (None, Some(seq)) => {
+            let mut rank = vec![usize::MAX; vars.len()];
+            for (k, v) in seq.iter().enumerate() {
+                rank[lookup(&format!("time.sequence.{k}"), v)?] = k;
+            }
+            if rank.contains(&usize::MAX) {
+                return Err(InputError::new(
+                    "time.sequence",
+                    "must list every variable once",
+                ));
+            }
+            Ok(rank)
+        }
+    }
+}
