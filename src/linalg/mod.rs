@@ -63,7 +63,7 @@ mod svd;
 pub use lu::{solve, LuSolver};
 pub use schur::{schur, SchurSolver};
 pub use small::MAX_FIXED;
-pub use svd::{sigma_min, svd, SvdSolver, MAX_SWEEPS};
+pub use svd::{sigma_min, svd, Svd, SvdSolver, MAX_SWEEPS};
 
 use cplx::{abs1, cdiv, csqrt, pow2_scaling};
 use nalgebra::DMatrix;

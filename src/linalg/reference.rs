@@ -34,6 +34,49 @@ pub fn eigenvalues(a: &[C64], m: usize) -> Result<Vec<C64>, LinalgError> {
     Ok((0..m).map(|i| t[(i, i)]).collect())
 }
 
+/// nalgebra's complex Schur decomposition on a reused matrix: the path the
+/// eigenvalue kernel replaced, for throughput comparisons.
+#[derive(Debug, Clone)]
+pub struct NalgebraEigenvalues {
+    m: usize,
+    work: nalgebra::DMatrix<C64>,
+}
+
+impl NalgebraEigenvalues {
+    /// A reference solver for m×m matrices.
+    pub fn new(m: usize) -> Self {
+        NalgebraEigenvalues {
+            m,
+            work: nalgebra::DMatrix::zeros(m, m),
+        }
+    }
+
+    /// Eigenvalues of the row-major m×m `a` into `out` (no finiteness check).
+    pub fn eigenvalues(&mut self, a: &[C64], out: &mut [C64]) -> Result<(), LinalgError> {
+        let m = self.m;
+        for i in 0..m {
+            for j in 0..m {
+                self.work[(i, j)] = a[i * m + j];
+            }
+        }
+        let mat = std::mem::replace(&mut self.work, nalgebra::DMatrix::zeros(0, 0));
+        let schur = nalgebra::linalg::Schur::try_new(mat, f64::EPSILON, ITERATIONS_PER_SIZE * m)
+            .ok_or(LinalgError::NotConverged);
+        let (_, t) = match schur {
+            Ok(s) => s.unpack(),
+            Err(e) => {
+                self.work = nalgebra::DMatrix::zeros(m, m);
+                return Err(e);
+            }
+        };
+        for (i, o) in out.iter_mut().enumerate() {
+            *o = t[(i, i)];
+        }
+        self.work = t;
+        Ok(())
+    }
+}
+
 /// Schur form A = Q T Qᴴ of a row-major m×m matrix by nalgebra, as row-major
 /// `(t, q)` with the strict lower part of T set to zero.
 pub fn schur(a: &[C64], m: usize) -> Result<(Vec<C64>, Vec<C64>), LinalgError> {

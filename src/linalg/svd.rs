@@ -88,8 +88,8 @@ impl SvdSolver {
         let m = self.m;
         assert_eq!(a.len(), m * m, "matrix slice has the wrong length");
         assert_eq!(sigma.len(), m, "singular value slice has the wrong length");
-        let u_ok = u.as_ref().is_none_or(|u| u.len() == m * m);
-        let v_ok = v.as_ref().is_none_or(|v| v.len() == m * m);
+        let u_ok = u.as_ref().map_or(true, |u| u.len() == m * m);
+        let v_ok = v.as_ref().map_or(true, |v| v.len() == m * m);
         assert!(u_ok && v_ok, "singular vector slice has the wrong length");
         dispatch!(m, fixed, (a, sigma, u, v), {
             let g = self.general.get_or_insert_with(|| General::new(m));
@@ -172,15 +172,28 @@ fn decompose_in<H: Square>(
     Ok(())
 }
 
-/// Singular values (descending), U and V of a row-major m×m matrix, as
-/// `(sigma, u, v)` with U and V row-major (allocating convenience wrapper of
+/// The factors of A = U Σ Vᴴ from [`svd`]: U and V row-major, column k of
+/// each belonging to `sigma[k]`.
+#[derive(Debug, Clone, PartialEq)]
+pub struct Svd {
+    /// Singular values, descending.
+    pub sigma: Vec<f64>,
+    /// Left singular vectors (columns), row-major m×m.
+    pub u: Vec<C64>,
+    /// Right singular vectors (columns), row-major m×m.
+    pub v: Vec<C64>,
+}
+
+/// A = U Σ Vᴴ of a row-major m×m matrix (allocating convenience wrapper of
 /// [`SvdSolver::decompose`]).
-pub fn svd(a: &[C64], m: usize) -> Result<(Vec<f64>, Vec<C64>, Vec<C64>), LinalgError> {
-    let mut sigma = vec![0.0; m];
-    let mut u = vec![ZERO; m * m];
-    let mut v = vec![ZERO; m * m];
-    SvdSolver::new(m).decompose(a, &mut sigma, Some(&mut u), Some(&mut v))?;
-    Ok((sigma, u, v))
+pub fn svd(a: &[C64], m: usize) -> Result<Svd, LinalgError> {
+    let mut out = Svd {
+        sigma: vec![0.0; m],
+        u: vec![ZERO; m * m],
+        v: vec![ZERO; m * m],
+    };
+    SvdSolver::new(m).decompose(a, &mut out.sigma, Some(&mut out.u), Some(&mut out.v))?;
+    Ok(out)
 }
 
 /// The smallest singular value of a row-major m×m matrix (allocating wrapper).
