@@ -6,13 +6,15 @@
 //! [`LuSolver`] keeps the factors of the last matrix: inline arrays for m ≤
 //! [`MAX_FIXED`] (no heap at all), a vector allocated by the constructor above.
 //! A and B are each scaled by a power of two (exact) so that their largest
-//! entry lies in [1, 2); X is scaled back at the end, and a solution outside
-//! the f64 range is [`LinalgError::OutOfRange`], never an infinity. A pivot of
-//! modulus at most m·ε·max|a_ij| is [`LinalgError::Singular`]: then A lies
-//! within a small multiple of m²ε‖A‖ of a singular matrix, and X would be
-//! dominated by rounding (LAPACK's `zgetrf` stops only at an exact zero).
+//! real or imaginary part lies in [1, 2); X is scaled back at the end, and a
+//! solution outside the f64 range is [`LinalgError::OutOfRange`], never an
+//! infinity. A pivot with |re| + |im| at most m·ε in those units (between
+//! m·ε·max|a_ij|/√2 and 2m·ε·max|a_ij|) is [`LinalgError::Singular`]: then A
+//! lies within a small multiple of m²ε‖A‖ of a singular matrix (times the
+//! growth factor), and X would be dominated by rounding (LAPACK's `zgetrf`
+//! stops only at an exact zero).
 
-use super::cplx::{abs1, cdiv, max_abs1, scale2, EPS, ZERO};
+use super::cplx::{abs1, cdiv, scale2, EPS, ZERO};
 use super::small::MAX_FIXED;
 use super::LinalgError;
 use num_complex::Complex64 as C64;
@@ -60,11 +62,9 @@ impl LuSolver {
         let m = self.m;
         assert_eq!(a.len(), m * m, "matrix slice has the wrong length");
         self.exponent = None;
-        let amax = max_abs1(a)?;
-        if amax == 0.0 {
+        let Some(e) = exponent(a)? else {
             return Err(LinalgError::Singular);
-        }
-        let e = amax.log2().floor() as i32;
+        };
         let (lu, piv) = self.parts_mut();
         for (x, z) in lu.iter_mut().zip(a) {
             *x = scale2(*z, -e);
@@ -86,11 +86,9 @@ impl LuSolver {
             "right-hand side slice has the wrong length"
         );
         let ea = self.exponent.ok_or(LinalgError::Singular)?;
-        let bmax = max_abs1(b)?;
-        if bmax == 0.0 || nrhs == 0 {
+        let Some(eb) = exponent(b)? else {
             return Ok(());
-        }
-        let eb = bmax.log2().floor() as i32;
+        };
         for z in b.iter_mut() {
             *z = scale2(*z, -eb);
         }
@@ -128,6 +126,21 @@ impl LuSolver {
             (&mut self.heap, &mut self.heap_pivots)
         }
     }
+}
+
+/// ⌊log₂ max(|re|, |im|)⌋ over the entries (`None` if all are zero), or
+/// [`LinalgError::NonFinite`]. The components, not |re| + |im|, so that the
+/// largest entry scaled by 2^-e lies in [1, 2) even where |re| + |im| would
+/// overflow.
+fn exponent(a: &[C64]) -> Result<Option<i32>, LinalgError> {
+    let mut amax = 0.0f64;
+    for z in a {
+        if !(z.re.is_finite() && z.im.is_finite()) {
+            return Err(LinalgError::NonFinite);
+        }
+        amax = amax.max(z.re.abs()).max(z.im.abs());
+    }
+    Ok((amax > 0.0).then(|| amax.log2().floor() as i32))
 }
 
 /// In-place P A = L U of the row-major m×m `lu` (largest entry in [1, 2));

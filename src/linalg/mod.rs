@@ -20,7 +20,7 @@
 //!     [`nonnormal::ConditionWorkspace`];
 //! * allocating wrappers for tests, `kgain check` and once-per-wavevector
 //!   analyses: [`eigenvalues`], [`eigenvalues_and_vectors`], [`schur`],
-//!   [`singular_values`], [`svd`], [`norm2`], [`sigma_min`], [`solve`],
+//!   [`singular_values`], [`svd`] (an [`Svd`]), [`norm2`], [`sigma_min`], [`solve`],
 //!   [`spectral_radius`], and [`dense`] (the same on nalgebra `DMatrix`
 //!   values, for the growth analysis).
 //!
@@ -32,16 +32,19 @@
 //! Eigenvectors come from back-substitution on the Schur form (`eigvec`),
 //! singular values and vectors from one-sided Jacobi (`jacobi`,
 //! `singular_vectors`), solutions from LU with partial pivoting (`lu`).
-//! nalgebra's complex Schur decomposition and SVD are used nowhere but in
-//! [`reference`], the slow references of the tests; nalgebra stays as a
-//! container type.
+//! Within this module nalgebra's complex Schur decomposition and SVD are used
+//! nowhere but in [`reference`], the slow references of the tests; nalgebra
+//! stays as a container type.
 //!
 //! Robustness, the same on every path: NaN or infinite input is
 //! [`LinalgError::NonFinite`]; the input is scaled by a power of two (exact) so
 //! that entries anywhere in the f64 range, subnormals included, are handled
 //! without overflow or underflow; every iteration has a cap and reports
 //! [`LinalgError::NotConverged`] past it, so no finite input hangs or panics.
-//! Slices of the wrong length are a programming error and panic.
+//! A linear system whose matrix is singular to working accuracy is
+//! [`LinalgError::Singular`], a solution beyond the f64 range
+//! [`LinalgError::OutOfRange`]. Slices of the wrong length are a programming
+//! error and panic.
 
 mod cplx;
 pub mod dense;

@@ -85,7 +85,11 @@ pub fn adjoint(a: &[C64], n: usize) -> Vec<C64> {
 }
 
 /// min(w, anorm)/max(floor, anorm·ε)/n: the zhst01 form of a residual ratio.
+/// An exact residual is 0 whatever the scale (the floor may underflow to 0).
 pub fn ratio(w: f64, anorm: f64, n: usize, floor: f64) -> f64 {
+    if w == 0.0 {
+        return 0.0;
+    }
     w.min(anorm) / floor.max(anorm * EPS) / n as f64
 }
 
@@ -149,7 +153,7 @@ pub fn sigma_ratio(sigma: &[f64], want: &[f64], n: usize) -> f64 {
         .zip(want)
         .map(|(x, y)| (x - y).abs())
         .fold(0.0, f64::max);
-    if top == 0.0 {
+    if top == 0.0 || err == 0.0 {
         return err;
     }
     let k = -(top.log2().floor() as i32);
@@ -163,7 +167,11 @@ pub fn lu_ratio(a: &[C64], x: &[C64], b: &[C64], n: usize, nrhs: usize) -> f64 {
     let ax = matmul(&a, &x, n, n, nrhs);
     let r: Vec<C64> = b.iter().zip(&ax).map(|(p, q)| p - q).collect();
     let scale = norm1(&a, n, n) * norm1(&x, n, nrhs);
-    norm1(&r, n, nrhs) / floor(n, ka + kx).max(scale * EPS) / n as f64
+    let w = norm1(&r, n, nrhs);
+    if w == 0.0 {
+        return 0.0;
+    }
+    w / floor(n, ka + kx).max(scale * EPS) / n as f64
 }
 
 /// All ratios of one matrix, and what the LU solve reported.
