@@ -43,6 +43,7 @@ fn triangle_frobenius(t: &[C64], m: usize) -> f64 {
 /// Relative Henrici departure ‖N‖_F/‖T‖_F of the row-major m×m Schur factor T
 /// (0 for T = 0).
 pub fn departure(t: &[C64], m: usize) -> f64 {
+    assert_eq!(t.len(), m * m, "Schur factor slice has the wrong length");
     let fro = triangle_frobenius(t, m);
     if fro == 0.0 {
         return 0.0;
