@@ -2,14 +2,15 @@
 //! second for m = 2, 3, 4, 5, 8 (and 12 on the general path), for
 //! `EigSolver::eigenvalues` and for nalgebra's general complex Schur path (the
 //! previous implementation, on a reused matrix), plus eigenvectors and the
-//! spectral norm. Each iteration solves a batch of seeded random matrices with
-//! entries uniform in the unit square of ℂ; throughput is reported per matrix.
+//! spectral norm, the Schur form, the SVD with both sets of singular vectors
+//! and an LU solve with one right-hand side. Each iteration solves a batch of
+//! seeded random matrices with entries uniform in the unit square of ℂ;
+//! throughput is reported per matrix.
 //!
 //! `cargo bench --bench kernel` (append a filter such as `eigenvalues/kgain`).
 
 use criterion::{criterion_group, criterion_main, BenchmarkId, Criterion, Throughput};
-use kgain::linalg::{EigSolver, SvdSolver};
-use nalgebra::DMatrix;
+use kgain::linalg::{reference, EigSolver, LuSolver, SchurSolver, SvdSolver};
 use num_complex::Complex64 as C64;
 use rand::rngs::StdRng;
 use rand::{Rng, SeedableRng};
@@ -25,23 +26,6 @@ fn batch(m: usize) -> Vec<C64> {
     (0..BATCH * m * m)
         .map(|_| C64::new(rng.random_range(-1.0..1.0), rng.random_range(-1.0..1.0)))
         .collect()
-}
-
-/// nalgebra's complex Schur decomposition on a reused matrix: the path the
-/// kernel replaced for m ≥ 3.
-fn nalgebra_eigenvalues(work: &mut DMatrix<C64>, a: &[C64], m: usize, out: &mut [C64]) {
-    for i in 0..m {
-        for j in 0..m {
-            work[(i, j)] = a[i * m + j];
-        }
-    }
-    let mat = std::mem::replace(work, DMatrix::zeros(0, 0));
-    let schur = nalgebra::linalg::Schur::try_new(mat, f64::EPSILON, 200 * m).expect("converged");
-    let (_, t) = schur.unpack();
-    for (i, o) in out.iter_mut().enumerate() {
-        *o = t[(i, i)];
-    }
-    *work = t;
 }
 
 fn eigenvalues(c: &mut Criterion) {
@@ -62,11 +46,13 @@ fn eigenvalues(c: &mut Criterion) {
             })
         });
         group.bench_with_input(BenchmarkId::new("nalgebra", m), &m, |b, &m| {
-            let mut work = DMatrix::zeros(m, m);
+            let mut solver = reference::NalgebraEigenvalues::new(m);
             let mut out = vec![C64::new(0.0, 0.0); m];
             b.iter(|| {
                 for a in mats.chunks_exact(m * m) {
-                    nalgebra_eigenvalues(&mut work, black_box(a), m, &mut out);
+                    solver
+                        .eigenvalues(black_box(a), &mut out)
+                        .expect("converged");
                     black_box(&out);
                 }
             })
@@ -105,6 +91,51 @@ fn vectors_and_norm(c: &mut Criterion) {
     group.finish();
 }
 
+fn factorisations(c: &mut Criterion) {
+    let mut group = c.benchmark_group("factorisations");
+    group.throughput(Throughput::Elements(BATCH as u64));
+    for m in SIZES {
+        let mats = batch(m);
+        let zeros = vec![C64::new(0.0, 0.0); m * m];
+        group.bench_with_input(BenchmarkId::new("schur", m), &m, |b, &m| {
+            let mut solver = SchurSolver::new(m);
+            let (mut t, mut q) = (zeros.clone(), zeros.clone());
+            b.iter(|| {
+                for a in mats.chunks_exact(m * m) {
+                    solver
+                        .decompose(black_box(a), &mut t, &mut q)
+                        .expect("converged");
+                    black_box((&t, &q));
+                }
+            })
+        });
+        group.bench_with_input(BenchmarkId::new("svd_with_vectors", m), &m, |b, &m| {
+            let mut solver = SvdSolver::new(m);
+            let (mut u, mut v, mut sigma) = (zeros.clone(), zeros.clone(), vec![0.0; m]);
+            b.iter(|| {
+                for a in mats.chunks_exact(m * m) {
+                    solver
+                        .decompose(black_box(a), &mut sigma, Some(&mut u), Some(&mut v))
+                        .expect("converged");
+                    black_box((&sigma, &u, &v));
+                }
+            })
+        });
+        group.bench_with_input(BenchmarkId::new("lu_solve", m), &m, |b, &m| {
+            let mut solver = LuSolver::new(m);
+            let mut x = vec![C64::new(1.0, 0.0); m];
+            b.iter(|| {
+                for a in mats.chunks_exact(m * m) {
+                    x.fill(C64::new(1.0, 0.0));
+                    solver.solve(black_box(a), &mut x, 1).expect("nonsingular");
+                    black_box(&x);
+                }
+            })
+        });
+    }
+    group.finish();
+}
+
 fn config() -> Criterion {
     Criterion::default()
         .sample_size(20)
@@ -116,6 +147,6 @@ fn config() -> Criterion {
 criterion_group! {
     name = benches;
     config = config();
-    targets = eigenvalues, vectors_and_norm
+    targets = eigenvalues, vectors_and_norm, factorisations
 }
 criterion_main!(benches);

@@ -14,7 +14,6 @@
 //! ```
 
 use kgain::linalg::{reference, EigSolver, LinalgError};
-use nalgebra::DMatrix;
 use num_complex::Complex64 as C64;
 use rand::rngs::StdRng;
 use rand::{Rng, SeedableRng};
@@ -62,39 +61,6 @@ fn pool(m: usize, family: Family, seed: u64) -> Vec<C64> {
         }
     }
     out
-}
-
-/// The previous implementation: nalgebra's complex Schur on a reused matrix.
-struct NalgebraSolver {
-    m: usize,
-    work: DMatrix<C64>,
-}
-
-impl NalgebraSolver {
-    fn new(m: usize) -> Self {
-        NalgebraSolver {
-            m,
-            work: DMatrix::zeros(m, m),
-        }
-    }
-
-    fn eigenvalues(&mut self, a: &[C64], out: &mut [C64]) -> Result<(), LinalgError> {
-        let m = self.m;
-        for i in 0..m {
-            for j in 0..m {
-                self.work[(i, j)] = a[i * m + j];
-            }
-        }
-        let mat = std::mem::replace(&mut self.work, DMatrix::zeros(0, 0));
-        let schur = nalgebra::linalg::Schur::try_new(mat, f64::EPSILON, 200 * m)
-            .ok_or(LinalgError::NotConverged)?;
-        let (_, t) = schur.unpack();
-        for (i, o) in out.iter_mut().enumerate() {
-            *o = t[(i, i)];
-        }
-        self.work = t;
-        Ok(())
-    }
 }
 
 /// CPU time consumed so far by all threads of this process, in nanoseconds
@@ -239,7 +205,7 @@ fn main() {
             };
             let theirs = |t| {
                 throughput(t, m, &mats, count / NALGEBRA_FRACTION, || {
-                    let mut s = NalgebraSolver::new(m);
+                    let mut s = reference::NalgebraEigenvalues::new(m);
                     move |a: &[C64], out: &mut [C64]| s.eigenvalues(a, out)
                 })
             };

@@ -7,7 +7,8 @@
 //! ≤ ‖E‖₂, ρ(A) ≤ ‖A‖₂ + ‖E‖₂, and, by the Bauer–Fike theorem, each computed
 //! eigenvalue lies within κ(V)‖E‖₂ of an exact one when A = V D V⁻¹ (Trefethen &
 //! Embree, Spectra and Pseudospectra, 2005). A Jordan block of size k perturbed by
-//! δ moves its eigenvalue by about δ^{1/k}. References: nalgebra's SVD, QR and LU
+//! δ moves its eigenvalue by about δ^{1/k}. References: nalgebra's SVD and Schur
+//! form (through `linalg::reference`), QR and LU
 //! serve as independent slow paths.
 
 mod support;
@@ -53,13 +54,10 @@ fn random_unitary(rng: &mut StdRng, m: usize) -> DMatrix<C64> {
     random_matrix(rng, m).qr().q()
 }
 
+/// Singular values by the slow reference (nalgebra's SVD, input scaled).
 fn singular_values(a: &DMatrix<C64>) -> Vec<f64> {
-    a.clone()
-        .svd(false, false)
-        .singular_values
-        .iter()
-        .copied()
-        .collect()
+    let m = a.nrows();
+    kgain::linalg::reference::singular_values(&row_major(a), m).expect("reference SVD")
 }
 
 fn two_norm(a: &DMatrix<C64>) -> f64 {
@@ -377,7 +375,8 @@ fn closed_form_two_by_two_agrees_with_the_general_schur_path() {
     for trial in 0..2000 {
         let a = random_matrix(&mut rng, 2) * C64::new(10f64.powi(rng.random_range(-6..=6)), 0.0);
         let (l1, l2) = eig2(a[(0, 0)], a[(0, 1)], a[(1, 0)], a[(1, 1)]);
-        let t = nalgebra::linalg::Schur::new(a.clone()).unpack().1;
+        let (t, _) = kgain::linalg::reference::schur(&row_major(&a), 2).expect("reference Schur");
+        let t = DMatrix::from_row_slice(2, 2, &t);
         let want = [t[(0, 0)], t[(1, 1)]];
         let gap: f64 = (want[0] - want[1]).norm();
         let kappa = (1.0 + t[(0, 1)].norm_sqr() / (gap * gap)).sqrt();
@@ -417,6 +416,7 @@ fn non_finite_input_gives_an_error_or_non_finite_eigenvalues() {
             a[m * m / 2] = C64::new(bad, 0.0);
             match eigenvalues(&a, m) {
                 Err(LinalgError::NotConverged | LinalgError::NonFinite) => {}
+                Err(e) => panic!("m = {m}, input {bad}: unexpected error {e}"),
                 Ok(l) => assert!(
                     l.iter().any(|z| !z.re.is_finite() || !z.im.is_finite()),
                     "m = {m}, input {bad}: finite eigenvalues {l:?}"

@@ -16,39 +16,52 @@ use num_complex::Complex64 as C64;
 /// x is rescaled when an entry grows past this (2^300).
 const GROWTH: f64 = 2.037035976334486e90;
 
+/// The pivot floor of the back-substitution for T: ε·max|t_ij| (moduli in the
+/// 1-norm |re| + |im|), at least the smallest normal number.
+pub(crate) fn pivot_floor(t: &[C64], n: usize) -> f64 {
+    let tmax = (0..n)
+        .flat_map(|i| (i..n).map(move |j| (i, j)))
+        .map(|(i, j)| abs1(t[i * n + j]))
+        .fold(0.0, f64::max);
+    (EPS * tmax).max(f64::MIN_POSITIVE)
+}
+
+/// x (length n) ← a solution of (T − t_kk I) x = 0 with x_j = 0 for j > k and
+/// x_k a positive real (1 unless rescaled against growth); pivots smaller than
+/// `floor` in modulus are replaced by `floor`.
+pub(crate) fn back_substitute(t: &[C64], n: usize, k: usize, floor: f64, x: &mut [C64]) {
+    let lam = t[k * n + k];
+    x.fill(ZERO);
+    x[k] = C64::new(1.0, 0.0);
+    for i in (0..k).rev() {
+        let row = &t[i * n..(i + 1) * n];
+        let mut rhs = ZERO;
+        for j in i + 1..=k {
+            rhs -= row[j] * x[j];
+        }
+        let mut d = row[i] - lam;
+        if abs1(d) < floor {
+            d = C64::new(floor, 0.0);
+        }
+        x[i] = cdiv(rhs, d);
+        let big = abs1(x[i]);
+        if big > GROWTH {
+            let s = 1.0 / big;
+            for z in &mut x[i..=k] {
+                *z *= s;
+            }
+        }
+    }
+}
+
 /// Eigenvectors of Q T Qᴴ (T upper triangular, both n×n row-major; the strict
 /// lower triangle of T is ignored) as the columns of the row-major n×n `vectors`.
 /// `x` is a workspace of length n.
 pub(crate) fn schur_vectors(t: &[C64], q: &[C64], n: usize, x: &mut [C64], vectors: &mut [C64]) {
     assert!(t.len() == n * n && q.len() == n * n && vectors.len() == n * n && x.len() == n);
-    let tmax = (0..n)
-        .flat_map(|i| (i..n).map(move |j| (i, j)))
-        .map(|(i, j)| abs1(t[i * n + j]))
-        .fold(0.0, f64::max);
-    let smin = (EPS * tmax).max(f64::MIN_POSITIVE);
+    let smin = pivot_floor(t, n);
     for k in 0..n {
-        let lam = t[k * n + k];
-        x.fill(ZERO);
-        x[k] = C64::new(1.0, 0.0);
-        for i in (0..k).rev() {
-            let row = &t[i * n..(i + 1) * n];
-            let mut rhs = ZERO;
-            for j in i + 1..=k {
-                rhs -= row[j] * x[j];
-            }
-            let mut d = row[i] - lam;
-            if abs1(d) < smin {
-                d = C64::new(smin, 0.0);
-            }
-            x[i] = cdiv(rhs, d);
-            let big = abs1(x[i]);
-            if big > GROWTH {
-                let s = 1.0 / big;
-                for z in &mut x[i..=k] {
-                    *z *= s;
-                }
-            }
-        }
+        back_substitute(t, n, k, smin, x);
         // v = Q x, then unit norm with the largest component real positive.
         let mut vmax = 0.0f64;
         let mut imax = 0;

@@ -28,6 +28,12 @@ impl Workspace {
         }
     }
 
+    /// The Hessenberg/triangular matrix, the accumulated unitary factor and the
+    /// 2n-entry vector workspace, borrowed together.
+    pub fn parts(&mut self) -> (&mut Dyn, &mut Dyn, &mut [C64]) {
+        (&mut self.h, &mut self.q, &mut self.work)
+    }
+
     /// Eigenvalues of the row-major `a` into `out`.
     pub fn eigenvalues(&mut self, a: &[C64], out: &mut [C64]) -> Result<(), LinalgError> {
         eigenvalues_in(a, &mut self.h, &mut self.work, out)

@@ -1,39 +1,72 @@
 //! Small dense complex linear algebra: the hot kernel of every sweep.
 //!
 //! Two levels, as in the rest of the crate:
-//! * low level, [`EigSolver`] and [`SvdSolver`]: eigenvalues (optionally with
-//!   eigenvectors) and singular values of an m×m complex matrix given as a
-//!   row-major slice, written into caller-owned slices, with a workspace that is
-//!   built once per worker and reused (no allocation per wavevector for m ≤ 8);
-//! * high level, [`eigenvalues`] and friends: allocating wrappers for tests,
-//!   `kgain check` and the refinement steps.
+//! * in place, with a caller-owned workspace, for hot loops: a solver is built
+//!   once per matrix size (per rayon worker) and reused; it reads a row-major
+//!   m×m slice and writes into caller-owned slices, with no heap allocation per
+//!   call for m ≤ [`MAX_FIXED`] (fixed-size stack kernels) and none above either
+//!   (a run-time-size workspace allocated by the constructor):
+//!   - [`EigSolver`]: `eigenvalues(a, out)`, `eigenvalues_and_vectors(a,
+//!     values, vectors)`;
+//!   - [`SchurSolver`]: `decompose(a, t, q)`, A = Q T Qᴴ with T upper
+//!     triangular (strict lower part zero) and Q unitary;
+//!   - [`SvdSolver`]: `singular_values(a, sigma)`, `norm2(a)`, `sigma_min(a)`
+//!     and `decompose(a, sigma, Some(u), Some(v))`, A = U Σ Vᴴ with σ
+//!     descending;
+//!   - [`LuSolver`]: `factor(a)`, `solve_in_place(b, nrhs)`, `solve(a, b,
+//!     nrhs)` for A X = B with one or several columns;
+//!   - [`nonnormal`]: departure from normality, triangular eigenvectors and the
+//!     eigenvector condition number from a Schur factor T, with a
+//!     [`nonnormal::ConditionWorkspace`];
+//! * allocating wrappers for tests, `kgain check` and once-per-wavevector
+//!   analyses: [`eigenvalues`], [`eigenvalues_and_vectors`], [`schur`],
+//!   [`singular_values`], [`svd`] (an [`Svd`]), [`norm2`], [`sigma_min`], [`solve`],
+//!   [`spectral_radius`], and [`dense`] (the same on nalgebra `DMatrix`
+//!   values, for the growth analysis).
 //!
-//! Dispatch by m: closed forms for m = 1 and 2; for 3 ≤ m ≤ 8 fixed-size stack
-//! kernels (Householder reduction to Hessenberg form, then single-shift QR with
-//! the Wilkinson shift, Golub & Van Loan, Matrix Computations, §7.4–7.5;
-//! `small`, `hessenberg`, `qr`); above 8 the same algorithms on run-time-size
-//! storage (`general`, `square`). nalgebra's complex Schur decomposition and SVD
-//! are kept as the slow references of the tests ([`reference`]). Eigenvectors
-//! come from back-substitution on the Schur form (`eigvec`), singular values
-//! from one-sided Jacobi ([`SvdSolver`]). Every path
-//! rejects NaN or infinite input with [`LinalgError::NonFinite`] and works on
-//! the input scaled by a power of two, so entries anywhere in the f64 range are
-//! handled without overflow.
+//! Dispatch by m: closed forms for eigenvalues at m = 1 and 2; for m ≤ 8
+//! fixed-size stack kernels (Householder reduction to Hessenberg form, then
+//! single-shift QR with the Wilkinson shift, Golub & Van Loan, Matrix
+//! Computations, §7.4–7.5; `small`, `hessenberg`, `qr`, `schur`); above 8 the
+//! same algorithms on run-time-size storage (`general`, `square`).
+//! Eigenvectors come from back-substitution on the Schur form (`eigvec`),
+//! singular values and vectors from one-sided Jacobi (`jacobi`,
+//! `singular_vectors`), solutions from LU with partial pivoting (`lu`).
+//! Within this module nalgebra's complex Schur decomposition and SVD are used
+//! nowhere but in [`reference`], the slow references of the tests; nalgebra
+//! stays as a container type.
+//!
+//! Robustness, the same on every path: NaN or infinite input is
+//! [`LinalgError::NonFinite`]; the input is scaled by a power of two (exact) so
+//! that entries anywhere in the f64 range, subnormals included, are handled
+//! without overflow or underflow; every iteration has a cap and reports
+//! [`LinalgError::NotConverged`] past it, so no finite input hangs or panics.
+//! A linear system whose matrix is singular to working accuracy is
+//! [`LinalgError::Singular`], a solution beyond the f64 range
+//! [`LinalgError::OutOfRange`]. Slices of the wrong length are a programming
+//! error and panic.
 
 mod cplx;
 pub mod dense;
 mod eigvec;
 mod general;
 mod hessenberg;
+mod jacobi;
+mod lu;
+pub mod nonnormal;
 pub mod poly;
 mod qr;
 pub mod reference;
+mod schur;
+mod singular_vectors;
 mod small;
 mod square;
 mod svd;
 
+pub use lu::{solve, LuSolver};
+pub use schur::{schur, SchurSolver};
 pub use small::MAX_FIXED;
-pub use svd::SvdSolver;
+pub use svd::{sigma_min, svd, Svd, SvdSolver, MAX_SWEEPS};
 
 use cplx::{abs1, cdiv, csqrt, pow2_scaling};
 use nalgebra::DMatrix;
@@ -49,6 +82,12 @@ pub enum LinalgError {
     /// The matrix has a NaN or infinite entry.
     #[error("matrix has a NaN or infinite entry")]
     NonFinite,
+    /// The matrix of a linear system is singular to working accuracy.
+    #[error("matrix is singular to working accuracy")]
+    Singular,
+    /// The result lies outside the f64 range.
+    #[error("result lies outside the f64 range")]
+    OutOfRange,
 }
 
 /// Reusable eigenvalue solver for one matrix size.

@@ -258,3 +258,4 @@ pub fn spectrum_distance(got: &[C64], want: &[C64]) -> f64 {
     }
     worst
 }
+pub mod kernels;
