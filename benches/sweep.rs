@@ -3,9 +3,9 @@
 //! against 2, and the Courant-limit search on the peer's 129² grid.
 
 use criterion::{criterion_group, criterion_main, Criterion};
-use kgain::analysis::{analyse, Options};
+use kgain::analysis::analyse;
 use kgain::case::Case;
-use kgain::sample::Par;
+use kgain::sample::{NoProgress, Par};
 use std::path::Path;
 
 fn peer(points: usize, analysis: &str) -> Case {
@@ -28,14 +28,7 @@ fn sweep(c: &mut Criterion) {
     for threads in [1, 2] {
         g.bench_function(format!("{threads}_thread"), |b| {
             b.iter(|| {
-                analyse(
-                    &map,
-                    &Options {
-                        par: Par::Threads(threads),
-                        progress: false,
-                    },
-                )
-                .expect("runs")
+                analyse(&map.problem, &map.plan, Par::Threads(threads), &NoProgress).expect("runs")
             })
         });
     }
@@ -44,16 +37,7 @@ fn sweep(c: &mut Criterion) {
     let mut g = c.benchmark_group("courant_limit_129");
     g.sample_size(10);
     g.bench_function("2_threads", |b| {
-        b.iter(|| {
-            analyse(
-                &lim,
-                &Options {
-                    par: Par::Threads(2),
-                    progress: false,
-                },
-            )
-            .expect("runs")
-        })
+        b.iter(|| analyse(&lim.problem, &lim.plan, Par::Threads(2), &NoProgress).expect("runs"))
     });
     g.finish();
 }

@@ -145,6 +145,17 @@ pub fn eigvec_condition(g: &DMatrix<C64>, t: &DMatrix<C64>) -> f64 {
     nonnormal::eigvec_condition(&from_matrix(t), &mut ws).unwrap_or(f64::NAN)
 }
 
+/// The largest modulus among the defective eigenvalue clusters of G = Q T Qᴴ
+/// (None when G is not defective, or when the rank test fails).
+pub fn defective_modulus(t: &DMatrix<C64>) -> Option<f64> {
+    let m = t.nrows();
+    let flat = super::from_matrix(t);
+    let mut ws = super::nonnormal::ConditionWorkspace::new(m);
+    super::nonnormal::defective_modulus(&flat, &mut ws)
+        .ok()
+        .flatten()
+}
+
 #[cfg(test)]
 mod tests {
     use super::*;

@@ -109,12 +109,33 @@ impl ConditionWorkspace {
 /// eigenvectors are dependent to working accuracy.
 pub fn eigvec_condition(t: &[C64], ws: &mut ConditionWorkspace) -> Result<f64, LinalgError> {
     let m = ws.m;
+    if defective_modulus(t, ws)?.is_some() {
+        return Ok(f64::INFINITY);
+    }
+    triangular_eigenvectors(t, m, &mut ws.x, &mut ws.matrix);
+    ws.svd.singular_values(&ws.matrix, &mut ws.sigma)?;
+    let (hi, lo) = (ws.sigma[0], ws.sigma[m - 1]);
+    Ok(if lo <= f64::EPSILON * hi {
+        f64::INFINITY
+    } else {
+        hi / lo
+    })
+}
+
+/// The largest modulus among the defective eigenvalue clusters of A = Q T Qᴴ
+/// (clusters as in [`eigvec_condition`]), or None when no cluster is defective.
+pub fn defective_modulus(
+    t: &[C64],
+    ws: &mut ConditionWorkspace,
+) -> Result<Option<f64>, LinalgError> {
+    let m = ws.m;
     assert_eq!(t.len(), m * m, "Schur factor slice has the wrong length");
     let scale = triangle_frobenius(t, m);
     if !scale.is_finite() {
         return Err(LinalgError::NonFinite);
     }
     ws.seen.fill(false);
+    let mut worst: Option<f64> = None;
     for i in 0..m {
         if ws.seen[i] {
             continue;
@@ -130,18 +151,12 @@ pub fn eigvec_condition(t: &[C64], ws: &mut ConditionWorkspace) -> Result<f64, L
                 sum += lj;
             }
         }
-        if size > 1 && nullity(t, sum / size as f64, scale, ws)? < size {
-            return Ok(f64::INFINITY);
+        let mean = sum / size as f64;
+        if size > 1 && nullity(t, mean, scale, ws)? < size {
+            worst = Some(worst.map_or(modulus(mean), |w: f64| w.max(modulus(mean))));
         }
     }
-    triangular_eigenvectors(t, m, &mut ws.x, &mut ws.matrix);
-    ws.svd.singular_values(&ws.matrix, &mut ws.sigma)?;
-    let (hi, lo) = (ws.sigma[0], ws.sigma[m - 1]);
-    Ok(if lo <= f64::EPSILON * hi {
-        f64::INFINITY
-    } else {
-        hi / lo
-    })
+    Ok(worst)
 }
 
 /// The number of singular values of T − μI (upper part of T) at most

@@ -201,7 +201,7 @@ fn deflation_point<H: Square>(h: &mut H, i: usize, floor: f64) -> usize {
 /// The shift for iteration `its` (counted from 1) on the window [l, i].
 #[inline(always)]
 fn shift<H: Square>(h: &H, l: usize, i: usize, its: usize) -> C64 {
-    if its % EXCEPTIONAL_EVERY != 0 {
+    if !its.is_multiple_of(EXCEPTIONAL_EVERY) {
         return wilkinson(h[i - 1][i - 1], h[i - 1][i], h[i][i - 1], h[i][i]);
     }
     if (its / EXCEPTIONAL_EVERY) % 2 == 1 {

@@ -88,8 +88,8 @@ impl SvdSolver {
         let m = self.m;
         assert_eq!(a.len(), m * m, "matrix slice has the wrong length");
         assert_eq!(sigma.len(), m, "singular value slice has the wrong length");
-        let u_ok = u.as_ref().map_or(true, |u| u.len() == m * m);
-        let v_ok = v.as_ref().map_or(true, |v| v.len() == m * m);
+        let u_ok = u.as_ref().is_none_or(|u| u.len() == m * m);
+        let v_ok = v.as_ref().is_none_or(|v| v.len() == m * m);
         assert!(u_ok && v_ok, "singular vector slice has the wrong length");
         dispatch!(m, fixed, (a, sigma, u, v), {
             let g = self.general.get_or_insert_with(|| General::new(m));

@@ -25,6 +25,8 @@ pub struct NodeMeasures {
     pub condition: f64,
     /// ρ(G).
     pub radius: f64,
+    /// Largest modulus of a defective eigenvalue of G (NaN when none).
+    pub defective: f64,
 }
 
 /// Shared running maxima of the envelope: bits of non-negative f64 compare like
@@ -114,6 +116,7 @@ pub fn node(g: &DMatrix<C64>, steps: usize, env: &Envelope) -> (NodeMeasures, (f
             departure: f64::NAN,
             condition: f64::NAN,
             radius: f64::NAN,
+            defective: f64::NAN,
         };
         return (nan, (f64::NAN, 0));
     };
@@ -123,6 +126,7 @@ pub fn node(g: &DMatrix<C64>, steps: usize, env: &Envelope) -> (NodeMeasures, (f
         departure: dense::departure(&t),
         condition: dense::eigvec_condition(g, &t),
         radius: (0..m).map(|i| t[(i, i)].norm()).fold(0.0, f64::max),
+        defective: dense::defective_modulus(&t).unwrap_or(f64::NAN),
     };
     let mut peak = (f64::NEG_INFINITY, 0usize);
     let exact = exact_norms(&t, steps, |n, upper, lower| {

@@ -130,10 +130,7 @@ pub(super) fn analyse(ctx: &Context, p: &GrowthParams) -> GrowthResult {
         })
     };
     let pseudo = resolvent::pseudospectral_radius(&g_peak, p.epsilon);
-    let defective_on_circle = nodes
-        .iter()
-        .filter(|n| n.0.condition.is_infinite() && n.0.radius >= 1.0 - 1e-6)
-        .count();
+    let defective_on_circle = nodes.iter().filter(|n| n.0.defective >= 1.0 - 1e-6).count();
     let (class, verdict) = classify(
         &envelope,
         steps,

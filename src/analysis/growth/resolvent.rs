@@ -70,18 +70,8 @@ pub fn optimal_perturbation(g: &DMatrix<C64>, n: usize) -> (f64, Vec<C64>) {
             log_scale += f.ln();
         }
     }
-    let svd = p.svd(false, true);
-    let (imax, smax) =
-        svd.singular_values
-            .iter()
-            .enumerate()
-            .fold(
-                (0, f64::NEG_INFINITY),
-                |b, (i, s)| if *s > b.1 { (i, *s) } else { b },
-            );
-    let v = svd
-        .v_t
-        .map(|vt| (0..m).map(|j| vt[(imax, j)].conj()).collect())
-        .unwrap_or_else(|| vec![C64::new(f64::NAN, 0.0); m]);
-    (smax * log_scale.exp(), v)
+    match dense::dominant_right_singular_vector(&p) {
+        Some((smax, v)) => (smax * log_scale.exp(), v),
+        None => (f64::NAN, vec![C64::new(f64::NAN, 0.0); m]),
+    }
 }
