@@ -5,8 +5,9 @@ Runs both binaries on every bundled case (cases/*.toml and bench/peer-euler2d.to
 and compares the output folders: the same set of .npy files with the same shapes
 and dtypes, every value equal to a relative tolerance (default 1e-14 of the
 array's largest finite magnitude; NaN matches NaN, inf matches inf), and every
-number and string in summary.json equal to the same tolerance (keys that name
-the run itself — case_file, output paths — are skipped).
+number and string in summary.json and manifest.json equal to the same
+tolerance (keys that name the run itself — case_file, the file checksums — are
+skipped).
 
 Usage:
   python3 scripts/same_outputs.py OLD_KGAIN NEW_KGAIN [--rtol 1e-14] [--case NAME ...]
@@ -125,6 +126,13 @@ def main():
         with open(os.path.join(new, "summary.json")) as f:
             sn = json.load(f)
         compare_json(so, sn, "summary", a.rtol, diffs)
+        with open(os.path.join(old, "manifest.json")) as f:
+            mo = json.load(f)
+        with open(os.path.join(new, "manifest.json")) as f:
+            mn = json.load(f)
+        for m in (mo, mn):
+            m.pop("files", None)  # checksums of the files compared above
+        compare_json(mo, mn, "manifest", a.rtol, diffs)
         print(f"{'same ' if not diffs else 'DIFF '} {name}")
         for d in diffs[:40]:
             print(f"      {d}")

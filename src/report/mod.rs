@@ -1,14 +1,19 @@
-//! The output folder: NPY arrays, manifest.json, summary.json, PNG pictures,
-//! and the human summary printed by `kgain run`.
+//! The report: results into files and text, computing nothing.
 //!
-//! The folder itself — which paths may be written, the lock, the atomic swap,
-//! the inventory of checksums — is [`crate::destination`]'s; this module fills a
-//! fresh folder ([`write_into`]).
+//! One exporter per format, each reading [`Results`] only: NPY arrays with the
+//! manifest ([`npy`]), summary.json ([`summary_json`]), PNG pictures ([`plot`])
+//! and the terminal table ([`human_summary`]). What each analysis contributes to
+//! each format is written once, in its section (`sections/`). NPY files and
+//! pictures are written concurrently. The folder itself — which paths may be
+//! written, the lock, the atomic swap, the inventory of checksums — is
+//! [`crate::destination`]'s; this module fills a fresh folder ([`write_into`]).
 
-mod arrays;
+pub mod format;
+mod json;
+pub mod npy;
 pub mod plot;
-mod summary;
-mod text;
+mod sections;
+mod table;
 
 use crate::analysis::Results;
 use crate::destination::marker::Owner;
@@ -17,8 +22,8 @@ use crate::problem::Problem;
 use serde_json::Value;
 use std::path::{Path, PathBuf};
 
-pub use summary::summary_json;
-pub use text::human_summary;
+pub use json::summary_json;
+pub use table::human_summary;
 
 /// Errors while writing the output folder.
 #[derive(Debug, thiserror::Error)]
@@ -76,8 +81,18 @@ pub fn owner(problem: &Problem) -> Owner {
 /// and is empty) except `manifest.json`, whose content it returns: the caller's
 /// [`Destination`] completes it with the file inventory and writes it.
 pub fn write_into(dir: &Path, problem: &Problem, results: &Results) -> Result<Value, ReportError> {
-    let mut manifest = arrays::write_arrays(dir, problem, results)?;
-    let pictures = plot::write_pictures(dir, problem, results)?;
+    let arrays = sections::arrays(problem, results);
+    let (written, pictures) = rayon::join(
+        || npy::write_all(dir, &arrays),
+        || plot::write_pictures(dir, problem, results),
+    );
+    let mut manifest = serde_json::json!({
+        "format": "kgain output",
+        "version": 1,
+        "case": problem.name,
+        "arrays": Value::Object(written?),
+    });
+    let pictures = pictures?;
     manifest["pictures"] = pictures
         .iter()
         .filter_map(|p| p.file_name().map(|f| f.to_string_lossy().into_owned()))

@@ -95,6 +95,22 @@ pub struct DirectionalLimit {
     pub worst: usize,
 }
 
+impl DirectionalLimit {
+    /// The directions as angles in [0, 2π) (1-D and 2-D: the angle of the unit vector).
+    pub fn angles(&self) -> Vec<f64> {
+        self.directions
+            .iter()
+            .map(|v| {
+                v.get(1)
+                    .copied()
+                    .unwrap_or(0.0)
+                    .atan2(v[0])
+                    .rem_euclid(std::f64::consts::TAU)
+            })
+            .collect()
+    }
+}
+
 /// The limit analysis.
 #[derive(Debug, Clone)]
 pub struct LimitResult {

@@ -9,25 +9,12 @@
 
 use super::colormap::{colour_bar, Bar, Scale};
 use super::heatmap::{callout, legend_row, target, Key};
-use super::{polar, style, title_band, Area, Res, SIZE, TITLE_BAND};
+use super::polar::{self, Series};
+use super::{style, title_band, Area, Res, SIZE, TITLE_BAND};
 use crate::analysis::{DirectionalLimit, Results};
 use crate::problem::Problem;
 use plotters::prelude::*;
 use plotters::style::text_anchor::{HPos, VPos};
-
-/// The plotted quantity per direction, in the picture's unit.
-pub struct Series {
-    /// One value per direction (Courant number or Δt); may be non-finite.
-    pub values: Vec<f64>,
-    /// The case's own value in the same unit.
-    pub case_value: f64,
-    /// The overall limit in the same unit, when bounded.
-    pub overall: Option<f64>,
-    /// Axis label.
-    pub quantity: &'static str,
-    /// Short symbol for notes.
-    pub symbol: &'static str,
-}
 
 impl Series {
     fn new(problem: &Problem, r: &Results, dl: &DirectionalLimit) -> Series {

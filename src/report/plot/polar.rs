@@ -9,11 +9,24 @@
 //! and a callout.
 
 use super::heatmap::{callout, legend_entry, target, Key};
-use super::limit::Series;
 use super::{style, Area, Res, SIZE, TITLE_BAND};
 use crate::analysis::DirectionalLimit;
 use plotters::prelude::*;
 use plotters::style::text_anchor::{HPos, VPos};
+
+/// The plotted quantity per direction, in the picture's unit.
+pub struct Series {
+    /// One value per direction (Courant number or Δt); may be non-finite.
+    pub values: Vec<f64>,
+    /// The case's own value in the same unit.
+    pub case_value: f64,
+    /// The overall limit in the same unit, when bounded.
+    pub overall: Option<f64>,
+    /// Axis label.
+    pub quantity: &'static str,
+    /// Short symbol for notes.
+    pub symbol: &'static str,
+}
 
 /// Radius of the outer ring, in pixels.
 const RADIUS: f64 = 285.0;

@@ -1,0 +1,151 @@
+//! The NPY exporter: every array a section describes is written as a `.npy`
+//! file (little-endian float64 or complex128, C order) straight from the
+//! results' own memory, and described in the manifest — file, shape, dtype,
+//! dims, coords (the file holding each axis's coordinates, or null), units and
+//! long_name (as in the CF conventions), plus labels where the last axis is a
+//! list of named things. Files are written in parallel.
+
+use super::ReportError;
+use ndarray::{ArrayViewD, IxDyn};
+use num_complex::Complex64 as C64;
+use rayon::prelude::*;
+use serde_json::{json, Map, Value};
+use std::borrow::Cow;
+use std::path::Path;
+
+/// The values of an array: real or complex, borrowed where the results hold
+/// them in the right order, owned where they had to be flattened.
+pub enum Data<'a> {
+    /// float64.
+    Real(Cow<'a, [f64]>),
+    /// complex128.
+    Complex(Cow<'a, [C64]>),
+}
+
+/// One array to write and describe.
+pub struct Array<'a> {
+    /// File stem and manifest key.
+    pub name: String,
+    /// Shape, C order.
+    pub shape: Vec<usize>,
+    /// The values.
+    pub data: Data<'a>,
+    /// Axis names and, per axis, the file holding its coordinates.
+    pub dims: Vec<(&'static str, Option<String>)>,
+    /// CF units.
+    pub units: &'static str,
+    /// CF long name.
+    pub long_name: &'static str,
+    /// Further manifest keys (labels, wavevector).
+    pub extra: Vec<(&'static str, Value)>,
+}
+
+impl<'a> Array<'a> {
+    /// A float64 array.
+    pub fn real(
+        name: &str,
+        shape: &[usize],
+        data: impl Into<Cow<'a, [f64]>>,
+        dims: Vec<(&'static str, Option<String>)>,
+        units: &'static str,
+        long_name: &'static str,
+    ) -> Self {
+        Array {
+            name: name.to_string(),
+            shape: shape.to_vec(),
+            data: Data::Real(data.into()),
+            dims,
+            units,
+            long_name,
+            extra: Vec::new(),
+        }
+    }
+
+    /// A complex128 array.
+    pub fn complex(
+        name: &str,
+        shape: &[usize],
+        data: impl Into<Cow<'a, [C64]>>,
+        dims: Vec<(&'static str, Option<String>)>,
+        units: &'static str,
+        long_name: &'static str,
+    ) -> Self {
+        Array {
+            name: name.to_string(),
+            shape: shape.to_vec(),
+            data: Data::Complex(data.into()),
+            dims,
+            units,
+            long_name,
+            extra: Vec::new(),
+        }
+    }
+
+    /// The same array with a further manifest key.
+    pub fn with(mut self, key: &'static str, value: Value) -> Self {
+        self.extra.push((key, value));
+        self
+    }
+
+    fn entry(&self) -> Value {
+        let dtype = match self.data {
+            Data::Real(_) => "float64",
+            Data::Complex(_) => "complex128",
+        };
+        let coords: Map<String, Value> = self
+            .dims
+            .iter()
+            .map(|(d, f)| (d.to_string(), f.clone().map_or(Value::Null, Value::from)))
+            .collect();
+        let names: Vec<&str> = self.dims.iter().map(|(d, _)| *d).collect();
+        let mut e = json!({
+            "file": format!("{}.npy", self.name),
+            "shape": self.shape,
+            "dtype": dtype,
+            "dims": names,
+            "coords": coords,
+            "units": self.units,
+            "long_name": self.long_name,
+        });
+        for (k, v) in &self.extra {
+            e[*k] = v.clone();
+        }
+        e
+    }
+
+    fn write(&self, dir: &Path) -> Result<(), ReportError> {
+        let path = dir.join(format!("{}.npy", self.name));
+        let shape = IxDyn(&self.shape);
+        let written =
+            match &self.data {
+                Data::Real(v) => ArrayViewD::from_shape(shape, v.as_ref())
+                    .map(|a| ndarray_npy::write_npy(&path, &a)),
+                Data::Complex(v) => ArrayViewD::from_shape(shape, v.as_ref())
+                    .map(|a| ndarray_npy::write_npy(&path, &a)),
+            };
+        let npy = |message: String| ReportError::Npy {
+            path: path.display().to_string(),
+            message,
+        };
+        written
+            .map_err(|e| npy(e.to_string()))?
+            .map_err(|e| npy(e.to_string()))
+    }
+}
+
+/// An axis named `name` whose coordinates are in `file`.
+pub fn axis(name: &'static str, file: &str) -> (&'static str, Option<String>) {
+    (name, Some(file.to_string()))
+}
+
+/// An axis without a coordinate file (modes, components, ...).
+pub fn plain(name: &'static str) -> (&'static str, Option<String>) {
+    (name, None)
+}
+
+/// Writes every array into `dir` (in parallel) and returns the manifest's
+/// `arrays` object.
+pub fn write_all(dir: &Path, arrays: &[Array]) -> Result<Map<String, Value>, ReportError> {
+    arrays.par_iter().try_for_each(|a| a.write(dir))?;
+    Ok(arrays.iter().map(|a| (a.name.clone(), a.entry())).collect())
+}

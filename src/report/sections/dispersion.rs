@@ -1,0 +1,246 @@
+//! Dispersion and dissipation: frequencies, derived maps, group velocities and
+//! the curves by direction as arrays; the `dispersion` key of summary.json; the
+//! resolution and spurious-mode rows.
+
+use super::grid::grid_dims;
+use super::Section;
+use crate::analysis::Results;
+use crate::problem::Problem;
+use crate::report::format::{direction_deg, num};
+use crate::report::npy::{axis, plain, Array};
+use num_complex::Complex64 as C64;
+use serde_json::{json, Map, Value};
+
+/// Dispersion.
+pub struct Dispersion;
+
+impl Section for Dispersion {
+    fn arrays<'a>(&self, _p: &Problem, r: &'a Results, out: &mut Vec<Array<'a>>) {
+        let Some(d) = &r.dispersion else {
+            return;
+        };
+        let m = d.names.len();
+        let dims = r.grid.points.len();
+        let mut shape = r.grid.points.clone();
+        shape.push(m);
+        let mut mdims = grid_dims(r);
+        mdims.push(plain("mode"));
+        let names = json!(d.names);
+        let flat = |v: &[Vec<C64>]| -> Vec<C64> {
+            v.iter().flat_map(|x| x[..m].iter().copied()).collect()
+        };
+        out.push(
+            Array::complex(
+                "frequency",
+                &shape,
+                flat(&d.numerical),
+                mdims.clone(),
+                "rad s-1",
+                "semi-discrete angular frequency omega = i eig L, per physical mode",
+            )
+            .with("labels", names.clone()),
+        );
+        out.push(
+            Array::complex(
+                "frequency_exact",
+                &shape,
+                flat(&d.exact),
+                mdims.clone(),
+                "rad s-1",
+                "angular frequency of the continuous system, per physical mode",
+            )
+            .with("labels", names.clone()),
+        );
+        let mm = d.discrete.first().map_or(m, |x| x.len());
+        let mut dshape = r.grid.points.clone();
+        dshape.push(mm);
+        let mut labels = d.names.clone();
+        labels.extend((0..mm - m).map(|k| format!("computational{}", k + 1)));
+        out.push(
+            Array::complex(
+                "frequency_discrete",
+                &dshape,
+                d.discrete.iter().flatten().copied().collect::<Vec<C64>>(),
+                mdims.clone(),
+                "rad s-1",
+                "fully discrete omega from eig G (lambda = exp(-i omega dt)), physical modes then computational modes",
+            )
+            .with("labels", json!(labels)),
+        );
+        let dm = &d.maps;
+        let maps: [(&str, &'a [f64], &'static str); 10] = [
+            ("phase_speed_ratio", &dm.phase_speed_ratio, "semi-discrete phase speed over exact phase speed"),
+            ("phase_speed_ratio_discrete", &dm.phase_speed_ratio_discrete, "fully discrete phase speed over exact phase speed"),
+            ("group_speed_ratio", &dm.group_speed_ratio, "semi-discrete group velocity along the exact one, over the exact group speed"),
+            ("group_angle_error", &dm.group_angle_error, "angle between semi-discrete and exact group velocities"),
+            ("group_speed_ratio_discrete", &dm.group_speed_ratio_discrete, "fully discrete group velocity along the exact one, over the exact group speed"),
+            ("group_angle_error_discrete", &dm.group_angle_error_discrete, "angle between fully discrete and exact group velocities"),
+            ("amplitude_per_period", &dm.amplitude_per_period, "semi-discrete amplitude factor over one period of the exact wave"),
+            ("amplitude_per_period_discrete", &dm.amplitude_per_period_discrete, "fully discrete amplitude factor over one period of the exact wave"),
+            ("amplitude_per_unit_travel", &dm.amplitude_per_unit_travel, "semi-discrete amplitude factor over one unit of length travelled at the exact group speed"),
+            ("amplitude_per_unit_travel_discrete", &dm.amplitude_per_unit_travel_discrete, "fully discrete amplitude factor over one unit of length travelled at the exact group speed"),
+        ];
+        for (name, data, long_name) in maps {
+            let units = if name.starts_with("group_angle_error") {
+                "radian"
+            } else {
+                "1"
+            };
+            out.push(
+                Array::real(name, &shape, data, mdims.clone(), units, long_name)
+                    .with("labels", names.clone()),
+            );
+        }
+        let mut gshape = shape.clone();
+        gshape.push(dims);
+        let mut gdims = mdims.clone();
+        gdims.push(plain("axis"));
+        for (name, src, long_name) in [
+            (
+                "group_velocity",
+                &d.group,
+                "semi-discrete group velocity d omega / d k",
+            ),
+            (
+                "group_velocity_exact",
+                &d.group_exact,
+                "exact group velocity d omega / d k",
+            ),
+            (
+                "group_velocity_discrete",
+                &d.group_discrete,
+                "fully discrete group velocity d omega / d k of the principal roots",
+            ),
+        ] {
+            let data: Vec<f64> = src
+                .iter()
+                .flat_map(|node| node.iter().flat_map(|v| v.iter().copied()))
+                .collect();
+            out.push(
+                Array::real(name, &gshape, data, gdims.clone(), "m s-1", long_name)
+                    .with("labels", names.clone()),
+            );
+        }
+        let nd = d.directions.len();
+        let k = d.ppw.len();
+        out.push(Array::real(
+            "dispersion_directions",
+            &[nd, dims],
+            d.directions.iter().flatten().copied().collect::<Vec<f64>>(),
+            vec![plain("curve_direction"), plain("axis")],
+            "1",
+            "physical wave directions (unit vectors in k-space) of the dispersion curves",
+        ));
+        out.push(Array::real(
+            "dispersion_ppw",
+            &[k],
+            &d.ppw[..],
+            vec![plain("sample")],
+            "1",
+            "points per wavelength 2 pi/(|k| h_min) of the curve samples",
+        ));
+        for (name, src, long_name) in [
+            (
+                "phase_speed_ratio_by_direction",
+                &d.phase_curves,
+                "semi-discrete phase speed ratio along each direction",
+            ),
+            (
+                "phase_speed_ratio_by_direction_discrete",
+                &d.phase_curves_discrete,
+                "fully discrete phase speed ratio along each direction",
+            ),
+            (
+                "group_speed_ratio_by_direction",
+                &d.group_curves,
+                "semi-discrete group speed ratio along each direction",
+            ),
+        ] {
+            let data: Vec<f64> = src
+                .iter()
+                .flat_map(|dir| dir.iter().flat_map(|s| s[..m].iter().copied()))
+                .collect();
+            let dims = vec![
+                axis("curve_direction", "dispersion_directions.npy"),
+                axis("sample", "dispersion_ppw.npy"),
+                plain("mode"),
+            ];
+            out.push(
+                Array::real(name, &[nd, k, m], data, dims, "1", long_name)
+                    .with("labels", names.clone()),
+            );
+        }
+    }
+
+    fn summary(&self, _p: &Problem, r: &Results, s: &mut Map<String, Value>) {
+        let Some(d) = &r.dispersion else {
+            return;
+        };
+        let modes: Vec<Value> = d
+            .names
+            .iter()
+            .zip(&d.resolution)
+            .zip(&d.parasitic_fraction)
+            .map(|((name, (semi, disc, k)), parasitic)| {
+                let (deg, el) = direction_deg(&d.directions[*k]);
+                json!({
+                    "name": name,
+                    "ppw_required": semi.map(num),
+                    "ppw_required_discrete": disc.map(num),
+                    "worst_direction_deg": semi.map(|_| deg),
+                    "worst_elevation_deg": semi.and(el),
+                    "parasitic_fraction": parasitic,
+                })
+            })
+            .collect();
+        s.insert(
+            "dispersion".into(),
+            json!({
+                "phase_tolerance": d.tolerance,
+                "modes": modes,
+                "computational_modes": d.computational,
+                "definitions": {
+                    "ppw_required": "points per wavelength 2 pi/(|k| h_min) above which |c_num/c_exact - 1| <= phase_tolerance in every direction",
+                    "parasitic_fraction": "share of grid wavevectors where the numerical group velocity opposes the exact one",
+                    "computational_modes": "fully discrete eigenvalues with no semi-discrete partner (extra roots of multistep methods)",
+                },
+            }),
+        );
+    }
+
+    fn rows(&self, _p: &Problem, r: &Results, rows: &mut Vec<(String, String)>) {
+        let Some(d) = &r.dispersion else {
+            return;
+        };
+        let parts: Vec<String> = d
+            .names
+            .iter()
+            .zip(&d.resolution)
+            .filter_map(|(n, (semi, disc, _))| {
+                semi.map(|a| match disc {
+                    Some(b) => format!("{n} {a:.1} ({b:.1} with time stepping)"),
+                    None => format!("{n} {a:.1}"),
+                })
+            })
+            .collect();
+        if !parts.is_empty() {
+            rows.push((
+                "resolution".into(),
+                format!(
+                    "points per wavelength for {:.1}% phase error: {}",
+                    100.0 * d.tolerance,
+                    parts.join(", ")
+                ),
+            ));
+        }
+        if d.computational > 0 {
+            rows.push((
+                "spurious".into(),
+                format!(
+                    "{} computational mode(s) of the time method",
+                    d.computational
+                ),
+            ));
+        }
+    }
+}

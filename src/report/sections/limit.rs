@@ -1,0 +1,165 @@
+//! The largest stable Δt: the by-direction arrays, the `limit` and
+//! `limit_by_direction` keys of summary.json and the limit rows.
+
+use super::Section;
+use crate::analysis::{LimitKind, Results};
+use crate::problem::Problem;
+use crate::report::format::{dir, direction_deg, num, theta, vec_num};
+use crate::report::npy::{axis, plain, Array};
+use serde_json::{json, Map, Value};
+
+/// The limit.
+pub struct Limit;
+
+fn direction() -> (&'static str, Option<String>) {
+    axis("direction", "directions.npy")
+}
+
+impl Section for Limit {
+    fn arrays<'a>(&self, _p: &Problem, r: &'a Results, out: &mut Vec<Array<'a>>) {
+        let Some(dl) = r.limit.as_ref().map(|l| &l.by_direction) else {
+            return;
+        };
+        let n = dl.directions.len();
+        let dims = r.grid.points.len();
+        if dims == 3 {
+            let flat: Vec<f64> = dl.directions.iter().flatten().copied().collect();
+            out.push(Array::real(
+                "directions",
+                &[n, 3],
+                flat,
+                vec![direction(), plain("component")],
+                "1",
+                "wave direction unit vectors in wavevector space",
+            ));
+        } else {
+            out.push(Array::real(
+                "directions",
+                &[n],
+                dl.angles(),
+                vec![direction()],
+                "radian",
+                "wave direction angle in wavevector space",
+            ));
+        }
+        out.push(Array::real(
+            "limit_by_direction",
+            &[n],
+            &dl.dt[..],
+            vec![direction()],
+            "s",
+            "largest stable time step along the wave direction (inf: unconditional)",
+        ));
+        let flat: Vec<f64> = dl.wavevector.iter().flatten().copied().collect();
+        out.push(Array::real(
+            "limit_wavevector_by_direction",
+            &[n, dims],
+            flat,
+            vec![direction(), plain("axis")],
+            "radian",
+            "wavevector that sets the limit along each direction",
+        ));
+        if !dl.courant.is_empty() {
+            out.push(Array::real(
+                "courant_by_direction",
+                &[n],
+                &dl.courant[..],
+                vec![direction()],
+                "1",
+                "largest stable Courant number along the wave direction",
+            ));
+        }
+    }
+
+    fn summary(&self, _p: &Problem, r: &Results, s: &mut Map<String, Value>) {
+        let Some(l) = &r.limit else {
+            return;
+        };
+        let (deg, el) = direction_deg(&l.wavevector);
+        let dt_max = match l.kind {
+            LimitKind::Unconditional => Value::Null,
+            LimitKind::None => json!(0.0),
+            LimitKind::Bounded => num(l.dt_max),
+        };
+        let mut limit = json!({
+            "kind": l.kind.as_str(),
+            "dt_max": dt_max,
+            "courant_max": l.courant_max.map(num),
+            "diffusion_number_max": l.diffusion_number_max.map(num),
+            "wavevector": vec_num(&l.wavevector),
+            "direction_deg": deg,
+            "elevation_deg": el,
+            "stable_at_case_dt": l.stable_at_dt,
+            "found_by": l.found_by.describe(),
+        });
+        if let Some(v) = l.verification {
+            limit["verified_below"] = json!({
+                "dt_steps_scanned": v.steps_scanned,
+                "stable_everywhere_below": v.stable_below,
+                "moved_down_by_scan": v.moved_down,
+            });
+        }
+        s.insert("limit".into(), limit);
+        let d = &l.by_direction;
+        let vmin = d.dt.get(d.worst).copied().unwrap_or(f64::INFINITY);
+        let (deg, el) = direction_deg(&d.directions[d.worst]);
+        s.insert(
+            "limit_by_direction".into(),
+            json!({
+                "count": d.directions.len(),
+                "dt_min": num(vmin),
+                "worst_direction_deg": deg,
+                "worst_elevation_deg": el,
+                "dt_max": num(d.dt.iter().copied().fold(0.0, f64::max)),
+            }),
+        );
+    }
+
+    fn rows(&self, _p: &Problem, r: &Results, rows: &mut Vec<(String, String)>) {
+        let Some(l) = &r.limit else {
+            return;
+        };
+        let v = match l.kind {
+            LimitKind::Unconditional => "unconditional: stable for every dt > 0".to_string(),
+            LimitKind::None => format!(
+                "none: unstable for every dt > 0 (e.g. at theta = {})",
+                theta(&l.wavevector)
+            ),
+            LimitKind::Bounded => {
+                let c = l
+                    .courant_max
+                    .map(|c| format!(", Courant {c:.10}"))
+                    .unwrap_or_default();
+                let d = l
+                    .diffusion_number_max
+                    .map(|d| format!(", diffusion number {d:.10}"))
+                    .unwrap_or_default();
+                format!("dt_max = {:.10e}{c}{d}", l.dt_max)
+            }
+        };
+        rows.push(("largest dt".into(), v));
+        if l.kind == LimitKind::Bounded {
+            rows.push((
+                "set by".into(),
+                format!(
+                    "theta = {}, direction {}",
+                    theta(&l.wavevector),
+                    dir(&l.wavevector)
+                ),
+            ));
+        }
+        let d = &l.by_direction;
+        let vmin = d.dt.get(d.worst).copied().unwrap_or(f64::INFINITY);
+        let vmax = d.dt.iter().copied().fold(0.0, f64::max);
+        if vmin.is_finite() {
+            rows.push((
+                "by direction".into(),
+                format!(
+                    "{} directions: dt from {vmin:.6e} ({}) to {vmax:.6e}",
+                    d.directions.len(),
+                    dir(&d.directions[d.worst])
+                ),
+            ));
+        }
+    }
+}

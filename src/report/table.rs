@@ -1,0 +1,60 @@
+//! The terminal exporter: the short aligned table `kgain run` prints on stdout —
+//! the problem in one line, the time step, each section's rows, the output
+//! folder and the cautions.
+
+use super::sections::ALL;
+use crate::analysis::Results;
+use crate::problem::Problem;
+use std::fmt::Write;
+
+/// The human summary of a run.
+pub fn human_summary(problem: &Problem, r: &Results, out: Option<&std::path::Path>) -> String {
+    let mut s = String::new();
+    let _ = writeln!(
+        s,
+        "kgain: {} ({}-D {}, variables {})",
+        problem.name,
+        problem.dims(),
+        problem.system.kind.name(),
+        problem.system.variables.join(" ")
+    );
+    let names: Vec<&str> = problem
+        .space
+        .first
+        .iter()
+        .map(|s| s.name.as_str())
+        .collect();
+    let mut rows: Vec<(String, String)> = vec![(
+        "scheme".into(),
+        format!(
+            "{} in space, {} in time",
+            names.join("/"),
+            problem.method.name
+        ),
+    )];
+    let courant = r
+        .courant
+        .map(|c| format!(", Courant {c:.6}"))
+        .unwrap_or_default();
+    let diffn = r
+        .diffusion_number
+        .map(|d| format!(", diffusion number {d:.6}"))
+        .unwrap_or_default();
+    rows.push((
+        "time step".into(),
+        format!("dt = {:.6e}{courant}{diffn}", r.dt),
+    ));
+    for section in ALL {
+        section.rows(problem, r, &mut rows);
+    }
+    if let Some(o) = out {
+        rows.push(("output".into(), format!("{}/", o.display())));
+    }
+    for c in &r.cautions {
+        rows.push(("caution".into(), c.clone()));
+    }
+    for (k, v) in rows {
+        let _ = writeln!(s, "  {k:<14}{v}");
+    }
+    s
+}
