@@ -43,6 +43,7 @@ method = "{method}"
 courant = 0.1
 {extra}
 [scan]
+analyses = ["radius", "limit"]
 points = [33, 33]
 directions = 8
 "#
@@ -98,6 +99,7 @@ method = "forward-backward"
 first = ["hx", "hy", "hz"]
 courant = 0.1
 [scan]
+analyses = ["radius", "limit"]
 points = {points}
 directions = 6
 "#,
@@ -180,7 +182,7 @@ fn lax_wendroff_and_lax_friedrichs_limits_are_one_in_1d() {
     // Strikwerda, Finite Difference Schemes and PDEs: |nu| <= 1 for both.
     for method in ["lax-wendroff", "lax-friedrichs"] {
         let text = format!(
-            "[grid]\nspacing = [0.1]\n[model]\nkind = \"advection\"\nvelocity = [-2.0]\n[time]\nmethod = \"{method}\"\ncourant = 0.5\n[scan]\npoints = [129]\n"
+            "[grid]\nspacing = [0.1]\n[model]\nkind = \"advection\"\nvelocity = [-2.0]\n[time]\nmethod = \"{method}\"\ncourant = 0.5\n[scan]\nanalyses = [\"radius\", \"limit\"]\npoints = [129]\n"
         );
         assert_rel(courant_limit(&text), 1.0, 1e-9, method);
     }
@@ -190,7 +192,7 @@ fn lax_wendroff_and_lax_friedrichs_limits_are_one_in_1d() {
 fn lax_friedrichs_system_limit_uses_the_fastest_characteristic() {
     // Strikwerda: for a hyperbolic system, Lax-Friedrichs needs |lambda_max| dt/h <= 1;
     // 1-D acoustics with mean flow U has speeds U +- c.
-    let text = "[grid]\nspacing = [1.0]\n[model]\nkind = \"acoustics\"\nsound_speed = 1.0\nvelocity = [0.5]\n[time]\nmethod = \"lax-friedrichs\"\ncourant = 0.5\n[scan]\npoints = [65]\n";
+    let text = "[grid]\nspacing = [1.0]\n[model]\nkind = \"acoustics\"\nsound_speed = 1.0\nvelocity = [0.5]\n[time]\nmethod = \"lax-friedrichs\"\ncourant = 0.5\n[scan]\nanalyses = [\"radius\", \"limit\"]\npoints = [65]\n";
     assert_rel(courant_limit(text), 1.0, 1e-9, "acoustic Lax-Friedrichs");
 }
 
@@ -199,7 +201,7 @@ fn lie_splitting_of_upwind_euler_takes_the_smaller_one_dimensional_limit() {
     // Common practice: each split sub-step is 1-D first-order upwind with forward Euler,
     // stable for |a_d| dt / h_d <= 1, so the product is stable for dt <= min_d h_d/|a_d|;
     // unsplit needs sum_d |a_d| dt/h_d <= 1 (LeVeque 2002).
-    let base = "[grid]\nspacing = [1.0, 2.0]\n[model]\nkind = \"advection\"\nvelocity = [1.0, 0.5]\n[space]\nfirst = \"upwind1\"\n[time]\nmethod = \"euler\"\ndt = 0.1\n[scan]\npoints = [33, 33]\ndirections = 8\n";
+    let base = "[grid]\nspacing = [1.0, 2.0]\n[model]\nkind = \"advection\"\nvelocity = [1.0, 0.5]\n[space]\nfirst = \"upwind1\"\n[time]\nmethod = \"euler\"\ndt = 0.1\n[scan]\nanalyses = [\"radius\", \"limit\"]\npoints = [33, 33]\ndirections = 8\n";
     let dt = |t: &str| {
         let c = case(t);
         analyse(&c).limit.unwrap().dt_max
@@ -289,7 +291,7 @@ fn characteristic_upwinding_of_shallow_water_gives_the_scalar_upwind_limit() {
     // stable for sqrt(gH) dt/h <= 1 (LeVeque 2002 for the scalar limit).
     for upwind in ["characteristic", "rusanov"] {
         let text = format!(
-            "[grid]\nspacing = [100.0]\n[model]\nkind = \"shallow-water\"\ndepth = 10.0\n[space]\nfirst = \"upwind1\"\nupwind = \"{upwind}\"\n[time]\nmethod = \"euler\"\ncourant = 0.5\n[scan]\npoints = [129]\n"
+            "[grid]\nspacing = [100.0]\n[model]\nkind = \"shallow-water\"\ndepth = 10.0\n[space]\nfirst = \"upwind1\"\nupwind = \"{upwind}\"\n[time]\nmethod = \"euler\"\ncourant = 0.5\n[scan]\nanalyses = [\"radius\", \"limit\"]\npoints = [129]\n"
         );
         // at rest both splittings coincide: |A| = sqrt(gH) I
         assert_rel(courant_limit(&text), 1.0, 1e-9, upwind);

@@ -53,6 +53,7 @@ method = "{method}"
 {step}
 
 [scan]
+analyses = ["radius", "limit"]
 points = {points:?}
 directions = 72
 "#,
@@ -87,6 +88,7 @@ method = "{method}"
 dt = {dt:?}
 
 [scan]
+analyses = ["radius", "limit"]
 points = {points:?}
 "#,
         spacing = toml_list(spacing),
@@ -117,6 +119,7 @@ method = "rk4"
 courant = 1.0
 
 [scan]
+analyses = ["radius", "limit"]
 points = [129, 129]
 "#;
 

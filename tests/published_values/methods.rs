@@ -300,6 +300,7 @@ source = [[-4.0]]
 method = "{method}"
 dt = 0.01
 [scan]
+analyses = ["radius", "limit"]
 points = [17]
 "#
         )
@@ -331,6 +332,7 @@ source = [[[0.0, 5.0]]]
 method = "{method}"
 dt = 0.01
 [scan]
+analyses = ["radius", "limit"]
 points = [17]
 "#
         )

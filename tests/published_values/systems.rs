@@ -29,6 +29,7 @@ upwind = "{upwind}"
 method = "euler"
 courant = 0.5
 [scan]
+analyses = ["radius", "limit"]
 points = [65]
 "#
         );
@@ -187,6 +188,7 @@ velocity = [0.3, -0.2, 0.1]
 method = "rk4"
 courant = 0.5
 [scan]
+analyses = ["radius", "limit"]
 points = [9, 9, 9]
 "#;
     let case = case(text);
@@ -236,6 +238,7 @@ flux = [[[1.0, 0.0], [0.0, 0.0]], [[0.0, 0.0], [0.0, 2.0]]]
 method = "rk4"
 courant = 1.0
 [scan]
+analyses = ["radius", "limit"]
 points = [33, 33]
 "#;
     let (c, r) = run(text);
