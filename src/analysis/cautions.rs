@@ -2,7 +2,7 @@
 //! not establish, and the margin to keep — and those particular to a run.
 
 use super::limit::LimitKind;
-use super::results::Results;
+use super::Results;
 use crate::problem::Problem;
 
 /// The cautions of a run.

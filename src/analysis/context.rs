@@ -2,7 +2,7 @@
 //! operator, the grid, the time step, the parallelism and the progress sink; and
 //! the amplification matrix G(θ, Δt) of any method.
 
-use super::plan::Plan;
+use super::Plan;
 use crate::operator::Operator;
 use crate::problem::Problem;
 use crate::sample::{Grid, Par, Progress, Symmetry};

@@ -3,11 +3,20 @@
 //! and transient growth, dispersion and dissipation, the worst-case modes — all
 //! into one typed [`Results`].
 //!
-//! [`analyse`] is the one entry point. It assembles the operator, sweeps the
-//! grid once ([`sweep`]: radius map and first-exit screening for one-step and
-//! multistep methods, ρ(G) for composite schemes), then runs each analysis the
-//! plan asks for. Parallelism and progress are passed in; the library never
-//! prints.
+//! This file is the register of the analyses: the [`Plan`] (one optional
+//! parameter struct per analysis), the [`Results`] (one optional result per
+//! analysis) and [`analyse`], the one entry point. It assembles the operator,
+//! sweeps the grid once (`sweep`: radius map and first-exit screening for
+//! one-step and multistep methods, ρ(G) for composite schemes), then runs each
+//! analysis the plan asks for. Each analysis's parameters, result type and
+//! computation live in its own module. Parallelism and progress are passed in;
+//! the library never prints.
+//!
+//! ```
+//! use kgain::analysis::{LimitParams, Plan};
+//! let plan = Plan::new(&[129, 129]).with_limit(LimitParams { directions: 72 });
+//! assert!(plan.radius.is_none() && plan.limit.is_some());
+//! ```
 
 pub mod cautions;
 pub mod context;
@@ -16,22 +25,206 @@ pub mod growth;
 pub mod limit;
 pub mod modes;
 pub mod norm;
-pub mod plan;
-pub mod results;
+pub mod radius;
 pub mod samples;
 mod sweep;
 
 pub use context::amplification_at;
-pub use limit::{DirectionalLimit, FoundBy, Limit, LimitKind, LimitResult, Verification};
-pub use plan::{DispersionParams, GrowthParams, LimitParams, Plan, RadiusParams};
-pub use results::{RadiusResult, Results, Samples, Verdict};
+pub use dispersion::{DispersionParams, DispersionResult};
+pub use growth::{GrowthParams, GrowthResult};
+pub use limit::{
+    DirectionalLimit, FoundBy, Limit, LimitKind, LimitParams, LimitResult, Verification,
+};
+pub use radius::{RadiusParams, RadiusResult};
+pub use samples::Samples;
 
 use crate::error::InputError;
 use crate::problem::Problem;
-use crate::sample::{Par, Progress};
+use crate::sample::{Grid, Par, Progress};
 use context::Context;
 use limit::first_exit::ExitTimes;
 use limit::search::CompositeEval;
+use modes::Mode;
+
+/// The analyses to run and how.
+#[derive(Debug, Clone, PartialEq)]
+pub struct Plan {
+    /// Wavevector samples per axis over [−π, π] (both ends included).
+    pub points: Vec<usize>,
+    /// The radius map, if asked.
+    pub radius: Option<RadiusParams>,
+    /// The limit, if asked.
+    pub limit: Option<LimitParams>,
+    /// Growth, if asked.
+    pub growth: Option<GrowthParams>,
+    /// Dispersion, if asked.
+    pub dispersion: Option<DispersionParams>,
+    /// |λ| ≤ 1 + tolerance counts as stable (shared by every analysis).
+    pub tolerance: f64,
+    /// How many amplification matrices to keep for external cross-checks.
+    pub matrices: usize,
+}
+
+impl Plan {
+    /// A plan on a grid of `points` per axis, with no analysis yet.
+    pub fn new(points: &[usize]) -> Plan {
+        Plan {
+            points: points.to_vec(),
+            radius: None,
+            limit: None,
+            growth: None,
+            dispersion: None,
+            tolerance: 1e-12,
+            matrices: 0,
+        }
+    }
+
+    /// Every analysis with its defaults on the default grid of `dims` axes
+    /// (129 points per axis in 1-D and 2-D, 33 in 3-D; 400 directions in 3-D).
+    pub fn all(dims: usize) -> Plan {
+        let n = if dims == 3 { 33 } else { 129 };
+        let directions = match dims {
+            1 => 2,
+            2 => 180,
+            _ => 400,
+        };
+        Plan::new(&vec![n; dims])
+            .with_radius()
+            .with_limit(LimitParams { directions })
+            .with_growth(GrowthParams::default())
+            .with_dispersion(DispersionParams {
+                directions,
+                ..Default::default()
+            })
+    }
+
+    /// Adds the radius map.
+    pub fn with_radius(mut self) -> Self {
+        self.radius = Some(RadiusParams);
+        self
+    }
+
+    /// Adds the limit.
+    pub fn with_limit(mut self, p: LimitParams) -> Self {
+        self.limit = Some(p);
+        self
+    }
+
+    /// Adds growth.
+    pub fn with_growth(mut self, p: GrowthParams) -> Self {
+        self.growth = Some(p);
+        self
+    }
+
+    /// Adds dispersion.
+    pub fn with_dispersion(mut self, p: DispersionParams) -> Self {
+        self.dispersion = Some(p);
+        self
+    }
+
+    /// Sets the stability tolerance (of every analysis).
+    pub fn with_tolerance(mut self, tolerance: f64) -> Self {
+        self.tolerance = tolerance;
+        self
+    }
+
+    /// Checks the plan against a problem; errors name the case-file key.
+    pub fn check(&self, problem: &Problem) -> Result<(), InputError> {
+        let dims = problem.dims();
+        if self.points.len() != dims {
+            return Err(InputError::new(
+                "scan.points",
+                format!(
+                    "needs one count per axis ({dims}), got {}",
+                    self.points.len()
+                ),
+            ));
+        }
+        for (i, n) in self.points.iter().enumerate() {
+            if *n < 2 {
+                return Err(InputError::new(
+                    format!("scan.points.{i}"),
+                    format!("must be at least 2, got {n}"),
+                ));
+            }
+        }
+        if !(0.0..1e-2).contains(&self.tolerance) {
+            return Err(InputError::new("scan.tolerance", "must lie in [0, 0.01)"));
+        }
+        let none = self.radius.is_none() && self.limit.is_none();
+        if none && self.growth.is_none() && self.dispersion.is_none() {
+            return Err(InputError::new("scan.analyses", "names no analysis"));
+        }
+        if let Some(g) = &self.growth {
+            g.check(problem)?;
+        }
+        if let Some(d) = &self.dispersion {
+            d.check()?;
+        }
+        Ok(())
+    }
+
+    /// Estimated bytes of memory the analyses need: per wavevector, the sweep's
+    /// working values and every output array.
+    pub fn memory_estimate(&self, problem: &Problem) -> u128 {
+        let nodes: u128 = self.points.iter().map(|&n| n as u128).product();
+        let (m, levels) = (problem.system.size(), problem.method.levels());
+        let mut per = 0u128;
+        if self.radius.is_some() || self.limit.is_some() {
+            per += 24 + 8;
+        }
+        if let Some(g) = &self.growth {
+            per += g.bytes_per_node();
+        }
+        if let Some(d) = &self.dispersion {
+            per += d.bytes_per_node(m, levels, problem.dims());
+        }
+        nodes * per
+    }
+}
+
+/// Whether the scheme is stable at the problem's Δt.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum Verdict {
+    /// Stable by every analysis that ran.
+    Stable,
+    /// Unstable: the radius exceeds 1 + tolerance, no Δt is stable, or Δt is
+    /// above the limit.
+    Unstable,
+}
+
+/// Everything the analyses produced.
+#[derive(Debug, Clone)]
+pub struct Results {
+    /// The plan that was run.
+    pub plan: Plan,
+    /// The wavevector grid.
+    pub grid: Grid,
+    /// The problem's Δt.
+    pub dt: f64,
+    /// Its Courant number (None without a wave speed).
+    pub courant: Option<f64>,
+    /// Its diffusion number (None without diffusion).
+    pub diffusion_number: Option<f64>,
+    /// Spectral radius, if asked.
+    pub radius: Option<RadiusResult>,
+    /// The limit, if asked.
+    pub limit: Option<LimitResult>,
+    /// Non-normality and transient growth, if asked.
+    pub growth: Option<GrowthResult>,
+    /// Dispersion and dissipation, if asked.
+    pub dispersion: Option<DispersionResult>,
+    /// Worst-case modes of each measure computed.
+    pub modes: Vec<Mode>,
+    /// Sampled matrices, if asked.
+    pub samples: Option<Samples>,
+    /// Nodes where the eigenvalue kernel failed (their values are NaN).
+    pub failures: usize,
+    /// Stable or not at the problem's Δt.
+    pub verdict: Verdict,
+    /// The cautions every report carries, and the case-specific ones.
+    pub cautions: Vec<String>,
+}
 
 /// Why an analysis could not run.
 #[derive(Debug, Clone, PartialEq, thiserror::Error)]
@@ -81,7 +274,7 @@ pub fn analyse(
                 (map, limit, swept.failures, Box::new(exact))
             }
         };
-    let radius = radius_map.map(|map| sweep::radius_result(map, &ctx.grid, tol));
+    let radius = radius_map.map(|map| radius::result(map, &ctx.grid, tol));
     let samples = (plan.matrices > 0).then(|| samples::sample(&ctx, plan.matrices));
     let growth = plan.growth.as_ref().map(|p| growth::analyse(&ctx, p));
     let dispersion = plan

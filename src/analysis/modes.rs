@@ -167,7 +167,7 @@ pub fn eigenpair(a: &DMatrix<C64>, pick: impl Fn(C64) -> f64) -> Option<(C64, Ve
 /// limit wavevector. `limit_pick` ranks eigenvalues of L for the last (largest first).
 pub(super) fn worst_modes(
     ctx: &super::context::Context,
-    r: &super::results::Results,
+    r: &super::Results,
     weights: Option<&[f64]>,
     limit_pick: &dyn Fn(C64) -> f64,
 ) -> Vec<Mode> {

@@ -3,7 +3,22 @@
 //! from L).
 
 use super::context::Context;
-use super::results::Samples;
+use num_complex::Complex64 as C64;
+
+/// Amplification matrices at sample nodes, for external cross-checks.
+#[derive(Debug, Clone)]
+pub struct Samples {
+    /// Flat indices of the nodes.
+    pub index: Vec<usize>,
+    /// θ at each node.
+    pub theta: Vec<Vec<f64>>,
+    /// L(θ), row-major m×m each.
+    pub symbol: Vec<Vec<C64>>,
+    /// G(θ, Δt), row-major M×M each.
+    pub amplification: Vec<Vec<C64>>,
+    /// M.
+    pub size: usize,
+}
 
 /// `k` flat indices spread over a grid of `n` nodes (a large stride modulo n, so
 /// that samples cover every axis).

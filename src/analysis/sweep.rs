@@ -11,8 +11,7 @@ use super::context::Context;
 use super::limit::first_exit::{min_over_modes, noise_level, ExitTimes};
 use super::limit::overall::{Candidates, SCREEN_CANDIDATES};
 use super::limit::search::CompositeEval;
-use super::results::RadiusResult;
-use crate::sample::{self, Grid, Stage};
+use crate::sample::{self, Stage};
 
 /// Wavevectors per slab of the main sweep.
 const SLAB_NODES: usize = 1 << 18;
@@ -120,21 +119,5 @@ pub(super) fn composite(ctx: &Context, ev: &CompositeEval) -> Swept {
         map,
         screen: Vec::new(),
         failures,
-    }
-}
-
-/// The radius map with its maximum (NaN nodes ignored), where it is, and the verdict.
-pub(super) fn radius_result(map: Vec<f64>, grid: &Grid, tol: f64) -> RadiusResult {
-    let (imax, max) = map.iter().enumerate().filter(|(_, v)| !v.is_nan()).fold(
-        (0, f64::NEG_INFINITY),
-        |b, (i, v)| if *v > b.1 { (i, *v) } else { b },
-    );
-    let mut idx = vec![0usize; grid.points.len()];
-    grid.unravel(imax, &mut idx);
-    RadiusResult {
-        max,
-        wavevector: grid.theta(&idx),
-        stable: max <= 1.0 + tol,
-        map,
     }
 }

@@ -11,11 +11,43 @@ pub mod frequencies;
 pub mod maps;
 
 use super::context::Context;
-use super::plan::DispersionParams;
 use crate::sample::{self, Stage};
 use frequencies::Frequencies;
 use maps::{DerivedMaps, NodeFrequencies};
 use num_complex::Complex64 as C64;
+
+/// Dispersion and dissipation.
+#[derive(Debug, Clone, PartialEq)]
+pub struct DispersionParams {
+    /// Phase-error tolerance of the points-per-wavelength requirement.
+    pub phase_tolerance: f64,
+    /// Directions of the dispersion curves in 3-D (12..60 used).
+    pub directions: usize,
+}
+
+impl DispersionParams {
+    /// Checks the parameters.
+    pub fn check(&self) -> Result<(), crate::error::InputError> {
+        crate::error::positive("scan.phase_tolerance", self.phase_tolerance).map(|_| ())
+    }
+
+    /// Bytes per wavevector for `m` variables, `levels` time levels, `dims` axes:
+    /// matched ω (3 sets), group velocities (2), then the written copies and maps.
+    pub fn bytes_per_node(&self, m: usize, levels: usize, dims: usize) -> u128 {
+        let (m, big_m, d) = (m as u128, (m * levels) as u128, dims as u128);
+        let work = 16 * (2 * m + big_m) + 16 * m * d + 3 * 24;
+        2 * work + 6 * 8 * m
+    }
+}
+
+impl Default for DispersionParams {
+    fn default() -> Self {
+        DispersionParams {
+            phase_tolerance: 0.01,
+            directions: 180,
+        }
+    }
+}
 
 /// Everything the dispersion analysis produces.
 #[derive(Debug, Clone)]

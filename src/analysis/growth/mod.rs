@@ -11,12 +11,61 @@ pub mod resolvent;
 
 use super::context::Context;
 use super::norm::NormTransform;
-use super::plan::GrowthParams;
 use crate::sample::{self, Stage};
 use measures::{Envelope, NodeMeasures};
 
 pub use measures::power_norms;
 pub use resolvent::{kreiss_lower_bound, optimal_perturbation, pseudospectral_radius};
+
+/// Non-normality and transient growth.
+#[derive(Debug, Clone, PartialEq)]
+pub struct GrowthParams {
+    /// Horizon N of the envelope max ‖Gⁿ‖, n = 0..N.
+    pub steps: usize,
+    /// ε of the ε-pseudospectral radius.
+    pub epsilon: f64,
+    /// Diagonal norm weights per variable (None: the model's symmetriser).
+    pub weights: Option<Vec<f64>>,
+}
+
+impl GrowthParams {
+    /// Checks the parameters against a problem.
+    pub fn check(&self, problem: &crate::problem::Problem) -> Result<(), crate::error::InputError> {
+        crate::error::positive("scan.epsilon", self.epsilon)?;
+        if let Some(w) = &self.weights {
+            let m = problem.system.size();
+            if w.len() != m {
+                return Err(crate::error::InputError::new(
+                    "scan.weights",
+                    format!(
+                        "needs one weight per variable ({m}: {}), got {}",
+                        problem.system.variables.join(", "),
+                        w.len()
+                    ),
+                ));
+            }
+            for (i, x) in w.iter().enumerate() {
+                crate::error::positive(&format!("scan.weights.{i}"), *x)?;
+            }
+        }
+        Ok(())
+    }
+
+    /// Bytes per wavevector: the three maps and the per-node peak.
+    pub fn bytes_per_node(&self) -> u128 {
+        48 + 2 * 24
+    }
+}
+
+impl Default for GrowthParams {
+    fn default() -> Self {
+        GrowthParams {
+            steps: 100,
+            epsilon: 1e-3,
+            weights: None,
+        }
+    }
+}
 
 /// How the growth analysis classifies a scheme.
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]

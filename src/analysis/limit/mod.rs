@@ -17,6 +17,19 @@ use search::CompositeEval;
 
 pub use overall::wrap;
 
+/// The largest stable Δt, overall and by wave direction.
+#[derive(Debug, Clone, PartialEq)]
+pub struct LimitParams {
+    /// Wave directions (2-D angles, 3-D sphere points; 1-D always ±x).
+    pub directions: usize,
+}
+
+impl Default for LimitParams {
+    fn default() -> Self {
+        LimitParams { directions: 180 }
+    }
+}
+
 /// What kind of limit the scheme has.
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
 pub enum LimitKind {
