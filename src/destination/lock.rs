@@ -6,6 +6,7 @@
 //! on release; a run that opened the file just before it was removed notices
 //! (the path no longer names the file it locked) and tries again.
 
+use super::names::lock_name;
 use std::fs::{File, OpenOptions, TryLockError};
 use std::os::unix::fs::MetadataExt;
 use std::path::{Path, PathBuf};
@@ -24,11 +25,6 @@ pub(super) enum LockError {
 pub(super) struct Lock {
     file: File,
     path: PathBuf,
-}
-
-/// The lock file's name for an output folder called `leaf`.
-pub(super) fn lock_name(leaf: &str) -> String {
-    format!(".{leaf}.kgain-lock")
 }
 
 impl Lock {

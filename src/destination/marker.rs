@@ -6,7 +6,7 @@
 //! and SHA-256 of `manifest.json`. Together they say which files are kgain's and
 //! whether the folder is complete: [`verify`] recomputes every checksum.
 
-use super::recover::STAGING_LABEL;
+use super::names::STAGING_LABEL;
 use serde_json::{json, Value};
 use sha2::{Digest, Sha256};
 use std::io::Read;

@@ -23,6 +23,7 @@
 mod carry;
 mod lock;
 pub mod marker;
+mod names;
 mod recover;
 mod swap;
 
@@ -226,12 +227,12 @@ impl Destination {
         let staging = self.parent.join(format!(
             ".{}{}{}-{}",
             self.leaf,
-            recover::STAGING_TAG,
+            names::STAGING_TAG,
             std::process::id(),
             unique_suffix()
         ));
         std::fs::create_dir(&staging)
-            .and_then(|()| std::fs::write(staging.join(recover::STAGING_LABEL), b"kgain staging\n"))
+            .and_then(|()| std::fs::write(staging.join(names::STAGING_LABEL), b"kgain staging\n"))
             .map_err(io_at(&self.path))
             .map_err(CommitError::Destination)?;
         let written = write(&staging)
@@ -245,7 +246,7 @@ impl Destination {
             return Err(e);
         }
         self.swap_in(&staging).map_err(CommitError::Destination)?;
-        let _ = std::fs::remove_file(self.path.join(recover::STAGING_LABEL));
+        let _ = std::fs::remove_file(self.path.join(names::STAGING_LABEL));
         if let Some(lock) = self.lock.take() {
             lock.release();
         }

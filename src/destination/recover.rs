@@ -15,17 +15,10 @@
 //! been swapped) and `.<name>.kgain-old-<pid>-<id>` (retired, two-rename swaps).
 
 use super::marker::{Marker, MARKER};
+use super::names::{journal_name, RETIRED_TAG, STAGING_LABEL, STAGING_TAG};
 use super::{io_at, DestinationError};
 use std::os::unix::fs::MetadataExt;
 use std::path::{Path, PathBuf};
-
-/// Infix of staging folders: `.<name>.kgain-new-<pid>-<id>`.
-pub(super) const STAGING_TAG: &str = ".kgain-new-";
-/// Infix of folders retired by a two-rename swap.
-pub(super) const RETIRED_TAG: &str = ".kgain-old-";
-/// A file inside a staging folder until it is swapped into place: a stale folder
-/// that still holds it was never seen at the user's path.
-pub(crate) const STAGING_LABEL: &str = ".kgain-staging";
 
 /// Completes an interrupted swap and drains every stale sibling of `path`.
 pub(super) fn stale_siblings(
@@ -106,7 +99,7 @@ fn holds_foreign(dir: &Path, ours: &[String]) -> bool {
 
 /// Completes a two-rename swap a killed run left half done.
 fn finish_journal(parent: &Path, leaf: &str, path: &Path) -> Result<(), DestinationError> {
-    let journal = parent.join(super::swap::journal_name(leaf));
+    let journal = parent.join(journal_name(leaf));
     let Ok(text) = std::fs::read_to_string(&journal) else {
         return Ok(());
     };

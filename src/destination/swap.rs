@@ -12,16 +12,12 @@
 //! that instant, and the next run into the same path completes the move from the
 //! journal ([`super::recover`]).
 
+use super::names::{journal_name, RETIRED_TAG, STAGING_TAG};
 use super::{io_at, DestinationError};
 use rustix::fs::{renameat_with, RenameFlags, CWD};
 use rustix::io::Errno;
 use serde_json::json;
 use std::path::{Path, PathBuf};
-
-/// Name of the journal of the two-rename fallback for the output folder `leaf`.
-pub(super) fn journal_name(leaf: &str) -> String {
-    format!(".{leaf}.kgain-journal")
-}
 
 fn unsupported(e: Errno) -> bool {
     e == Errno::INVAL || e == Errno::NOSYS || e == Errno::OPNOTSUPP
@@ -76,7 +72,6 @@ fn two_renames(
     parent: &Path,
     leaf: &str,
 ) -> Result<PathBuf, DestinationError> {
-    use super::recover::{RETIRED_TAG, STAGING_TAG};
     let name = |p: &Path| p.file_name().map(|s| s.to_string_lossy().into_owned());
     let old = parent.join(
         name(staging)

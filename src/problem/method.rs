@@ -3,7 +3,7 @@
 //! IMEX, Lax–Wendroff, Lax–Friedrichs) and dimension splitting of a one-step
 //! method.
 
-use super::builder::MethodSpec;
+use super::spec::MethodSpec;
 use crate::error::InputError;
 use crate::operator::Space;
 use crate::physics::System;

@@ -25,9 +25,11 @@
 mod builder;
 mod method;
 mod space;
+mod spec;
 
 pub use crate::error::InputError;
-pub use builder::{ModelChoice, ProblemBuilder, StencilChoice, TableauSpec, UserStencil};
+pub use builder::ProblemBuilder;
+pub use spec::{ModelChoice, StencilChoice, TableauSpec, UserStencil};
 
 use crate::operator::{Operator, Space};
 use crate::physics::System;

@@ -2,7 +2,7 @@
 //! (built-in or the user's own), upwinding, dissipation and the grid arrangement
 //! with each variable's offset in the cell.
 
-use super::builder::{StencilChoice, UserStencil};
+use super::spec::{StencilChoice, UserStencil};
 use crate::error::InputError;
 use crate::operator::{Arrangement, Dissipation, Space, Upwind};
 use crate::physics::{ModelKind, System};
