@@ -6,13 +6,16 @@
 //! condition number where the spectrum is not normal); seeded random matrices
 //! for m = 1…10 plus degenerate inputs.
 
+#[path = "support/mod.rs"]
+mod support;
+
 use kgain::linalg::{self, reference, EigSolver, LinalgError, SvdSolver};
 use nalgebra::DMatrix;
 use num_complex::Complex64 as C64;
 use rand::rngs::StdRng;
 use rand::{Rng, SeedableRng};
 
-const EPS: f64 = f64::EPSILON;
+use support::EPS;
 /// Sizes checked: the closed forms, every fixed-size kernel, and the general path.
 const SIZES: std::ops::RangeInclusive<usize> = 1..=10;
 const SAMPLES: usize = 300;

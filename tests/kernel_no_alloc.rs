@@ -3,6 +3,9 @@
 //! the in-place calls of every solver for m = 1..8 and, once the solver is
 //! built, for m = 12 on the run-time-size path.
 
+#[path = "support/mod.rs"]
+mod support;
+
 use kgain::linalg::nonnormal::{self, ConditionWorkspace};
 use kgain::linalg::{EigSolver, LuSolver, SchurSolver, SvdSolver};
 use num_complex::Complex64 as C64;
@@ -50,8 +53,15 @@ fn in_place_kernels_do_not_allocate_per_call() {
     let start = allocations();
     let probe = std::hint::black_box(vec![0u8; 64]);
     assert!(allocations() > start && probe.len() == 64);
-    for m in (1..=8).chain([12]) {
-        let a = sample(m);
+    for (m, hermitian) in (1..=8).chain([12]).flat_map(|m| [(m, false), (m, true)]) {
+        // a non-normal matrix, and the Hermitian A + Aᴴ (a different path through QR)
+        let a = match hermitian {
+            false => sample(m),
+            true => {
+                let (a, ah) = (sample(m), support::kernels::adjoint(&sample(m), m));
+                a.iter().zip(&ah).map(|(x, y)| x + y).collect()
+            }
+        };
         let mut eig = EigSolver::new(m);
         let mut schur = SchurSolver::new(m);
         let mut svd = SvdSolver::new(m);
@@ -83,6 +93,10 @@ fn in_place_kernels_do_not_allocate_per_call() {
             nonnormal::triangular_eigenvectors(&t, m, &mut x, &mut y);
             assert!(nonnormal::eigvec_condition(&t, &mut cond).expect("condition") >= 1.0);
         }
-        assert_eq!(allocations(), before, "m = {m}: the kernels allocated");
+        assert_eq!(
+            allocations(),
+            before,
+            "m = {m} (Hermitian: {hermitian}): the kernels allocated"
+        );
     }
 }

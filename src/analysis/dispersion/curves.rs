@@ -21,18 +21,10 @@ pub fn points_per_wavelength(theta: &[f64], spacing: &[f64]) -> f64 {
 /// Physical wave directions for the curves: ±x in 1-D, 36 angles in 2-D, a
 /// Fibonacci set in 3-D.
 pub fn curve_directions(dims: usize, count: usize) -> Vec<Vec<f64>> {
+    use crate::numeric::directions::unit_vectors;
     match dims {
-        1 => vec![vec![1.0], vec![-1.0]],
-        2 => (0..36)
-            .map(|j| {
-                let a = 2.0 * PI * j as f64 / 36.0;
-                vec![a.cos(), a.sin()]
-            })
-            .collect(),
-        _ => crate::numeric::directions::sphere(count.clamp(12, 60))
-            .into_iter()
-            .map(|v| v.to_vec())
-            .collect(),
+        3 => unit_vectors(3, count.clamp(12, 60)),
+        d => unit_vectors(d, 36),
     }
 }
 

@@ -109,6 +109,16 @@ pub struct DirectionalLimit {
 }
 
 impl DirectionalLimit {
+    /// The smallest Δt over the directions (that of [`DirectionalLimit::worst`]).
+    pub fn smallest(&self) -> f64 {
+        self.dt.get(self.worst).copied().unwrap_or(f64::INFINITY)
+    }
+
+    /// The largest finite-or-infinite Δt over the directions (NaN ignored).
+    pub fn largest(&self) -> f64 {
+        self.dt.iter().copied().fold(0.0, f64::max)
+    }
+
     /// The directions as angles in [0, 2π) (1-D and 2-D: the angle of the unit vector).
     pub fn angles(&self) -> Vec<f64> {
         self.directions

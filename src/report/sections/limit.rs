@@ -101,16 +101,15 @@ impl Section for Limit {
         }
         s.insert("limit".into(), limit);
         let d = &l.by_direction;
-        let vmin = d.dt.get(d.worst).copied().unwrap_or(f64::INFINITY);
         let (deg, el) = direction_deg(&d.directions[d.worst]);
         s.insert(
             "limit_by_direction".into(),
             json!({
                 "count": d.directions.len(),
-                "dt_min": num(vmin),
+                "dt_min": num(d.smallest()),
                 "worst_direction_deg": deg,
                 "worst_elevation_deg": el,
-                "dt_max": num(d.dt.iter().copied().fold(0.0, f64::max)),
+                "dt_max": num(d.largest()),
             }),
         );
     }
@@ -149,8 +148,7 @@ impl Section for Limit {
             ));
         }
         let d = &l.by_direction;
-        let vmin = d.dt.get(d.worst).copied().unwrap_or(f64::INFINITY);
-        let vmax = d.dt.iter().copied().fold(0.0, f64::max);
+        let (vmin, vmax) = (d.smallest(), d.largest());
         if vmin.is_finite() {
             rows.push((
                 "by direction".into(),
