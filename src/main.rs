@@ -76,6 +76,9 @@ enum ListWhat {
     Methods,
 }
 
+/// More worker threads than this are refused: they only cost start-up time.
+const MAX_THREADS: usize = 1024;
+
 enum Failure {
     Input(String),
     Other(String),
@@ -156,6 +159,11 @@ fn run(cli: Cli) -> Result<(), Failure> {
             let case = Case::load(&case, &set).map_err(|e| Failure::Input(e.to_string()))?;
             let par = match threads {
                 Some(0) => return Err(Failure::Input("--threads must be at least 1".into())),
+                Some(n) if n > MAX_THREADS => {
+                    return Err(Failure::Input(format!(
+                        "--threads {n}: at most {MAX_THREADS} worker threads"
+                    )))
+                }
                 Some(n) => Par::Threads(n),
                 None => Par::Threads(0),
             };
@@ -173,6 +181,17 @@ fn run(cli: Cli) -> Result<(), Failure> {
             let bars = cli::progress::Bars::new(!quiet && std::io::stderr().is_terminal());
             let results = analyse(&case.problem, &case.plan, par, &bars)
                 .map_err(|e| Failure::Input(format!("{}: {e}", case.file.display())))?;
+            if let Some(bad) = results.non_finite.first() {
+                let theta: Vec<String> =
+                    bad.wavevector.iter().map(|x| format!("{x:+.6}")).collect();
+                return Err(Failure::Other(format!(
+                    "{}: the {} could not be computed at {} wavevector(s), the first at theta = ({}); no result is reported and nothing was written",
+                    case.file.display(),
+                    bad.quantity,
+                    bad.count,
+                    theta.join(", ")
+                )));
+            }
             let written = dest
                 .commit(|dir| report::write_into(dir, &case.problem, &results))
                 .map_err(|e| match e {

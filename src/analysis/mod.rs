@@ -46,6 +46,28 @@ use limit::first_exit::ExitTimes;
 use limit::search::CompositeEval;
 use modes::Mode;
 
+/// Largest number of points per axis.
+pub const MAX_POINTS: usize = 1 << 20;
+/// Largest number of wavevectors in one run.
+pub const MAX_NODES: usize = 1 << 31;
+/// Largest number of wave directions.
+pub const MAX_DIRECTIONS: usize = 1 << 17;
+/// Largest growth horizon.
+pub const MAX_STEPS: usize = 1 << 20;
+/// Largest number of sampled matrices.
+pub const MAX_MATRICES: usize = 1 << 16;
+
+/// A quantity that could not be computed at some wavevectors.
+#[derive(Debug, Clone, PartialEq)]
+pub struct NonFinite {
+    /// What it is.
+    pub quantity: &'static str,
+    /// At how many wavevectors.
+    pub count: usize,
+    /// The first such wavevector.
+    pub wavevector: Vec<f64>,
+}
+
 /// The analyses to run and how.
 #[derive(Debug, Clone, PartialEq)]
 pub struct Plan {
@@ -141,12 +163,38 @@ impl Plan {
             ));
         }
         for (i, n) in self.points.iter().enumerate() {
-            if *n < 2 {
+            if *n < 2 || *n > MAX_POINTS {
                 return Err(InputError::new(
                     format!("scan.points.{i}"),
-                    format!("must be at least 2, got {n}"),
+                    format!("must lie between 2 and {MAX_POINTS}, got {n}"),
                 ));
             }
+        }
+        let nodes = self.points.iter().fold(1u128, |p, &n| p * n as u128);
+        if nodes > MAX_NODES as u128 {
+            return Err(InputError::new(
+                "scan.points",
+                format!(
+                    "asks for {nodes} wavevectors; at most {MAX_NODES} are analysed in one run"
+                ),
+            ));
+        }
+        let cap = |key: &str, v: usize, max: usize| match v > max {
+            true => Err(InputError::new(
+                key,
+                format!("must be at most {max}, got {v}"),
+            )),
+            false => Ok(()),
+        };
+        cap("scan.matrices", self.matrices, MAX_MATRICES)?;
+        if let Some(l) = &self.limit {
+            cap("scan.directions", l.directions, MAX_DIRECTIONS)?;
+        }
+        if let Some(g) = &self.growth {
+            cap("scan.steps", g.steps, MAX_STEPS)?;
+        }
+        if let Some(d) = &self.dispersion {
+            cap("scan.directions", d.directions, MAX_DIRECTIONS)?;
         }
         if !(0.0..1e-2).contains(&self.tolerance) {
             return Err(InputError::new("scan.tolerance", "must lie in [0, 0.01)"));
@@ -220,6 +268,8 @@ pub struct Results {
     pub samples: Option<Samples>,
     /// Nodes where the eigenvalue kernel failed (their values are NaN).
     pub failures: usize,
+    /// Quantities that came out NaN at some wavevectors (a failure, not a result).
+    pub non_finite: Vec<NonFinite>,
     /// Stable or not at the problem's Δt.
     pub verdict: Verdict,
     /// The cautions every report carries, and the case-specific ones.
@@ -245,7 +295,7 @@ pub fn analyse(
     let ctx = Context::new(problem, plan, par, progress);
     let tol = plan.tolerance;
     let want_radius = plan.radius.is_some();
-    let (radius_map, limit, failures, pick): (_, _, _, Box<dyn Fn(_) -> f64>) =
+    let (radius_map, limit, (failures, first_failure), pick): (_, _, _, Box<dyn Fn(_) -> f64>) =
         match problem.method.composite() {
             Some(scheme) => {
                 let ev = CompositeEval::new(problem, &ctx.op, scheme, tol);
@@ -254,7 +304,9 @@ pub fn analyse(
                     .limit
                     .as_ref()
                     .map(|p| limit::by_search(&ctx, &ev, p.directions));
-                let failures = swept.as_ref().map_or(0, |s| s.failures);
+                let failures = swept
+                    .as_ref()
+                    .map_or((0, None), |s| (s.failures, s.first_failure));
                 (
                     swept.map(|s| s.map),
                     limit,
@@ -271,7 +323,8 @@ pub fn analyse(
                     .map(|p| limit::by_first_exit(&ctx, &exits, &swept.screen, p.directions));
                 let exact = move |mu| -exits.exact(mu, 0.0);
                 let map = want_radius.then_some(swept.map);
-                (map, limit, swept.failures, Box::new(exact))
+                let failures = (swept.failures, swept.first_failure);
+                (map, limit, failures, Box::new(exact))
             }
         };
     let radius = radius_map.map(|map| radius::result(map, &ctx.grid, tol));
@@ -299,6 +352,7 @@ pub fn analyse(
         modes: Vec::new(),
         samples,
         failures,
+        non_finite: Vec::new(),
         verdict: if unstable {
             Verdict::Unstable
         } else {
@@ -308,6 +362,59 @@ pub fn analyse(
     };
     let weights = plan.growth.as_ref().and_then(|g| g.weights.as_deref());
     r.modes = modes::worst_modes(&ctx, &r, weights, &*pick);
+    r.non_finite = non_finite(&r, first_failure);
     r.cautions = cautions::cautions(problem, &r);
     Ok(r)
+}
+
+/// The quantities that are NaN somewhere: eigenvalues of L (the main sweep), the
+/// limit, ‖G‖₂ and the departure, the semi-discrete frequencies.
+fn non_finite(r: &Results, first_failure: Option<usize>) -> Vec<NonFinite> {
+    let at = |flat: usize| {
+        let mut idx = vec![0usize; r.grid.points.len()];
+        r.grid.unravel(flat, &mut idx);
+        r.grid.theta(&idx)
+    };
+    let mut out = Vec::new();
+    let mut note = |quantity, count: usize, first: Option<usize>| {
+        if let (true, Some(f)) = (count > 0, first) {
+            out.push(NonFinite {
+                quantity,
+                count,
+                wavevector: at(f),
+            });
+        }
+    };
+    note(
+        "eigenvalues of L and spectral radius of G",
+        r.failures,
+        first_failure,
+    );
+    if let Some(g) = &r.growth {
+        let bad = |v: &f64| v.is_nan();
+        let count = g.norm.iter().filter(|v| bad(v)).count();
+        note(
+            "||G||_2 and the departure from normality",
+            count,
+            g.norm.iter().position(bad),
+        );
+    }
+    if let Some(d) = &r.dispersion {
+        let bad =
+            |n: &Vec<num_complex::Complex64>| n.iter().any(|w| w.re.is_nan() || w.im.is_nan());
+        let count = d.numerical.iter().filter(|n| bad(n)).count();
+        note(
+            "semi-discrete frequencies",
+            count,
+            d.numerical.iter().position(bad),
+        );
+    }
+    if let Some(l) = r.limit.as_ref().filter(|l| l.dt_max.is_nan()) {
+        out.push(NonFinite {
+            quantity: "largest stable dt",
+            count: 1,
+            wavevector: l.wavevector.clone(),
+        });
+    }
+    out
 }

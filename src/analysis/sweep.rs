@@ -24,6 +24,8 @@ pub(super) struct Swept {
     pub screen: Vec<(usize, f64, f64)>,
     /// Nodes where the kernel failed.
     pub failures: usize,
+    /// The first of them (flat index).
+    pub first_failure: Option<usize>,
 }
 
 /// One sweep for a method whose G is a function of eig L.
@@ -47,6 +49,7 @@ pub(super) fn spectral(
     };
     let mut screen = Candidates::new(SCREEN_CANDIDATES);
     let mut failures = 0usize;
+    let mut first_failure = None;
     for r0 in (0..computed).step_by(slab) {
         let r1 = (r0 + slab).min(computed);
         let part: Vec<(f64, f64, f64)> =
@@ -75,6 +78,7 @@ pub(super) fn spectral(
             let flat = r0 * row + k;
             if rad.is_nan() {
                 failures += 1;
+                first_failure.get_or_insert(flat);
             }
             if want_radius {
                 map[flat] = rad;
@@ -104,6 +108,7 @@ pub(super) fn spectral(
         map,
         screen: screen.into_sorted(),
         failures,
+        first_failure,
     }
 }
 
@@ -115,9 +120,11 @@ pub(super) fn composite(ctx: &Context, ev: &CompositeEval) -> Swept {
     });
     ctx.progress.finish();
     let failures = map.iter().filter(|v| v.is_nan()).count();
+    let first_failure = map.iter().position(|v| v.is_nan());
     Swept {
         map,
         screen: Vec::new(),
         failures,
+        first_failure,
     }
 }

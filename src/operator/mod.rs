@@ -249,7 +249,17 @@ impl Operator {
     /// Largest |factor product| × ‖matrix‖_F summed over terms, plus ‖constant‖_F:
     /// a size scale of L(θ) over all θ.
     pub fn scale(&self) -> f64 {
-        let norm = |v: &[C64]| v.iter().map(|z| z.norm_sqr()).sum::<f64>().sqrt();
+        // scaled by the largest entry, so that entries near 1e200 do not overflow the sum
+        let norm = |v: &[C64]| {
+            let big = v
+                .iter()
+                .map(|z| z.re.abs().max(z.im.abs()))
+                .fold(0.0, f64::max);
+            if big == 0.0 || !big.is_finite() {
+                return big;
+            }
+            big * v.iter().map(|z| (z / big).norm_sqr()).sum::<f64>().sqrt()
+        };
         let probe: Vec<f64> = (0..64)
             .map(|k| std::f64::consts::PI * k as f64 / 63.0)
             .collect();

@@ -14,7 +14,7 @@ use crate::error::InputError;
 pub fn advection(velocity: &[f64], diffusivity: &[f64]) -> System {
     let flux = velocity.iter().map(|a| real(1, |_, _| *a)).collect();
     let diffusion = diffusivity.iter().map(|d| real(1, |_, _| *d)).collect();
-    let speed = velocity.iter().map(|a| a * a).sum::<f64>().sqrt();
+    let speed = super::length(velocity);
     let mut s = System::from_parts(
         ModelKind::Advection,
         vec!["q".into()],
@@ -63,7 +63,7 @@ pub fn acoustics(sound_speed: f64, density: f64, mean_flow: &[f64]) -> System {
         .collect();
     let mut vars = vec!["p".to_string()];
     vars.extend(velocity_names(dims));
-    let speed = mean_flow.iter().map(|a| a * a).sum::<f64>().sqrt() + sound_speed;
+    let speed = super::length(mean_flow) + sound_speed;
     let zero = (0..dims).map(|_| real(m, |_, _| 0.0)).collect();
     let mut s = System::from_parts(
         ModelKind::Acoustics,
@@ -117,7 +117,7 @@ pub fn euler(density: f64, velocity: &[f64], pressure: f64, gamma: f64) -> Syste
     vars.extend(velocity_names(dims));
     vars.push("p".into());
     let c = (gamma * pressure / density).sqrt();
-    let speed = velocity.iter().map(|a| a * a).sum::<f64>().sqrt() + c;
+    let speed = super::length(velocity) + c;
     let zero = (0..dims).map(|_| real(m, |_, _| 0.0)).collect();
     let mut s = System::from_parts(
         ModelKind::Euler,
@@ -174,7 +174,7 @@ pub fn shallow_water(gravity: f64, depth: f64, velocity: &[f64], coriolis: f64) 
     });
     let mut vars = vec!["h".to_string()];
     vars.extend(velocity_names(dims));
-    let speed = velocity.iter().map(|a| a * a).sum::<f64>().sqrt() + (gravity * depth).sqrt();
+    let speed = super::length(velocity) + (gravity * depth).sqrt();
     let zero = (0..dims).map(|_| real(m, |_, _| 0.0)).collect();
     let mut s = System::from_parts(
         ModelKind::ShallowWater,

@@ -160,3 +160,17 @@ pub(crate) fn velocity_names(dims: usize) -> Vec<String> {
         .map(|s| s.to_string())
         .collect()
 }
+
+/// |v|, without overflow of the squares for entries near the top of the range
+/// (the plain sum of squares where it is representable, so results are unchanged).
+pub(crate) fn length(v: &[f64]) -> f64 {
+    let plain = v.iter().map(|a| a * a).sum::<f64>().sqrt();
+    if plain.is_finite() && plain > 1e-150 {
+        return plain;
+    }
+    let big = v.iter().fold(0.0f64, |m, a| m.max(a.abs()));
+    if big == 0.0 || !big.is_finite() {
+        return big;
+    }
+    big * v.iter().map(|a| (a / big) * (a / big)).sum::<f64>().sqrt()
+}

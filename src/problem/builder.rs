@@ -201,12 +201,19 @@ impl ProblemBuilder {
         let space = space::space(first, second, upwind, dissipation, arrangement, locations);
         let method = method::method(&self.method, &system, &space)?;
         let step = step(self.dt, self.courant, &system)?;
-        Operator::assemble(&system, &spacing, &space).map_err(|e| match e {
+        let op = Operator::assemble(&system, &spacing, &space).map_err(|e| match e {
             OperatorError::NotDiagonalisable { .. } => {
                 InputError::new("space.upwind", e.to_string())
             }
             OperatorError::Staggering { .. } => InputError::new("space.first", e.to_string()),
         })?;
+        super::magnitudes::check(
+            &system,
+            &spacing,
+            &op,
+            step,
+            space.dissipation.map(|d| d.strength),
+        )?;
         let name = self.name.unwrap_or_else(|| "problem".into());
         if name.is_empty() || name.contains(['/', '\\']) || name == "." || name == ".." {
             return Err(InputError::new(

@@ -23,6 +23,7 @@
 //! ```
 
 mod builder;
+mod magnitudes;
 mod method;
 mod space;
 mod spec;

@@ -8,6 +8,7 @@
 mod support;
 
 mod check_list;
+mod extremes;
 mod flags;
 mod output;
 mod policy;

@@ -159,7 +159,7 @@ method = "rk4"
 courant = 0.5
 
 [scan]
-points = [100000, 100000, 100000]
+points = [2000, 2000, 400]
 "#;
     let where_ = at(text, "points", "[");
     assert_refused(text, &[], &[where_, "scan.points".into(), "memory".into()]);
