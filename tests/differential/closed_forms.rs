@@ -51,3 +51,21 @@ pub const D45: [f64; 2] = [
     std::f64::consts::FRAC_1_SQRT_2,
     std::f64::consts::FRAC_1_SQRT_2,
 ];
+
+/// Prints engine, reference and closed form side by side for every overall
+/// case (run with `-- --ignored --nocapture`), checking the reference again.
+#[test]
+#[ignore = "a helper: prints engine, reference and closed form side by side"]
+fn print_closed_form_table() {
+    for (name, s, want) in diffusive::cases().into_iter().chain(hyperbolic::cases()) {
+        let e = engine(&s);
+        let r = overall(&s);
+        println!(
+            "{name}: engine {:?} {:.12e}; reference {:?} {:.12e} (±{:.1e} relative: {}); closed form {want:.12e}",
+            e.kind, e.dt_max, r.kind, r.dt, r.uncertainty, r.note
+        );
+        if want.is_finite() {
+            assert_limit(r.dt, want, name);
+        }
+    }
+}

@@ -30,11 +30,13 @@ pub struct LongWave {
     pub direction: Vec<f64>,
     /// Whether the extrapolation converged.
     pub converged: bool,
-    /// Relative spread of the last two extrapolants.
+    /// Relative spread of the last extrapolants.
     pub spread: f64,
 }
 
-/// Neville extrapolation of y(x) to x = 0: the last two diagonal values.
+/// Neville extrapolation of y(x) to x = 0: the last diagonal value and the
+/// largest distance from it of the three before (a conservative error
+/// estimate: the points carry roundoff as well as truncation error).
 fn neville(x: &[f64], y: &[f64]) -> (f64, f64) {
     let mut p = y.to_vec();
     let mut diag = vec![y[0]];
@@ -44,8 +46,12 @@ fn neville(x: &[f64], y: &[f64]) -> (f64, f64) {
         }
         diag.push(p[x.len() - 1]);
     }
-    let n = diag.len();
-    (diag[n - 1], if n > 1 { diag[n - 2] } else { f64::NAN })
+    let last = diag[diag.len() - 1];
+    let deviation = diag[diag.len().saturating_sub(4)..diag.len() - 1]
+        .iter()
+        .map(|d| (d - last).abs())
+        .fold(0.0, f64::max);
+    (last, deviation)
 }
 
 /// Smallest crossing clarity: ρ − 1 at 1.01·Δt*(s) below this is roundoff.
@@ -76,8 +82,8 @@ pub fn along(s: &Scheme, n: &[f64], cap: f64) -> Option<LongWave> {
             _ => return None,
         }
     }
-    let (value, previous) = neville(&xs, &ys);
-    let spread = ((value - previous) / value).abs();
+    let (value, deviation) = neville(&xs, &ys);
+    let spread = (deviation / value).abs();
     (value > 0.0).then(|| LongWave {
         dt: value,
         direction: n.to_vec(),

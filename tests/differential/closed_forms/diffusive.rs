@@ -229,3 +229,13 @@ fn heun_with_fourth_order_dissipation_limit_is_cube_root_of_half_sigma_engine() 
     assert_eq!(e.kind, EngineKind::Bounded);
     assert_limit(e.dt_max, (0.5e-6f64).cbrt(), "Heun + dissipation, engine");
 }
+
+/// The overall cases of this module with their closed-form limits.
+pub fn cases() -> Vec<(&'static str, Scheme, f64)> {
+    vec![
+        ("FTCS 1-D", ftcs_1d(), 0.2),
+        ("FTCS 2-D", ftcs_2d(), 0.15625),
+        ("IMEX Euler 1-D", imex_euler_1d(), 1.2),
+        ("Heun + dissipation", heun_dissipation(), (0.5e-6f64).cbrt()),
+    ]
+}

@@ -216,3 +216,27 @@ fn classic_limits_pass_engine() {
         "Heun + central2, engine"
     );
 }
+
+/// The overall cases of this module with their closed-form limits (NaN where
+/// there is none: the limit comes from the reference search).
+pub fn cases() -> Vec<(&'static str, Scheme, f64)> {
+    vec![
+        ("Lax-Friedrichs 2-D", lax_friedrichs_2d(), 0.5),
+        ("Lax-Wendroff 2-D", lax_wendroff_2d(), f64::NAN),
+        (
+            "RK4 + central2",
+            calibration("central2", &[1.0], &[1.0], rk4()),
+            8f64.sqrt(),
+        ),
+        (
+            "leapfrog + central2",
+            calibration("central2", &[1.0], &[1.0], leapfrog()),
+            1.0,
+        ),
+        (
+            "Euler + upwind1 2-D",
+            calibration("upwind1", &[1.0, 0.5], &[1.0, 0.5], euler()),
+            0.5,
+        ),
+    ]
+}
