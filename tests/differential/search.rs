@@ -126,6 +126,15 @@ pub fn search(s: &Scheme, dom: &Domain, start: Option<f64>) -> Reference {
             );
         }
     }
+    if !note.starts_with("long-wave") {
+        // the brief's test of a tangential transition: just above the limit the
+        // witness must be unstable beyond roundoff
+        let p = Point::new(s, witness.clone(), ROUNDOFF);
+        if p.excess(best * (1.0 + 1e-6)) <= 0.0 {
+            conclusive = false;
+            note.push_str("; tangential: ρ − 1 stays within roundoff at 1.000001 × the limit");
+        }
+    }
     let near_origin = witness.iter().map(|x| x * x).sum::<f64>().sqrt() < 1e-2;
     if near_origin && !note.starts_with("long-wave") && !converged_long_wave {
         conclusive = false;
