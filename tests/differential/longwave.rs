@@ -83,6 +83,16 @@ pub fn along(s: &Scheme, n: &[f64], cap: f64) -> Option<LongWave> {
         }
     }
     let (value, deviation) = neville(&xs, &ys);
+    let decreasing = ys.windows(2).all(|w| w[1] < w[0]);
+    if decreasing && value < 1e-3 * ys[0] {
+        // the first loss sinks to zero with the wavenumber: no stable Δt
+        return Some(LongWave {
+            dt: 0.0,
+            direction: n.to_vec(),
+            converged: true,
+            spread: 0.0,
+        });
+    }
     let spread = (deviation / value).abs();
     (value > 0.0).then(|| LongWave {
         dt: value,

@@ -114,6 +114,13 @@ pub fn search(s: &Scheme, dom: &Domain, start: Option<f64>) -> Reference {
     let mut uncertainty = 0.0;
     let lw = longwave::limit(s, dom, best);
     let converged_long_wave = lw.as_ref().is_some_and(|l| l.converged);
+    if let Some(lw) = lw.as_ref().filter(|l| l.dt == 0.0) {
+        let note = format!(
+            "the first loss along {:?} extrapolates to 0 as θ → 0: unstable at every Δt",
+            lw.direction
+        );
+        return reference(Kind::None, 0.0, lw.direction.clone(), true, note);
+    }
     if let Some(lw) = lw {
         if lw.dt < best {
             best = lw.dt;
