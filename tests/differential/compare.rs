@@ -5,9 +5,8 @@
 //! overall limit. An inconclusive reference is a skip, never a guess.
 
 use crate::engine::{engine_limit, EngineKind, EngineLimit};
+use crate::evidence::{evidence, improved_with};
 use crate::generate;
-use crate::probe::Point;
-use crate::radius::ROUNDOFF;
 use crate::reference::{along_ray, overall};
 use crate::render::case_text;
 use crate::scheme::Scheme;
@@ -106,51 +105,6 @@ pub fn judge(what: &str, engine_kind: Kind, engine_dt: f64, r: &Reference) -> Ve
         return Verdict::Fail(format!("kinds differ; {numbers}"));
     }
     Verdict::Pass
-}
-
-/// When the engine's value is below the reference's, the engine's own
-/// wavevector may hold an earlier loss the reference's search missed: measure
-/// its first loss with the reference's criterion and keep the smaller value.
-fn improved_with(scheme: &Scheme, r: &Reference, theta: &[f64], engine_dt: f64) -> Reference {
-    if r.kind != Kind::Bounded
-        || theta.len() != scheme.dims()
-        || engine_dt.partial_cmp(&r.dt) != Some(std::cmp::Ordering::Less)
-    {
-        return r.clone();
-    }
-    let p = Point::new(scheme, theta.to_vec(), ROUNDOFF);
-    match p.first_loss_from(0.5 * engine_dt, r.dt, 16, 60) {
-        Some(t) if t > 0.0 && t < r.dt => Reference {
-            dt: t,
-            witness: theta.to_vec(),
-            uncertainty: 0.0,
-            note: format!("{}; improved at the engine's wavevector", r.note),
-            ..r.clone()
-        },
-        _ => r.clone(),
-    }
-}
-
-/// ρ(G) − 1 at the reference's witness at the engine's Δt, for a failure report
-/// (at a long-wave witness, the best of a few small multiples of the direction).
-fn evidence(scheme: &Scheme, r: &Reference, dt: f64) -> String {
-    if r.witness.is_empty() || !dt.is_finite() {
-        return String::new();
-    }
-    let long_wave = r.note.starts_with("long-wave");
-    let mags: Vec<f64> = if long_wave {
-        (1..12).map(|k| 0.3 * 0.5f64.powi(k)).collect()
-    } else {
-        vec![1.0]
-    };
-    let best = mags
-        .iter()
-        .map(|m| {
-            let theta: Vec<f64> = r.witness.iter().map(|x| x * m).collect();
-            Point::new(scheme, theta, 0.0).excess(dt)
-        })
-        .fold(f64::NEG_INFINITY, f64::max);
-    format!("; at the witness, rho(G) - 1 = {best:.3e} at the engine's dt")
 }
 
 fn engine_kind(k: EngineKind) -> Kind {

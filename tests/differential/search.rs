@@ -59,8 +59,8 @@ pub fn search(s: &Scheme, dom: &Domain, start: Option<f64>) -> Reference {
         note,
     };
     let stable_start = match start {
-        Some(dt) => stable_below(&set, dt),
-        None => None,
+        Some(dt) if dt > 0.0 => stable_below(&set, dt),
+        _ => None,
     };
     let dt_s = match stable_start {
         Some(dt) => dt,
@@ -109,6 +109,11 @@ pub fn search(s: &Scheme, dom: &Domain, start: Option<f64>) -> Reference {
         return reference(Kind::Unconditional, f64::INFINITY, Vec::new(), true, note);
     }
     let (mut best, mut witness) = refine_candidates(&set, dom, lo, hi);
+    if best <= 0.0 {
+        // a wavevector near a candidate found no stable Δt in 60 descents
+        let note = format!("a wavevector with no stable Δt found below {lo:.3e} (at {witness:?})");
+        return reference(Kind::None, 0.0, witness, false, note);
+    }
     let mut note = format!("ladder bracket [{lo:.6e}, {hi:.6e}], refined at finite θ");
     let mut conclusive = set.points[hint].excess(hi) > 0.0;
     let mut uncertainty = 0.0;
