@@ -89,7 +89,7 @@ fn ftcs_2d_limits_follow_the_projected_long_wave_condition_reference() {
 }
 
 #[test]
-#[ignore = "engine: 2-D FTCS long-wave limit 1.6e-7 relative too large"]
+#[ignore = "engine: 2-D FTCS long-wave limit 1.6e-8 relative too large"]
 fn ftcs_2d_limits_follow_the_projected_long_wave_condition_engine() {
     let e = engine(&ftcs_2d());
     assert_limit(e.dt_max, 0.15625, "FTCS 2-D overall, engine");
