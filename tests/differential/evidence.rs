@@ -1,0 +1,53 @@
+//! Evidence around a disagreement: the reference's ρ(G) − 1 at its witness at
+//! the engine's Δt (printed with a "too large" failure), and a second look at
+//! the engine's own wavevector when the engine is lower than the reference.
+
+use crate::probe::Point;
+use crate::radius::ROUNDOFF;
+use crate::scheme::Scheme;
+use crate::search::{Kind, Reference};
+
+/// When the engine's value is below the reference's, the engine's own
+/// wavevector may hold an earlier loss the reference's search missed: measure
+/// its first loss with the reference's criterion and keep the smaller value.
+pub fn improved_with(scheme: &Scheme, r: &Reference, theta: &[f64], engine_dt: f64) -> Reference {
+    if r.kind != Kind::Bounded
+        || theta.len() != scheme.dims()
+        || engine_dt.partial_cmp(&r.dt) != Some(std::cmp::Ordering::Less)
+    {
+        return r.clone();
+    }
+    let p = Point::new(scheme, theta.to_vec(), ROUNDOFF);
+    match p.first_loss_from(0.5 * engine_dt, r.dt, 16, 60) {
+        Some(t) if t > 0.0 && t < r.dt => Reference {
+            dt: t,
+            witness: theta.to_vec(),
+            uncertainty: 0.0,
+            note: format!("{}; improved at the engine's wavevector", r.note),
+            ..r.clone()
+        },
+        _ => r.clone(),
+    }
+}
+
+/// ρ(G) − 1 at the reference's witness at the engine's Δt, for a failure report
+/// (at a long-wave witness, the best of a few small multiples of the direction).
+pub fn evidence(scheme: &Scheme, r: &Reference, dt: f64) -> String {
+    if r.witness.is_empty() || !dt.is_finite() {
+        return String::new();
+    }
+    let long_wave = r.note.starts_with("long-wave");
+    let mags: Vec<f64> = if long_wave {
+        (1..12).map(|k| 0.3 * 0.5f64.powi(k)).collect()
+    } else {
+        vec![1.0]
+    };
+    let best = mags
+        .iter()
+        .map(|m| {
+            let theta: Vec<f64> = r.witness.iter().map(|x| x * m).collect();
+            Point::new(scheme, theta, 0.0).excess(dt)
+        })
+        .fold(f64::NEG_INFINITY, f64::max);
+    format!("; at the witness, rho(G) - 1 = {best:.3e} at the engine's dt")
+}
