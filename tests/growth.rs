@@ -185,7 +185,7 @@ fn pruned_envelope_equals_the_brute_force_maximum_over_the_grid() {
 
 #[test]
 fn sequential_and_parallel_growth_sweeps_agree_exactly() {
-    // STYLE.md: parallelism must not change results.
+    // Parallelism must not change results.
     let a = run(SEDIMENT, Par::Seq).growth.unwrap();
     let b = run(SEDIMENT, Par::Threads(2)).growth.unwrap();
     assert_eq!(a.envelope, b.envelope);

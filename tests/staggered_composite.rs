@@ -23,7 +23,18 @@ fn courant_limit(text: &str) -> f64 {
 fn assert_rel(got: f64, want: f64, rel: f64, what: &str) {
     assert!(
         (got - want).abs() <= rel * want.abs(),
-        "{what}: got {got:.12}, want {want:.12} (relative tolerance {rel:e})"
+        "{what}: got {got:.12e}, want {want:.12e} (relative tolerance {rel:e})"
+    );
+}
+
+/// A limit on the safe side of `want`: never above it by more than 1e-9
+/// relative, and below it by at most `below` (kgain moves a crossing found at
+/// the rounding level down by up to 1e-6 relative, and a neutral scheme's
+/// tangential crossing is pinned only to that level).
+fn assert_safe(got: f64, want: f64, below: f64, what: &str) {
+    assert!(
+        got <= want * (1.0 + 1e-9) && got >= want * (1.0 - below),
+        "{what}: got {got:.12e}, want {want:.12e} (at most 1e-9 above, {below:e} below)"
     );
 }
 
@@ -124,11 +135,13 @@ fn yee_courant_limit_with_unequal_spacing_2d_and_3d() {
         let l = r.limit.unwrap();
         let dt = l.dt_max;
         let want = 1.0 / (3.0e8 * spacing.iter().map(|h| 1.0 / (h * h)).sum::<f64>().sqrt());
-        // near-defective eigenvalues at the limit cost about sqrt(eps) in |lambda|
-        assert_rel(
+        // near-defective eigenvalues at the limit cost about sqrt(eps) in |lambda|;
+        // the corner where the limit is set is refined on values at the
+        // rounding level, so the limit is pinned to 2e-6 on the safe side
+        assert_safe(
             dt,
             want,
-            1e-6,
+            2e-6,
             &format!("Yee limit for spacing {spacing:?}"),
         );
         let v = l.verification.expect("a searched limit is verified");
@@ -184,7 +197,7 @@ fn lax_wendroff_and_lax_friedrichs_limits_are_one_in_1d() {
         let text = format!(
             "[grid]\nspacing = [0.1]\n[model]\nkind = \"advection\"\nvelocity = [-2.0]\n[time]\nmethod = \"{method}\"\ncourant = 0.5\n[scan]\nanalyses = [\"radius\", \"limit\"]\npoints = [129]\n"
         );
-        assert_rel(courant_limit(&text), 1.0, 1e-9, method);
+        assert_safe(courant_limit(&text), 1.0, 1e-6, method);
     }
 }
 
@@ -193,7 +206,7 @@ fn lax_friedrichs_system_limit_uses_the_fastest_characteristic() {
     // Strikwerda: for a hyperbolic system, Lax-Friedrichs needs |lambda_max| dt/h <= 1;
     // 1-D acoustics with mean flow U has speeds U +- c.
     let text = "[grid]\nspacing = [1.0]\n[model]\nkind = \"acoustics\"\nsound_speed = 1.0\nvelocity = [0.5]\n[time]\nmethod = \"lax-friedrichs\"\ncourant = 0.5\n[scan]\nanalyses = [\"radius\", \"limit\"]\npoints = [65]\n";
-    assert_rel(courant_limit(text), 1.0, 1e-9, "acoustic Lax-Friedrichs");
+    assert_safe(courant_limit(text), 1.0, 1e-6, "acoustic Lax-Friedrichs");
 }
 
 #[test]
@@ -237,7 +250,7 @@ fn continuous_shallow_water_frequencies_are_inertia_gravity_and_geostrophic() {
 
 #[test]
 fn staggering_phase_leaves_eigenvalues_unchanged_under_a_shift_of_origin() {
-    // DESIGN.md, common practice: moving every variable by the same half cell is a
+    // Common practice: moving every variable by the same half cell is a
     // diagonal unitary similarity, so the spectrum of the C-grid symbol is unchanged.
     let c = case(&shallow("c", "leapfrog", ""));
     let op = Operator::assemble(&c.problem.system, &c.problem.spacing, &c.problem.space).unwrap();

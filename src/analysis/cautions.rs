@@ -24,6 +24,14 @@ pub(super) fn cautions(problem: &Problem, r: &Results) -> Vec<String> {
                 problem.method.name
             ));
         }
+        if let Some((lo, hi)) = l.bracket {
+            if (hi - lo) / hi > 1e-6 {
+                c.push(format!(
+                    "the limit is certified only to a relative width of {:.1e} (stable up to {lo:.6e}, unstable above {hi:.6e}): a long-wave limit whose extrapolation is uncertain; dt_max is the lower end",
+                    (hi - lo) / hi
+                ));
+            }
+        }
     }
     if let Some(rad) = &r.radius {
         if !rad.stable {

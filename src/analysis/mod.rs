@@ -298,7 +298,7 @@ pub fn analyse(
     let (radius_map, limit, (failures, first_failure), pick): (_, _, _, Box<dyn Fn(_) -> f64>) =
         match problem.method.composite() {
             Some(scheme) => {
-                let ev = CompositeEval::new(problem, &ctx.op, scheme, tol);
+                let ev = CompositeEval::new(problem, &ctx.op, scheme);
                 let swept = want_radius.then(|| sweep::composite(&ctx, &ev));
                 let limit = plan
                     .limit
@@ -315,13 +315,13 @@ pub fn analyse(
                 )
             }
             None => {
-                let exits = ExitTimes::new(&problem.method, tol, 1e-13 * ctx.op.scale());
+                let exits = ExitTimes::new(&problem.method);
                 let swept = sweep::spectral(&ctx, &exits, want_radius, plan.limit.is_some());
                 let limit = plan
                     .limit
                     .as_ref()
                     .map(|p| limit::by_first_exit(&ctx, &exits, &swept.screen, p.directions));
-                let exact = move |mu| -exits.exact(mu, 0.0);
+                let exact = move |mu| -exits.exact(mu);
                 let map = want_radius.then_some(swept.map);
                 let failures = (swept.failures, swept.first_failure);
                 (map, limit, failures, Box::new(exact))

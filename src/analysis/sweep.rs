@@ -8,7 +8,7 @@
 //! candidates, so memory stays near the size of the outputs on large 3-D scans.
 
 use super::context::Context;
-use super::limit::first_exit::{min_over_modes, noise_level, ExitTimes};
+use super::limit::first_exit::{min_over_modes, ExitTimes};
 use super::limit::overall::{Candidates, SCREEN_CANDIDATES};
 use super::limit::search::CompositeEval;
 use crate::sample::{self, Stage};
@@ -52,28 +52,32 @@ pub(super) fn spectral(
     let mut first_failure = None;
     for r0 in (0..computed).step_by(slab) {
         let r1 = (r0 + slab).min(computed);
-        let part: Vec<(f64, f64, f64)> =
-            sample::sweep_rows(op, grid, ctx.par, r0..r1, ctx.progress, |node| {
-                match node.eigenvalues {
-                    Err(_) => (f64::NAN, f64::NAN, 0.0),
-                    Ok(eig) => {
-                        let radius = if want_radius {
-                            eig.iter()
-                                .map(|mu| method.amplification_radius(*mu * dt))
-                                .fold(0.0, f64::max)
-                        } else {
-                            0.0
-                        };
-                        let (t, w) = if want_limit {
-                            let noise = noise_level(node.symbol);
-                            min_over_modes(eig, |mu| exits.estimate(mu, noise))
-                        } else {
-                            (0.0, 0.0)
-                        };
-                        (radius, t, w)
-                    }
+        let part: Vec<(f64, f64, f64)> = sample::sweep_rows(
+            op,
+            ctx.plan.tolerance,
+            grid,
+            ctx.par,
+            r0..r1,
+            ctx.progress,
+            |node| match node.eigenvalues {
+                Err(_) => (f64::NAN, f64::NAN, 0.0),
+                Ok(eig) => {
+                    let radius = if want_radius {
+                        eig.iter()
+                            .map(|mu| method.amplification_radius(*mu * dt))
+                            .fold(0.0, f64::max)
+                    } else {
+                        0.0
+                    };
+                    let (t, w) = if want_limit {
+                        min_over_modes(eig, |mu| exits.estimate(mu))
+                    } else {
+                        (0.0, 0.0)
+                    };
+                    (radius, t, w)
                 }
-            });
+            },
+        );
         for (k, (rad, t, w)) in part.into_iter().enumerate() {
             let flat = r0 * row + k;
             if rad.is_nan() {

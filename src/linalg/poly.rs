@@ -119,9 +119,32 @@ pub fn max_root_modulus(c: &[C64]) -> Result<f64, LinalgError> {
 }
 
 /// Positive real roots of a real polynomial, sorted ascending, each polished by Newton.
+///
+/// The variable is first scaled by ρ = |c_lo/c_hi|^{1/(hi−lo)} (lowest and
+/// highest non-zero coefficients), which puts the roots' geometric mean at
+/// modulus 1: a cluster of roots next to 0, as for −δr − δr³ + r⁴/4 with
+/// δ = 1e-16, would otherwise be lost in the companion matrix's rounding.
 pub fn positive_real_roots(c: &[f64]) -> Result<Vec<f64>, LinalgError> {
-    let cc: Vec<C64> = c.iter().map(|&x| C64::new(x, 0.0)).collect();
-    let all = roots(&cc)?;
+    let lo = c.iter().position(|x| *x != 0.0);
+    let hi = c.iter().rposition(|x| *x != 0.0);
+    let rho = match (lo, hi) {
+        (Some(l), Some(h)) if h > l => (c[l] / c[h]).abs().powf(1.0 / (h - l) as f64),
+        _ => 1.0,
+    };
+    let scaled = |rho: f64| -> Vec<C64> {
+        c.iter()
+            .enumerate()
+            .map(|(j, &x)| C64::new(x * rho.powi(j as i32), 0.0))
+            .collect()
+    };
+    let mut cc = scaled(rho);
+    let rho = if rho.is_finite() && rho > 0.0 && cc.iter().all(|z| z.re.is_finite()) {
+        rho
+    } else {
+        cc = scaled(1.0);
+        1.0
+    };
+    let all: Vec<C64> = roots(&cc)?.into_iter().map(|z| z * rho).collect();
     let dc: Vec<f64> = c
         .iter()
         .enumerate()

@@ -22,11 +22,14 @@
 //! Every term is a constant matrix times a product of one-axis factors, so the
 //! symbol on a grid is assembled from per-axis tables.
 
+pub mod classes;
 mod collocated;
 mod space;
+pub mod spectrum;
 mod staggered;
 
 pub use space::{Arrangement, Dissipation, Space, Upwind};
+pub use spectrum::Spectrum;
 
 use crate::physics::System;
 use crate::stencil::Stencil;
@@ -65,6 +68,15 @@ impl Factor {
             Factor::Average => C64::new((0.5 * theta).cos(), 0.0),
         }
     }
+
+    /// The rounding level of the real part of [`Factor::eval`] (real factors
+    /// carry only a relative rounding, which does not blur a sign).
+    pub fn real_noise(&self, theta: f64) -> f64 {
+        match self {
+            Factor::Stencil { stencil, scale } => scale.abs() * stencil.real_noise(theta),
+            _ => 0.0,
+        }
+    }
 }
 
 /// What a term discretises (used to split L for IMEX and splitting schemes).
@@ -101,6 +113,36 @@ impl Term {
         self.factors
             .iter()
             .fold(C64::new(1.0, 0.0), |acc, (d, f)| acc * f.eval(theta[*d]))
+    }
+
+    /// The rounding level of the real part of [`Term::factor_at`] times a real
+    /// coefficient: the real-part rounding of each factor times the moduli of
+    /// the others, plus 4ε|value| when two or more factors are complex (then the
+    /// rounding of an imaginary part reaches the real part of the product).
+    pub fn factor_real_noise(&self, theta: &[f64]) -> f64 {
+        let values: Vec<C64> = self
+            .factors
+            .iter()
+            .map(|(d, f)| f.eval(theta[*d]))
+            .collect();
+        let mut noise = 0.0;
+        for (k, (d, f)) in self.factors.iter().enumerate() {
+            let rn = f.real_noise(theta[*d]);
+            if rn > 0.0 {
+                let others: f64 = values
+                    .iter()
+                    .enumerate()
+                    .filter(|(j, _)| *j != k)
+                    .map(|(_, v)| v.norm())
+                    .product();
+                noise += rn * others;
+            }
+        }
+        let complex = values.iter().filter(|v| v.im != 0.0).count();
+        if complex >= 2 {
+            noise += 4.0 * f64::EPSILON * values.iter().map(|v| v.norm()).product::<f64>();
+        }
+        noise
     }
 }
 
@@ -198,6 +240,25 @@ impl Operator {
         let mut out = vec![C64::new(0.0, 0.0); self.m * self.m];
         self.symbol_into(theta, &mut out);
         out
+    }
+
+    /// The rounding level of the real parts of the entries of L(θ): each term's
+    /// [`Term::factor_real_noise`] times its coefficient, plus 4ε|a f| for a
+    /// complex coefficient. It is far below ε‖L(θ)‖ where biased stencils leave
+    /// a real part of high order in θ.
+    pub fn real_noise(&self, theta: &[f64]) -> f64 {
+        self.terms
+            .iter()
+            .map(|t| {
+                let a = t.matrix.iter().map(|z| z.norm()).fold(0.0, f64::max);
+                let complex = t.matrix.iter().any(|z| z.im != 0.0);
+                let mut n = a * t.factor_real_noise(theta);
+                if complex {
+                    n += 4.0 * f64::EPSILON * a * t.factor_at(theta).norm();
+                }
+                n
+            })
+            .sum()
     }
 
     /// L(θ) as an nalgebra matrix.

@@ -1,12 +1,12 @@
 //! The parallel sweep over a wavevector grid: the spatial symbol at every node
-//! from per-axis tables, its eigenvalues with one reusable solver per worker, and
+//! from per-axis tables, its eigenvalues with one reusable [`Spectrum`] per worker, and
 //! a caller's closure per node; results come back in C order. With the conjugate
 //! symmetry L(−θ) = conj L(θ) of real schemes only half the rows are computed and
 //! the rest mirrored.
 
 use super::{Grid, Par, Progress};
-use crate::linalg::{EigSolver, LinalgError};
-use crate::operator::Operator;
+use crate::linalg::LinalgError;
+use crate::operator::{Operator, Spectrum};
 use num_complex::Complex64 as C64;
 use rayon::prelude::*;
 
@@ -16,9 +16,8 @@ pub struct Node<'a> {
     pub flat: usize,
     /// θ at the node.
     pub theta: &'a [f64],
-    /// The spatial symbol L(θ), row-major.
-    pub symbol: &'a [C64],
-    /// Its eigenvalues, or the kernel's failure.
+    /// The eigenvalues of L(θ) (see [`crate::operator::Spectrum`]), or the
+    /// kernel's failure.
     pub eigenvalues: Result<&'a [C64], LinalgError>,
 }
 
@@ -35,6 +34,7 @@ pub enum Symmetry {
 /// Evaluates `f` at every grid node in C order.
 pub fn sweep<T, F>(
     op: &Operator,
+    tolerance: f64,
     grid: &Grid,
     par: Par,
     symmetry: Symmetry,
@@ -45,7 +45,7 @@ where
     T: Send + Clone + Default,
     F: Fn(&Node) -> T + Sync,
 {
-    sweep_span(op, grid, par, Span::Grid(symmetry), progress, f)
+    sweep_span(op, tolerance, grid, par, Span::Grid(symmetry), progress, f)
 }
 
 /// Evaluates `f` at the nodes of grid rows `rows` only (rows along the last axis,
@@ -53,6 +53,7 @@ where
 /// goes instead of holding a value per node.
 pub fn sweep_rows<T, F>(
     op: &Operator,
+    tolerance: f64,
     grid: &Grid,
     par: Par,
     rows: std::ops::Range<usize>,
@@ -63,7 +64,7 @@ where
     T: Send + Clone + Default,
     F: Fn(&Node) -> T + Sync,
 {
-    sweep_span(op, grid, par, Span::Rows(rows), progress, f)
+    sweep_span(op, tolerance, grid, par, Span::Rows(rows), progress, f)
 }
 
 /// Rows a sweep should cover: the whole grid (half of it mirrored when even) or
@@ -84,6 +85,7 @@ pub fn computed_rows(grid: &Grid, symmetry: Symmetry) -> usize {
 
 fn sweep_span<T, F>(
     op: &Operator,
+    tolerance: f64,
     grid: &Grid,
     par: Par,
     span: Span,
@@ -100,28 +102,25 @@ where
     let m = op.m;
     let init = || {
         (
-            EigSolver::new(m),
-            vec![C64::new(0.0, 0.0); m * m],
+            Spectrum::new(op, tolerance),
             vec![C64::new(0.0, 0.0); m],
             vec![0usize; dims],
             vec![0.0; dims],
         )
     };
-    let work = |ws: &mut (EigSolver, Vec<C64>, Vec<C64>, Vec<usize>, Vec<f64>),
-                (r, chunk): (usize, &mut [T])| {
-        let (solver, sym, eig, idx, theta) = ws;
+    type Work<'s> = (Spectrum<'s>, Vec<C64>, Vec<usize>, Vec<f64>);
+    let work = |ws: &mut Work, (r, chunk): (usize, &mut [T])| {
+        let (spectrum, eig, idx, theta) = ws;
         for (j, slot) in chunk.iter_mut().enumerate() {
             let flat = r * row + j;
             grid.unravel(flat, idx);
             for d in 0..dims {
                 theta[d] = grid.coords[d][idx[d]];
             }
-            op.symbol_from_tables(&tables, idx, sym);
-            let res = solver.eigenvalues(sym, eig).map(|_| &eig[..]);
+            let res = spectrum.at_tables(&tables, idx, eig).map(|_| &eig[..]);
             *slot = f(&Node {
                 flat,
                 theta,
-                symbol: sym,
                 eigenvalues: res,
             });
         }

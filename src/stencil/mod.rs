@@ -175,6 +175,41 @@ impl Stencil {
         num / paired_sum(&self.implicit_offsets, &self.implicit_weights, theta)
     }
 
+    /// The rounding level of the real part of [`Stencil::symbol`] at θ: the real
+    /// part is −2Σ(w_o + w_−o) sin²(θo/2) over the explicit side (divided by the
+    /// implicit side for a compact stencil), whose terms cancel to a higher power
+    /// of θ for biased stencils (θ⁴ for third-order upwinding) while each carries
+    /// a relative rounding of ε.
+    pub fn real_noise(&self, theta: f64) -> f64 {
+        // paired as in the symbol: w_o + w_−o per pair, so a central stencil
+        // (w_o = −w_−o) has an exactly zero real part and no rounding in it
+        let scale: f64 = self
+            .offsets
+            .iter()
+            .zip(&self.weights)
+            .filter(|(o, _)| !(**o < 0.0 && self.offsets.contains(&-**o)))
+            .map(|(o, w)| {
+                let partner = match *o > 0.0 {
+                    true => self
+                        .offsets
+                        .iter()
+                        .zip(&self.weights)
+                        .find(|(p, _)| **p == -*o)
+                        .map_or(0.0, |(_, wp)| *wp),
+                    false => 0.0,
+                };
+                (w + partner).abs() * 2.0 * (0.5 * theta * o).sin().powi(2)
+            })
+            .sum();
+        let lhs = if self.is_compact() {
+            paired_sum(&self.implicit_offsets, &self.implicit_weights, theta).norm()
+        } else {
+            self.implicit_weights[0].abs()
+        };
+        let value = self.symbol(theta);
+        4.0 * f64::EPSILON * (scale / lhs.max(1e-300) + value.re.abs())
+    }
+
     /// The modified wavenumber: −i·S(θ) for a first derivative, −S(θ) for a second,
     /// so that it approximates θ or θ² respectively.
     pub fn modified_wavenumber(&self, theta: f64) -> C64 {
@@ -266,8 +301,21 @@ impl Stencil {
     }
 }
 
-/// Σ_j w_j e^{iθ o_j}, with the terms at ±o combined into cosine and sine parts.
+/// Σ_j w_j e^{iθ o_j}, with the terms at ±o combined into cosine and sine parts
+/// and the cosines written as cos x = 1 − 2 sin²(x/2): the real part is
+/// Σ_j w_j − 2 Σ_j w_j sin²(θ o_j/2), so for a derivative stencil (Σ w_j = 0) it
+/// is a sum of small terms at long wavelengths, free of the cancellation of
+/// Σ w_j cos(θ o_j) (for the second difference, 2 cos θ − 2 loses all digits as
+/// θ → 0 while −4 sin²(θ/2) keeps them). A zeroth moment that is zero to
+/// rounding is taken as exactly zero.
 fn paired_sum(offsets: &[f64], weights: &[f64], theta: f64) -> C64 {
+    let total: f64 = weights.iter().sum();
+    let size: f64 = weights.iter().map(|w| w.abs()).sum();
+    let total = if total.abs() <= 4.0 * f64::EPSILON * size {
+        0.0
+    } else {
+        total
+    };
     let mut re = 0.0;
     let mut im = 0.0;
     for (j, (&o, &w)) in offsets.iter().zip(weights).enumerate() {
@@ -284,16 +332,36 @@ fn paired_sum(offsets: &[f64], weights: &[f64], theta: f64) -> C64 {
         } else {
             0.0
         };
-        let (s, c) = (theta * o).sin_cos();
-        re += (w + partner) * c;
-        im += (w - partner) * s;
+        let half = (0.5 * theta * o).sin();
+        re -= 2.0 * (w + partner) * half * half;
+        im += (w - partner) * (theta * o).sin();
     }
-    C64::new(re, im)
+    C64::new(total + re, im)
 }
 
 #[cfg(test)]
 mod tests {
     use super::*;
+
+    #[test]
+    fn second_difference_keeps_its_digits_at_long_wavelengths() {
+        // −4 sin²(θ/2) (common practice); 2 cos θ − 2 would lose every digit here.
+        let st = catalogue::builtin("central2", 2).unwrap();
+        for theta in [1e-3, 1e-6, 1e-9] {
+            let want = -4.0 * (0.5 * theta as f64).sin().powi(2);
+            let got = st.symbol(theta);
+            assert!(
+                (got.re - want).abs() <= 4.0 * f64::EPSILON * want.abs(),
+                "{theta}"
+            );
+            assert_eq!(got.im, 0.0);
+        }
+        let up = catalogue::builtin("upwind1", 1).unwrap();
+        let theta = 1e-7;
+        // 1 − e^{−iθ}: real part 2 sin²(θ/2)
+        let want = 2.0 * (0.5 * theta as f64).sin().powi(2);
+        assert!((up.symbol(theta).re - want).abs() <= 4.0 * f64::EPSILON * want);
+    }
 
     #[test]
     fn inconsistent_stencil_is_refused() {

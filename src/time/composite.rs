@@ -22,7 +22,7 @@
 //!   second-derivative stencil.
 
 use super::Method;
-use crate::operator::{Operator, TermKind};
+use crate::operator::Operator;
 use crate::physics::System;
 use nalgebra::DMatrix;
 use num_complex::Complex64 as C64;
@@ -98,14 +98,8 @@ impl Composite {
     }
 }
 
-fn solve(a: DMatrix<C64>, b: &DMatrix<C64>) -> DMatrix<C64> {
-    let n = b.nrows();
-    a.lu()
-        .solve(b)
-        .unwrap_or_else(|| DMatrix::from_element(n, b.ncols(), C64::new(f64::NAN, f64::NAN)))
-}
-
-/// G(θ, Δt) of a composite scheme.
+/// G(θ, Δt) of a composite scheme: I + [`increment`] for one-level schemes, the
+/// companion matrix for CNAB2.
 pub fn amplification(
     c: &Composite,
     sys: &System,
@@ -114,113 +108,8 @@ pub fn amplification(
     theta: &[f64],
     dt: f64,
 ) -> DMatrix<C64> {
-    let m = op.m;
-    let id = DMatrix::<C64>::identity(m, m);
-    let dtc = C64::new(dt, 0.0);
-    match c {
-        Composite::ForwardBackward { rank } => {
-            let l = op.symbol_matrix(theta);
-            let n = DMatrix::from_fn(m, m, |i, j| {
-                if rank[j] < rank[i] {
-                    l[(i, j)]
-                } else {
-                    C64::new(0.0, 0.0)
-                }
-            });
-            let rhs = &id + (&l - &n) * dtc;
-            solve(&id - &n * dtc, &rhs)
-        }
-        Composite::Split { kind, inner } => {
-            let mut parts: Vec<DMatrix<C64>> = (0..op.dims)
-                .map(|d| {
-                    op.part_matrix(theta, |t| t.axis == d && t.kind != TermKind::Source, false)
-                })
-                .collect();
-            let src = op.part_matrix(theta, |t| t.kind == TermKind::Source, true);
-            if src.iter().any(|z| z.norm() != 0.0) {
-                parts.push(src);
-            }
-            let step =
-                |p: &DMatrix<C64>, f: f64| inner.amplification_matrix(&(p * C64::new(dt * f, 0.0)));
-            let mut g = id.clone();
-            match kind {
-                Splitting::Lie => {
-                    for p in &parts {
-                        g = step(p, 1.0) * g;
-                    }
-                }
-                Splitting::Strang => {
-                    let n = parts.len();
-                    for p in &parts[..n - 1] {
-                        g = step(p, 0.5) * g;
-                    }
-                    g = step(&parts[n - 1], 1.0) * g;
-                    for p in parts[..n - 1].iter().rev() {
-                        g = step(p, 0.5) * g;
-                    }
-                }
-            }
-            g
-        }
-        Composite::Imex(kind) => {
-            let li = op.part_matrix(theta, |t| t.kind == TermKind::Diffusion, false);
-            let le = op.part_matrix(theta, |t| t.kind != TermKind::Diffusion, true);
-            match kind {
-                Imex::Euler => solve(&id - &li * dtc, &(&id + &le * dtc)),
-                Imex::Cnab2 => {
-                    let lead = &id - &li * C64::new(0.5 * dt, 0.0);
-                    let lu = lead.lu();
-                    let b0 = &id + &le * C64::new(1.5 * dt, 0.0) + &li * C64::new(0.5 * dt, 0.0);
-                    let b1 = &le * C64::new(-0.5 * dt, 0.0);
-                    let nan = || DMatrix::from_element(m, m, C64::new(f64::NAN, f64::NAN));
-                    let g0 = lu.solve(&b0).unwrap_or_else(nan);
-                    let g1 = lu.solve(&b1).unwrap_or_else(nan);
-                    let mut g = DMatrix::<C64>::zeros(2 * m, 2 * m);
-                    g.view_mut((0, 0), (m, m)).copy_from(&g0);
-                    g.view_mut((0, m), (m, m)).copy_from(&g1);
-                    g.view_mut((m, 0), (m, m)).copy_from(&id);
-                    g
-                }
-            }
-        }
-        Composite::LaxWendroff | Composite::LaxFriedrichs => {
-            let dims = h.len();
-            let a: Vec<DMatrix<C64>> = (0..dims)
-                .map(|d| &sys.flux[d] * C64::new(dt / h[d], 0.0))
-                .collect();
-            let i = C64::new(0.0, 1.0);
-            let mut g = if *c == Composite::LaxFriedrichs {
-                let mean: f64 = theta.iter().map(|t| t.cos()).sum::<f64>() / dims as f64;
-                &id * C64::new(mean, 0.0)
-            } else {
-                id.clone()
-            };
-            for d in 0..dims {
-                g -= &a[d] * (i * theta[d].sin());
-            }
-            if *c == Composite::LaxWendroff {
-                for d in 0..dims {
-                    let s2 = (0.5 * theta[d]).sin().powi(2);
-                    g -= &a[d] * &a[d] * C64::new(2.0 * s2, 0.0);
-                    for e in 0..dims {
-                        if e != d {
-                            let f = 0.5 * theta[d].sin() * theta[e].sin();
-                            g -= &a[d] * &a[e] * C64::new(f, 0.0);
-                        }
-                    }
-                }
-            }
-            let rest = op.part_matrix(
-                theta,
-                |t| {
-                    matches!(
-                        t.kind,
-                        TermKind::Diffusion | TermKind::Source | TermKind::Dissipation
-                    )
-                },
-                true,
-            );
-            g + rest * dtc
-        }
+    match super::increment::increment(c, sys, op, h, theta, dt) {
+        Some(e) => DMatrix::<C64>::identity(op.m, op.m) + e,
+        None => super::increment::cnab2(op, theta, dt),
     }
 }

@@ -9,10 +9,11 @@
 //!   Σ_j (α_j − Δt μ β_j) ζ^j.
 //!
 //! `exit` computes the first-exit radius r*(φ) of each region along a ray, the
-//! quantity behind the stability limit (DESIGN.md §3).
+//! quantity behind the stability limit (README: The largest stable time step).
 
 pub mod composite;
 mod exit;
+pub mod increment;
 pub mod methods;
 
 use nalgebra::DMatrix;

@@ -5,7 +5,7 @@ use super::*;
 
 #[test]
 fn require_stable_exits_three_when_unstable_and_zero_when_stable() {
-    // RK4 + C2 (a = h = 1, 1D): stable iff ν ≤ 2√2 = 2.8284… (REFERENCES.md).
+    // RK4 + C2 (a = h = 1, 1D): stable iff ν ≤ 2√2 = 2.8284… (Hairer & Wanner, Solving ODEs II).
     let text = r#"
 [grid]
 spacing = [1.0]
@@ -52,7 +52,7 @@ points = [33]
             "ν = {nu} without --require-stable"
         );
     }
-    // Heun + C2 has no stable Δt at all (REFERENCES.md): exit 3.
+    // Heun + C2 has no stable Δt at all (Hairer & Wanner, Solving ODEs II): exit 3.
     let res = kgain()
         .current_dir(cf.root())
         .args([
@@ -149,7 +149,7 @@ fn set_courant_override_changes_the_reported_courant_and_time_step() {
 
 #[test]
 fn thread_count_does_not_change_any_output() {
-    // STYLE.md §7: sequential and parallel sweeps are bit-identical.
+    // Sequential and parallel sweeps are bit-identical.
     let cf = CaseFile::new("tiny", TINY);
     let (out, _) = run_ok(&cf, &["--threads", "1"]);
     let one: Vec<Vec<u8>> = ["radius.npy", "limit_by_direction.npy", "summary.json"]

@@ -1,5 +1,5 @@
 //! A successful run: the files of the output folder, their shapes and contents,
-//! manifest.json, summary.json and strict JSON (INTERFACE.md).
+//! manifest.json, summary.json and strict JSON (README: Commands, Output folder).
 
 use super::*;
 
@@ -19,7 +19,7 @@ fn run_writes_every_interface_file_of_the_radius_and_limit_analyses() {
     ] {
         assert!(files.contains(&f.to_string()), "{f} missing from {files:?}");
     }
-    // Shapes from INTERFACE.md: [N_d] per axis, the grid in axis order, [D].
+    // Shapes from README (Output folder): [N_d] per axis, the grid in axis order, [D].
     let shape = |f: &str| npy_header(&out.join(f)).2;
     assert_eq!(shape("theta_x.npy"), vec![33]);
     assert_eq!(shape("theta_y.npy"), vec![17]);
@@ -38,7 +38,7 @@ fn run_writes_every_interface_file_of_the_radius_and_limit_analyses() {
 
 #[test]
 fn theta_coordinates_follow_the_interface_formula() {
-    // INTERFACE.md: θ_d = −π + 2π·i/(N_d − 1), both ends included.
+    // README (Output folder): θ_d = −π + 2π·i/(N_d − 1), both ends included.
     let cf = CaseFile::new("tiny", TINY);
     let (out, _) = run_ok(&cf, &[]);
     for (file, n) in [("theta_x.npy", 33usize), ("theta_y.npy", 17)] {
@@ -166,7 +166,7 @@ fn summary_has_the_required_keys_and_values_from_the_definitions() {
     ] {
         assert!(s["limit"].get(key).is_some(), "limit lacks `{key}`");
     }
-    // INTERFACE.md definitions: name defaults to the file stem; s = |a|; h = min h_d;
+    // README definitions: name defaults to the file stem; s = |a|; h = min h_d;
     // ν = sΔt/h, so Δt = ν h/s.
     assert_eq!(s["name"], "tiny");
     assert_eq!(s["dims"], 2);
@@ -196,9 +196,9 @@ fn summary_has_the_required_keys_and_values_from_the_definitions() {
 
 #[test]
 fn json_is_strict_for_bounded_unconditional_and_unstable_results() {
-    // INTERFACE.md: dt_max is null for "unconditional" and 0 for "none"; no NaN or
+    // README (Output folder): dt_max is null for "unconditional" and 0 for "none"; no NaN or
     // Infinity tokens anywhere (Crank–Nicolson is A-stable; Heun + C2 amplifies
-    // every imaginary eigenvalue, REFERENCES.md).
+    // every imaginary eigenvalue; Hairer & Wanner II).
     for (method, kind) in [
         ("rk4", "bounded"),
         ("crank-nicolson", "unconditional"),
@@ -224,7 +224,7 @@ fn json_is_strict_for_bounded_unconditional_and_unstable_results() {
 
 #[test]
 fn three_dimensional_run_writes_unit_direction_vectors() {
-    // INTERFACE.md: in 3D directions.npy is [D, 3], unit vectors; the grid is
+    // README (Output folder): in 3D directions.npy is [D, 3], unit vectors; the grid is
     // [N_x, N_y, N_z] with coordinates in theta_x/y/z.npy.
     let text = r#"
 [grid]

@@ -372,7 +372,7 @@ fn killing_a_run_at_random_instants_leaves_the_old_or_the_new_complete_output() 
 
 #[test]
 fn default_output_folder_is_output_slash_case_name() {
-    // INTERFACE.md: default folder output/<name>/ under the current directory.
+    // README (Output folder): default folder output/<name>/ under the current directory.
     let cf = CaseFile::new("tiny", &format!("name = \"named-case\"\n{TINY}"));
     let res = run_in(&cf, &["tiny.toml"]);
     assert_eq!(res.status.code(), Some(0), "{}", stderr_of(&res));

@@ -1,9 +1,9 @@
 //! The one place that touches the engine: case text in, the engine's limit out.
 //! When the engine's API changes, only [`engine_limit`] needs adapting.
 
-use kgain::analysis::{self, LimitKind, Options};
+use kgain::analysis::{self, LimitKind};
 use kgain::case::Case;
-use kgain::sample::Par;
+use kgain::sample::{NoProgress, Par};
 use std::path::Path;
 
 /// Kind of limit, as the engine reports it.
@@ -55,22 +55,17 @@ pub enum EngineError {
 pub fn engine_limit(case_text: &str) -> Result<EngineLimit, EngineError> {
     let case = Case::from_str_with(case_text, Path::new("x.toml"), &[])
         .map_err(|e| EngineError::Case(e.to_string()))?;
-    let opts = Options {
-        par: Par::Seq,
-        progress: false,
-    };
-    let results =
-        analysis::analyse(&case, &opts).map_err(|e| EngineError::Analysis(e.to_string()))?;
+    let results = analysis::analyse(&case.problem, &case.plan, Par::Seq, &NoProgress)
+        .map_err(|e| EngineError::Analysis(e.to_string()))?;
     let limit = results.limit.as_ref().ok_or(EngineError::Missing)?;
     let kind = match limit.kind {
         LimitKind::Bounded => EngineKind::Bounded,
         LimitKind::Unconditional => EngineKind::Unconditional,
         LimitKind::None => EngineKind::None,
     };
-    let (directions, dt_by_direction, wavevector_by_direction) = match &results.directional {
-        Some(d) => (d.directions.clone(), d.dt.clone(), d.wavevector.clone()),
-        None => (Vec::new(), Vec::new(), Vec::new()),
-    };
+    let d = &limit.by_direction;
+    let (directions, dt_by_direction, wavevector_by_direction) =
+        (d.directions.clone(), d.dt.clone(), d.wavevector.clone());
     Ok(EngineLimit {
         kind,
         dt_max: limit.dt_max,
@@ -78,7 +73,6 @@ pub fn engine_limit(case_text: &str) -> Result<EngineLimit, EngineError> {
         dt_by_direction,
         wavevector: limit.wavevector.clone(),
         wavevector_by_direction,
-        // No bracket in today's `Limit`; read it here once the engine has one.
-        certified: None,
+        certified: limit.bracket,
     })
 }

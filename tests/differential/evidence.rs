@@ -36,6 +36,16 @@ pub fn evidence(scheme: &Scheme, r: &Reference, dt: f64) -> String {
     if r.witness.is_empty() || !dt.is_finite() {
         return String::new();
     }
+    let best = excess_at_witness(scheme, r, dt);
+    format!("; at the witness, rho(G) - 1 = {best:.3e} at the engine's dt")
+}
+
+/// ρ(G) − 1 at the reference's witness at `dt` (the best of a few small
+/// multiples of the direction at a long-wave witness); −∞ without a witness.
+pub fn excess_at_witness(scheme: &Scheme, r: &Reference, dt: f64) -> f64 {
+    if r.witness.is_empty() || !dt.is_finite() {
+        return f64::NEG_INFINITY;
+    }
     let long_wave = r.note.starts_with("long-wave");
     let mags: Vec<f64> = if long_wave {
         (1..12).map(|k| 0.3 * 0.5f64.powi(k)).collect()
@@ -49,5 +59,5 @@ pub fn evidence(scheme: &Scheme, r: &Reference, dt: f64) -> String {
             Point::new(scheme, theta, 0.0).excess(dt)
         })
         .fold(f64::NEG_INFINITY, f64::max);
-    format!("; at the witness, rho(G) - 1 = {best:.3e} at the engine's dt")
+    best
 }

@@ -4,121 +4,10 @@
 use crate::compare::{check_seed, Verdict};
 
 /// Seeds of the CI sweep (1..=200) on which today's engine fails, with the
-/// method, dimension and what fails ("bounded for none": the engine reports a
-/// limit where the reference finds instability at every Δt; "tolerance band":
-/// at the engine's Δt, ρ − 1 lies between roundoff and the engine's own
-/// `scan.tolerance` of 1e-12). The sweep tolerates these; each class has a
-/// named test below, ignored until the engine is fixed. Remove a seed once it
-/// passes.
-pub const KNOWN_ENGINE_FAILURES: &[(u64, &str)] = &[
-    (1, "forward-backward 2-D: too large (tolerance band)"),
-    (
-        4,
-        "lax-friedrichs 2-D: bounded for none; too large (tolerance band) long-wave",
-    ),
-    (11, "heun 3-D: too large"),
-    (20, "imex-cnab2 1-D: bounded for none"),
-    (23, "imex-euler 2-D: bounded for none"),
-    (26, "ab2 2-D: unconditional for none"),
-    (31, "imex-euler 1-D: too large (tolerance band) long-wave"),
-    (34, "theta 2-D: bounded for none"),
-    (
-        35,
-        "lax-friedrichs 2-D: bounded for none; unconditional for bounded",
-    ),
-    (
-        40,
-        "lax-wendroff 2-D: too large (tolerance band) long-wave; too large long-wave",
-    ),
-    (41, "lax-friedrichs 1-D: bounded for none"),
-    (43, "imex-cnab2 2-D: bounded for none"),
-    (44, "lax-wendroff 2-D: too large long-wave"),
-    (49, "euler 3-D: bounded for none"),
-    (52, "imex-cnab2 1-D: bounded for none"),
-    (55, "heun 1-D: too large"),
-    (
-        56,
-        "imex-euler 2-D: too large (tolerance band); too large long-wave",
-    ),
-    (58, "imex-euler 3-D: bounded for none"),
-    (64, "imex-euler 1-D: bounded for none"),
-    (
-        68,
-        "lax-friedrichs 3-D: too large (tolerance band) long-wave; too large long-wave",
-    ),
-    (71, "imex-euler 1-D: too large (tolerance band) long-wave"),
-    (75, "lax-friedrichs 3-D: bounded for none"),
-    (76, "forward-backward 3-D: bounded for none"),
-    (78, "imex-euler 1-D: bounded for none"),
-    (80, "imex-cnab2 2-D: bounded for none"),
-    (
-        91,
-        "lax-friedrichs 2-D: too large (tolerance band) long-wave; too large long-wave",
-    ),
-    (
-        92,
-        "imex-euler 3-D: bounded for none; too large (tolerance band) long-wave",
-    ),
-    (96, "lax-friedrichs 1-D: bounded for none"),
-    (100, "lax-wendroff 2-D: too large long-wave"),
-    (104, "euler 2-D: too large (tolerance band) long-wave"),
-    (107, "backward-euler 1-D: bounded for none"),
-    (108, "tableau 1-D: bounded for none"),
-    (118, "theta 2-D: too large (tolerance band) long-wave"),
-    (
-        121,
-        "lax-friedrichs 3-D: bounded for none; unconditional for bounded",
-    ),
-    (122, "ab2 1-D: none for bounded; too large"),
-    (124, "imex-euler 2-D: bounded for none"),
-    (126, "lax-friedrichs 2-D: bounded for none; too large"),
-    (128, "ab2 3-D: too large"),
-    (129, "heun 2-D: bounded for none"),
-    (131, "lax-wendroff 2-D: too large long-wave"),
-    (132, "imex-euler 2-D: too large"),
-    (
-        133,
-        "lax-friedrichs 2-D: bounded for none; unconditional for bounded",
-    ),
-    (136, "imex-euler 1-D: bounded for none"),
-    (140, "lax-wendroff 2-D: bounded for none"),
-    (142, "imex-euler 2-D: bounded for none"),
-    (143, "imex-cnab2 3-D: bounded for none"),
-    (146, "imex-euler 2-D: too large (tolerance band)"),
-    (150, "imex-euler 2-D: bounded for none; too large"),
-    (152, "lax-wendroff 2-D: too large long-wave"),
-    (154, "lax-friedrichs 1-D: bounded for none"),
-    (155, "imex-cnab2 1-D: too large (tolerance band) long-wave"),
-    (156, "ab3 3-D: too large (tolerance band)"),
-    (159, "imex-cnab2 3-D: bounded for none"),
-    (160, "imex-cnab2 1-D: too large"),
-    (
-        164,
-        "imex-euler 3-D: too large (tolerance band); too large long-wave",
-    ),
-    (168, "theta 1-D: bounded for none"),
-    (169, "imex-euler 1-D: too large (tolerance band) long-wave"),
-    (175, "imex-euler 2-D: bounded for none"),
-    (177, "imex-cnab2 3-D: too large"),
-    (180, "imex-euler 3-D: bounded for none"),
-    (181, "forward-backward 1-D: too large (tolerance band)"),
-    (185, "tableau 3-D: bounded for none"),
-    (
-        187,
-        "imex-euler 2-D: too large (tolerance band) long-wave; too large long-wave",
-    ),
-    (
-        190,
-        "imex-euler 2-D: too large (tolerance band) long-wave; too large long-wave",
-    ),
-    (192, "lax-friedrichs 2-D: bounded for none"),
-    (195, "lax-friedrichs 1-D: bounded for none"),
-    (
-        198,
-        "imex-cnab2 2-D: too large (tolerance band); too large (tolerance band) long-wave",
-    ),
-    (199, "euler 2-D: too small"),
-];
+/// method, dimension and what fails. The sweep tolerates these; each class has
+/// a named test below. Empty: every seed of the sweep passes, and the named
+/// tests below guard the classes that once failed (each comment says which).
+pub const KNOWN_ENGINE_FAILURES: &[(u64, &str)] = &[];
 
 /// Runs one seed (all directions) and asserts that the engine agrees with the
 /// reference; an inconclusive reference fails too, so a regression seed must
@@ -134,82 +23,133 @@ pub fn assert_seed_agrees(seed: u64) {
 
 const ENGINE_FAILS: &str = "fails on today's engine; see KNOWN_ENGINE_FAILURES";
 
-/// IMEX CNAB2 on a 1-D system unstable at every Δt (ρ − 1 ∝ Δt): the engine's
-/// composite search counts |λ| ≤ 1 + 1e-12 as stable and reports a tiny limit.
+/// IMEX CNAB2 on a 1-D system unstable at every Δt (ρ − 1 ∝ Δt). Once failed:
+/// the composite search counted |λ| ≤ 1 + 1e-12 as stable and reported a tiny
+/// limit.
 #[test]
-#[ignore = "fails on today's engine; see KNOWN_ENGINE_FAILURES"]
 fn composite_scheme_unstable_at_every_dt_is_reported_none() {
     assert_seed_agrees(20);
 }
 
-/// A θ-method (2-D) unstable at every Δt reported with a finite limit.
+/// A θ-method (2-D) unstable at every Δt. Once failed: reported with a
+/// finite limit.
 #[test]
-#[ignore = "fails on today's engine; see KNOWN_ENGINE_FAILURES"]
 fn one_step_scheme_unstable_at_every_dt_is_reported_none() {
     assert_seed_agrees(34);
 }
 
-/// IMEX Euler (2-D) whose limit is set as θ → 0: the engine's limit is above
-/// the long-wave limit.
+/// IMEX Euler (2-D) whose limit is set as θ → 0. Once failed: the engine's
+/// limit was above the long-wave limit.
 #[test]
-#[ignore = "fails on today's engine; see KNOWN_ENGINE_FAILURES"]
 fn long_wave_limit_is_not_overestimated() {
     assert_seed_agrees(56);
 }
 
-/// Unsplit Lax–Wendroff (2-D) with a long-wave limit overestimated by ~1e-3.
+/// Unsplit Lax–Wendroff (2-D). Once failed: its long-wave limit was
+/// overestimated by ~1e-3.
 #[test]
-#[ignore = "fails on today's engine; see KNOWN_ENGINE_FAILURES"]
 fn lax_wendroff_long_wave_limit_is_not_overestimated() {
     assert_seed_agrees(40);
 }
 
-/// Heun in 3-D: a per-direction limit 2.8e-4 above the minimum on its ray.
+/// Heun in 3-D. Once failed: a per-direction limit 2.8e-4 above the minimum
+/// on its ray.
 #[test]
-#[ignore = "fails on today's engine; see KNOWN_ENGINE_FAILURES"]
 fn direction_limit_finds_the_minimum_on_its_ray() {
     assert_seed_agrees(11);
 }
 
-/// Forward–backward (2-D): the limit lies where ρ − 1 reaches the engine's
-/// tolerance 1e-12, 1.6e-9 relative above the strict limit.
+/// Forward–backward (2-D). Once failed: the limit lay where ρ − 1 reached a
+/// tolerance of 1e-12, 1.6e-9 relative above the strict limit.
 #[test]
-#[ignore = "fails on today's engine; see KNOWN_ENGINE_FAILURES"]
 fn tolerance_band_does_not_raise_the_limit() {
     assert_seed_agrees(1);
 }
 
-/// AB2 in 2-D: overall none, yet a direction along which the central stencil
-/// gives imaginary eigenvalues (AB2 is unstable there at every Δt) is reported
-/// unconditional.
+/// AB2 in 2-D, overall none. Once failed: a direction along which the central
+/// stencil gives imaginary eigenvalues (AB2 is unstable there at every Δt) was
+/// reported unconditional.
 #[test]
-#[ignore = "fails on today's engine; see KNOWN_ENGINE_FAILURES"]
 fn direction_with_an_unstable_ray_is_not_unconditional() {
     assert_seed_agrees(26);
 }
 
 /// Heun with a rotation source (1-D): every ray starts in the instability at
-/// θ → 0, yet the directions are reported bounded far above the reference.
+/// θ → 0. Once failed: the directions were reported bounded.
 #[test]
-#[ignore = "fails on today's engine; see KNOWN_ENGINE_FAILURES"]
 fn direction_through_an_unstable_long_wave_is_not_reported_stable() {
     assert_seed_agrees(55);
 }
 
-/// AB2 + upwind3 (1-D): stable for small Δt, reported none overall, while its
-/// directions are reported bounded above the reference.
+/// AB2 + upwind3 (1-D), stable for small Δt (its long-wave eigenvalues leave
+/// the imaginary axis as θ⁴, and the AB2 locus crosses such rays at ω ∝ δ^{1/3}).
+/// Once failed: reported none, then the rounding of the θ⁴ real part made the
+/// long-wave samples erratic.
 #[test]
-#[ignore = "fails on today's engine; see KNOWN_ENGINE_FAILURES"]
 fn scheme_stable_for_small_dt_is_not_reported_none() {
     assert_seed_agrees(122);
 }
 
-/// Lax–Friedrichs (2-D) with a rotation source: none overall, and a direction
-/// reported unconditional.
+/// Lax–Friedrichs (2-D) with a rotation source, none overall. Once failed: a
+/// direction was reported unconditional.
 #[test]
-#[ignore = "fails on today's engine; see KNOWN_ENGINE_FAILURES"]
 fn lax_friedrichs_with_rotation_is_reported_none() {
     assert_seed_agrees(35);
+}
+
+/// AB2 (1-D) whose limit is set on the negative real axis. Once failed: the
+/// boundary locus skipped a crossing at a sample where Im v was exactly zero
+/// and reported none.
+#[test]
+fn multistep_exit_on_the_real_axis_is_found() {
+    assert_seed_agrees(65);
+}
+
+/// Scalar advection–diffusion, a biased compact stencil and a Lie-split
+/// four-stage tableau (3-D): the spatial operator is unstable on a θ interval
+/// narrower than a grid cell. Once failed: reported bounded.
+#[test]
+fn narrow_unstable_region_of_the_operator_is_found() {
+    assert_seed_agrees(185);
+}
+
+/// IMEX Euler on scalar advection with weak sixth-order dissipation (1-D): the
+/// first loss falls like θ⁴ towards 0. Once failed: the rounding level of a
+/// scalar increment was taken as ε|e| (it is that of the real part of L) and a
+/// tiny bounded limit was reported.
+#[test]
+fn scalar_scheme_whose_first_loss_vanishes_with_theta_is_none() {
+    assert_seed_agrees(136);
+}
+
+/// IMEX Euler on a 3×3 system (2-D) whose limit is a dip of the first loss at
+/// |θ| ≈ 0.03, inside the first grid cell. Once failed: 5e-3 too large.
+#[test]
+fn dip_inside_the_first_grid_cell_is_found() {
+    assert_seed_agrees(146);
+}
+
+/// IMEX CNAB2 on a 3×3 system (1-D) with a long-wave limit, only three samples
+/// of which are clear of rounding. Once failed: 3.8e-4 too small.
+#[test]
+fn cnab2_long_wave_limit_from_three_samples_is_accurate() {
+    assert_seed_agrees(155);
+}
+
+/// RK4 on a 2×2 system, central in x and upwinded in y (2-D): along θ_y = 0 the
+/// upwinded term vanishes and the eigenvalues are imaginary by construction.
+/// Once failed: the x-direction was reported unconditional.
+#[test]
+fn axis_ray_of_a_scheme_upwinded_across_it_is_bounded() {
+    assert_seed_agrees(172);
+}
+
+/// Forward–backward (3-D), none overall, with a direction whose first loss
+/// falls like s² towards 0 while no sample is clear of rounding. Once failed:
+/// that direction was reported bounded.
+#[test]
+fn direction_whose_bounds_fall_to_zero_is_none() {
+    assert_seed_agrees(76);
 }
 
 /// A seed the engine passes today (keeps the helper itself tested).

@@ -148,7 +148,7 @@ fn overall_limit_never_exceeds_the_smallest_directional_limit() {
 #[test]
 fn coarse_scan_does_not_report_a_bounded_scheme_as_unconditional() {
     // RK4 + C2, a = (1, 0.5), h = 1: Δt_max = 2√2/1.5 at θ = (π/2, π/2), which lies
-    // between the nodes of a 3-point scan (REFERENCES.md; Hairer & Wanner II).
+    // between the nodes of a 3-point scan (Hairer & Wanner II).
     let text = advection(
         &[1.0, 1.0],
         &[1.0, 0.5],

@@ -24,7 +24,7 @@ fn explicit_runge_kutta_imaginary_axis_limits_follow_from_their_polynomials() {
 fn explicit_runge_kutta_real_axis_limits_follow_from_their_polynomials() {
     // Euler and Heun: R(−2) = −1 and 1 resp., limit 2. SSP RK3: R(−x) decreases
     // monotonically and reaches −1 at 2.5127453; RK4: R(−x) = 1 again at 2.7852935
-    // (x³ − 4x² + 12x − 24 = 0). Values: REFERENCES.md (computed), Hairer & Wanner II.
+    // (x³ − 4x² + 12x − 24 = 0). Values computed from that cubic; Hairer & Wanner II.
     let ssp_root = bisect(|x| taylor_r(3, -x) + 1.0, 2.0, 3.0);
     let rk4_root = bisect(|x| taylor_r(4, -x) - 1.0, 2.0, 3.0);
     assert_close(
@@ -132,7 +132,7 @@ fn adams_bashforth_and_leapfrog_intervals_match_their_boundary_loci() {
         1e-9,
         "AB3 imaginary limit",
     );
-    // Leapfrog: the locus is i sin ω, the segment [−i, i] (REFERENCES.md).
+    // Leapfrog: the locus is i sin ω, the segment [−i, i] (Hairer & Wanner, Solving ODEs II).
     let lf_top = locus(&lf.0, &lf.1, FRAC_PI_2);
     assert_close(lf_top.im, 1.0, 4.0 * EPS, "leapfrog locus reaches i");
     assert_close(
@@ -151,7 +151,7 @@ fn adams_bashforth_and_leapfrog_intervals_match_their_boundary_loci() {
 #[test]
 fn a_stable_methods_have_unbounded_intervals_on_both_axes() {
     // Backward Euler, Crank–Nicolson, BDF2 and the θ-method with θ ≥ ½ are
-    // A-stable (REFERENCES.md; Hairer & Wanner II).
+    // A-stable (Hairer & Wanner II).
     let mut methods: Vec<_> = ["backward-euler", "crank-nicolson", "bdf2"]
         .iter()
         .map(|n| time::builtin(n).unwrap())
@@ -224,7 +224,7 @@ fn multistep_intervals_set_the_limits_of_advection_and_diffusion_cases() {
 
 #[test]
 fn bdf2_is_unconditionally_stable_for_advection_and_diffusion() {
-    // BDF2 is A-stable (REFERENCES.md; Hairer & Wanner II).
+    // BDF2 is A-stable (Hairer & Wanner II).
     let (_, r) = run(&advection(
         &[1.0, 1.0],
         &[0.3, -0.7],
@@ -243,7 +243,7 @@ fn bdf2_is_unconditionally_stable_for_advection_and_diffusion() {
 #[test]
 fn butcher_tableau_of_classical_rk4_reproduces_the_rk4_limit() {
     // Classical RK4 tableau (Hairer & Wanner I); R(z) = Σ_{j≤4} z^j/j!, so with C2
-    // advection ν_max = 2√2 (REFERENCES.md).
+    // advection ν_max = 2√2 (Hairer & Wanner, Solving ODEs II).
     let step = "courant = 1.0\ntableau = { a = [[0.0, 0.0, 0.0, 0.0], [0.5, 0.0, 0.0, 0.0], \
                 [0.0, 0.5, 0.0, 0.0], [0.0, 0.0, 1.0, 0.0]], \
                 b = [0.16666666666666666, 0.3333333333333333, 0.3333333333333333, 0.16666666666666666] }";
@@ -317,7 +317,7 @@ points = [17]
 #[test]
 fn oscillating_complex_source_limits_rk4_by_its_imaginary_interval() {
     // u_t = iω u (complex source entry [re, im]): μ = iω, so RK4 needs ωΔt ≤ 2√2
-    // and leapfrog ωΔt ≤ 1 (REFERENCES.md).
+    // and leapfrog ωΔt ≤ 1 (Hairer & Wanner, Solving ODEs II).
     let text = |method: &str| {
         format!(
             r#"

@@ -8,7 +8,7 @@ use std::f64::consts::{FRAC_PI_2, PI, SQRT_2};
 
 #[test]
 fn rk4_central2_advection_limit_is_two_root_two_at_half_pi() {
-    // REFERENCES.md: RK4 + C2, 1D, ν ≤ 2√2; the largest |sin θ| is at θ = ±π/2.
+    // Hairer & Wanner II: RK4 + C2, 1D, ν ≤ 2√2; the largest |sin θ| is at θ = ±π/2.
     let (c, r) = run(&advection(
         &[1.0],
         &[1.0],
@@ -32,7 +32,7 @@ fn rk4_central2_advection_limit_is_two_root_two_at_half_pi() {
 
 #[test]
 fn rk4_central4_advection_limit_is_two_root_two_over_the_c4_maximum() {
-    // REFERENCES.md: ν ≤ 2√2/1.37222 = 2.06120 (computed); here from the closed-form
+    // Hairer & Wanner II for 2√2: ν ≤ 2√2/1.37222 = 2.06120 (computed); here from the closed-form
     // maximum of (8 sin θ − sin 2θ)/6. Speed and spacing are not 1, to exercise
     // the scaling ν = a Δt/h.
     let (m, at) = c4_max();
@@ -172,7 +172,7 @@ fn leapfrog_central2_2d_limit_is_courant_sum_at_most_one() {
 fn forward_euler_diffusion_limit_is_diffusion_number_sum_at_most_half() {
     // common practice: forward Euler + C2 diffusion is stable iff Σ_d D Δt/h_d² ≤ ½.
     // D = 0.5, h = (1, 2): Δt_max = 1/(2·0.5·(1 + 1/4)) = 0.8, set at θ = (±π, ±π).
-    // INTERFACE.md: r = Δt·D_max/h², h = min h_d: r_max = 0.8·0.5/1 = 0.4.
+    // README (Output folder): r = Δt·D_max/h², h = min h_d: r_max = 0.8·0.5/1 = 0.4.
     let (c, r) = run(&diffusion(&[1.0, 2.0], "0.5", "euler", 0.1, &[33, 33]));
     let dt = dt_max(&r);
     assert_close(dt, 0.8, 1e-12, "Δt_max");
@@ -199,7 +199,7 @@ fn forward_euler_diffusion_limit_is_diffusion_number_sum_at_most_half() {
 fn forward_euler_diffusion_limit_with_per_axis_diffusivities() {
     // common practice: Σ_d D_d Δt/h_d² ≤ ½. D = (0.2, 1.0), h = (1, 2):
     // Σ D_d/h_d² = 0.45, Δt_max = 1/0.9. D_max = 1 and h_min = 1 come from different
-    // axes: r_max = Δt_max·1/1 = 1/0.9 (INTERFACE.md definition).
+    // axes: r_max = Δt_max·1/1 = 1/0.9 (README definition).
     let (c, r) = run(&diffusion(
         &[1.0, 2.0],
         "[0.2, 1.0]",
@@ -254,7 +254,7 @@ fn theta_method_below_one_half_limits_the_diffusion_number() {
 
 #[test]
 fn heun_and_forward_euler_with_central_advection_have_no_stable_dt() {
-    // REFERENCES.md: |R(iy)|² = 1 + y² (Euler), 1 + y⁴/4 (Heun) exceed 1 for every
+    // Closed form: |R(iy)|² = 1 + y² (Euler), 1 + y⁴/4 (Heun) exceed 1 for every
     // y > 0, so with C2 (imaginary μ) no Δt > 0 is stable: kind "none", dt_max 0.
     for method in ["heun", "euler"] {
         let (c, r) = run(&advection(
@@ -315,7 +315,7 @@ fn crank_nicolson_and_backward_euler_are_unconditional_for_advection_and_diffusi
 
 #[test]
 fn rk4_central2_3d_limit_is_two_root_two_over_the_sum_of_axis_rates() {
-    // From the tables of REFERENCES.md: μ = −i Σ_d (a_d/h_d) sin θ_d, largest at
+    // From the C2 modified wavenumber: μ = −i Σ_d (a_d/h_d) sin θ_d, largest at
     // θ = (π/2, π/2, π/2) for positive speeds, so Δt_max = 2√2 / Σ_d a_d/h_d.
     let (a, h) = ([0.3, 0.4, 1.2], [1.0, 0.5, 2.0]);
     let (_, r) = run(&advection(

@@ -26,7 +26,7 @@ fn central2_modified_wavenumber_is_sin_theta_peaking_at_one_at_half_pi() {
 #[test]
 fn central4_modified_wavenumber_matches_closed_form_and_published_maximum() {
     // common practice: (8 sin θ − sin 2θ)/6, max 1.3722219798 at θ = 1.7974775
-    // (REFERENCES.md, computed).
+    // (computed from the stencil's modified wavenumber).
     let st = catalogue::builtin("central4", 1).unwrap();
     for k in 0..=64 {
         let t = -PI + 2.0 * PI * k as f64 / 64.0;
@@ -79,7 +79,7 @@ fn compact4_pade_modified_wavenumber_peaks_at_root_three_at_two_thirds_pi() {
 #[test]
 fn compact6_modified_wavenumber_peaks_at_published_value() {
     // Lele (1992), α = 1/3, a = 14/9, b = 1/9: (a sin θ + (b/2) sin 2θ)/(1 + 2α cos θ);
-    // max 1.98944148 at θ ≈ 2.2671 (REFERENCES.md, computed).
+    // max 1.98944148 at θ ≈ 2.2671 (computed from the stencil's modified wavenumber).
     let (alpha, a, b) = (1.0 / 3.0, 14.0 / 9.0, 1.0 / 9.0);
     let f = |t: f64| (a * t.sin() + 0.5 * b * (2.0 * t).sin()) / (1.0 + 2.0 * alpha * t.cos());
     let st = catalogue::builtin("compact6", 1).unwrap();
@@ -181,7 +181,7 @@ fn upwind1_symbol_is_one_minus_the_shifted_exponential() {
 #[test]
 fn rk4_limit_with_each_central_stencil_is_two_root_two_over_its_maximum() {
     // RK4 is stable on the imaginary axis up to 2√2 (Hairer & Wanner II); a central
-    // stencil gives μ = −i a m(θ)/h, so ν_max = 2√2 / max m (REFERENCES.md).
+    // stencil gives μ = −i a m(θ)/h, so ν_max = 2√2 / max m (Hairer & Wanner, Solving ODEs II).
     let c2_max = 1.0; // sin θ, common practice
     let compact4_max = 3f64.sqrt(); // Lele (1992)
     let (a, b) = (14.0 / 9.0, 1.0 / 9.0); // Lele (1992), sixth-order compact

@@ -224,7 +224,7 @@ points = [9, 9, 9]
 #[test]
 fn linear_model_reference_speed_and_limit_follow_its_characteristic_speeds() {
     // A_x = diag(1, 0), A_y = diag(0, 2): the characteristic speed along n is
-    // max(|n_x|, 2|n_y|), largest 2 (INTERFACE.md: s = largest speed over all
+    // max(|n_x|, 2|n_y|), largest 2 (README, case file: s = largest speed over all
     // directions). With C2 the eigenvalues are −i sin θx and −2i sin θy (h = 1), so
     // RK4 gives Δt_max = 2√2/2 and ν_max = s Δt_max / h = 2√2 (Hairer & Wanner II).
     let text = r#"

@@ -1,9 +1,11 @@
 //! First-exit times t*(μ) = r*(arg μ)/|μ| of the operator's eigenvalues from the
-//! time method's stability region (DESIGN.md §3).
+//! time method's stability region (README: The largest stable time step).
 //!
-//! An eigenvalue with |Re μ| ≤ tolerance·|μ| is put on the imaginary axis, so that
-//! roundoff cannot push a neutral scheme off its region's boundary. The two
-//! imaginary directions are computed once; other directions come from a lazily
+//! The eigenvalues come from [`crate::operator::Spectrum`], which puts them on the
+//! imaginary axis only where L has no real part by construction (so that
+//! roundoff cannot push a neutral scheme off its region's boundary, while real
+//! dissipation, however weak, is kept). The two imaginary directions are
+//! computed once; other directions come from a lazily
 //! filled table used only for screening (its lower envelope never exceeds the
 //! exact value except inside an unresolved lobe), and exact values for the
 //! candidates that survive screening.
@@ -18,8 +20,6 @@ const TABLE: usize = 4096;
 /// First-exit radii of one method, with its snapping tolerance.
 pub struct ExitTimes<'m> {
     method: &'m Method,
-    tolerance: f64,
-    zero: f64,
     up: f64,
     down: f64,
     table: Vec<OnceLock<f64>>,
@@ -34,24 +34,23 @@ enum Dir {
 }
 
 impl<'m> ExitTimes<'m> {
-    /// For `method`; eigenvalues with |μ| ≤ `zero` are treated as exactly zero
-    /// (neutral: never leave the region).
-    pub fn new(method: &'m Method, tolerance: f64, zero: f64) -> Self {
+    /// For `method`. The eigenvalues it is given come from
+    /// [`crate::operator::Spectrum`]: exactly zero where neutral, with a real part
+    /// of exactly zero where on the imaginary axis.
+    pub fn new(method: &'m Method) -> Self {
         Self {
             method,
-            tolerance,
-            zero,
             up: method.exit_radius(C64::new(0.0, 1.0)),
             down: method.exit_radius(C64::new(0.0, -1.0)),
             table: (0..=TABLE).map(|_| OnceLock::new()).collect(),
         }
     }
 
-    fn dir(&self, mu: C64, noise: f64) -> Dir {
+    fn dir(&self, mu: C64) -> Dir {
         let r = mu.norm();
-        if r <= self.zero.max(noise) {
+        if r == 0.0 {
             Dir::Zero
-        } else if mu.re.abs() <= (self.tolerance * r).max(noise) {
+        } else if mu.re == 0.0 {
             if mu.im > 0.0 {
                 Dir::Up
             } else {
@@ -69,11 +68,9 @@ impl<'m> ExitTimes<'m> {
         })
     }
 
-    /// Exact first-exit time of μ. `noise` is the roundoff level of the
-    /// eigenvalues at this wavevector (see [`noise_level`]): an eigenvalue within
-    /// it of zero is neutral, a real part within it is put on the imaginary axis.
-    pub fn exact(&self, mu: C64, noise: f64) -> f64 {
-        match self.dir(mu, noise) {
+    /// Exact first-exit time of μ.
+    pub fn exact(&self, mu: C64) -> f64 {
+        match self.dir(mu) {
             Dir::Zero => f64::INFINITY,
             Dir::Up => self.up / mu.norm(),
             Dir::Down => self.down / mu.norm(),
@@ -83,8 +80,8 @@ impl<'m> ExitTimes<'m> {
 
     /// Screening value: exact on the imaginary axis, the lower envelope of the
     /// two neighbouring table entries elsewhere.
-    pub fn estimate(&self, mu: C64, noise: f64) -> f64 {
-        match self.dir(mu, noise) {
+    pub fn estimate(&self, mu: C64) -> f64 {
+        match self.dir(mu) {
             Dir::Zero => f64::INFINITY,
             Dir::Up => self.up / mu.norm(),
             Dir::Down => self.down / mu.norm(),
@@ -95,13 +92,6 @@ impl<'m> ExitTimes<'m> {
             }
         }
     }
-}
-
-/// Roundoff level of computed eigenvalues of a symbol: 64 ε ‖L‖_F. Backward-stable
-/// eigenvalue algorithms perturb each eigenvalue by about ε‖L‖, so a real part
-/// or a modulus below this cannot be told from zero.
-pub fn noise_level(symbol: &[C64]) -> f64 {
-    64.0 * f64::EPSILON * symbol.iter().map(|z| z.norm_sqr()).sum::<f64>().sqrt()
 }
 
 /// The smallest first-exit time over a set of eigenvalues, and the modulus of the

@@ -5,8 +5,14 @@
 //! ([`first_exit`], [`overall`]); for composite schemes from a verified search on
 //! Δt ([`search`]). Both give a [`LimitResult`] of the same shape.
 
+pub mod abscissa;
+pub mod certify;
+pub mod composite;
 pub mod first_exit;
+pub mod longwave;
+pub mod loss;
 pub mod overall;
+pub mod rays;
 pub mod search;
 
 use super::context::Context;
@@ -149,6 +155,9 @@ pub struct LimitResult {
     pub diffusion_number_max: Option<f64>,
     /// Whether the problem's Δt is within the limit.
     pub stable_at_dt: bool,
+    /// A certified bracket [dt_lo, dt_hi] of a bounded limit: stable on
+    /// (0, dt_lo], unstable just above dt_hi; dt_max = dt_lo.
+    pub bracket: Option<(f64, f64)>,
     /// How it was found.
     pub found_by: FoundBy,
     /// For searched limits: the scan below it.
@@ -169,46 +178,39 @@ pub(super) fn by_first_exit(
     screen: &[(usize, f64, f64)],
     count: usize,
 ) -> LimitResult {
-    let op = &ctx.op;
-    let overall = ctx
+    let (op, tol) = (&ctx.op, ctx.plan.tolerance);
+    let (overall, bracket) = ctx
         .par
-        .run(|| overall::overall(op, exits, &ctx.grid, screen));
+        .run(|| overall::overall(op, exits, tol, &ctx.grid, screen));
     let dirs = limit_directions(ctx.problem.dims(), count);
-    let per_ray = (ctx.grid.points.iter().max().copied().unwrap_or(2) / 2).max(16);
-    ctx.progress.start(Stage::Directions, dirs.len() as u64);
-    let res = ctx.par.run(|| {
-        overall::by_direction(
-            op,
-            exits,
-            &dirs,
-            per_ray,
-            op.real_coefficients,
-            ctx.progress,
-        )
+    let per_ray = (ctx.grid.points.iter().max().copied().unwrap_or(2) / 2).max(32);
+    let res = along_rays(ctx, &dirs, |n| {
+        rays::ray_limit(&loss::Exact::new(op, exits, tol), n, per_ray)
     });
-    ctx.progress.finish();
-    finish(ctx, overall, dirs, res, FoundBy::FirstExit, None)
+    finish(ctx, overall, bracket, dirs, res, FoundBy::FirstExit, None)
 }
 
 /// The limit of a composite scheme by the verified search.
 pub(super) fn by_search(ctx: &Context, ev: &CompositeEval, count: usize) -> LimitResult {
-    let overall = ctx.par.run(|| ev.overall(&ctx.grid));
-    let verification = Verification {
-        steps_scanned: search::VERIFY_STEPS,
-        stable_below: overall.verified,
-        moved_down: overall.corrected,
-    };
-    let dirs = limit_directions(ctx.problem.dims(), count);
-    let per_ray = (ctx.grid.points.iter().max().copied().unwrap_or(2) / 4).max(16);
-    ctx.progress.start(Stage::Directions, dirs.len() as u64);
-    let start = overall.limit.dt_max;
-    let res = ctx
+    let (overall, bracket, verification) = ctx
         .par
-        .run(|| ev.by_direction(&dirs, per_ray, start, ctx.progress));
-    ctx.progress.finish();
+        .run(|| composite::overall(ev, &ctx.op, ctx.plan.tolerance, &ctx.grid));
+    let dirs = limit_directions(ctx.problem.dims(), count);
+    let per_ray = (ctx.grid.points.iter().max().copied().unwrap_or(2) / 2).max(48);
+    let floor = match overall.kind {
+        LimitKind::Bounded => 0.5 * overall.dt_max,
+        _ => ev.scale(),
+    };
+    let res = along_rays(ctx, &dirs, |n| {
+        if overall.kind == LimitKind::None && overall.wavevector.iter().all(|x| *x == 0.0) {
+            return (0.0, vec![0.0; n.len()]);
+        }
+        rays::ray_limit(&search::PerTheta::new(ev, floor), n, per_ray)
+    });
     finish(
         ctx,
-        overall.limit,
+        overall,
+        bracket,
         dirs,
         res,
         FoundBy::Search,
@@ -216,15 +218,55 @@ pub(super) fn by_search(ctx: &Context, ev: &CompositeEval, count: usize) -> Limi
     )
 }
 
+/// `ray` over every direction in parallel, each direction whose opposite came
+/// earlier mirrored from it (real schemes: the limit is even in θ).
+fn along_rays(
+    ctx: &Context,
+    dirs: &[Vec<f64>],
+    ray: impl Fn(&[f64]) -> (f64, Vec<f64>) + Sync,
+) -> Vec<(f64, Vec<f64>)> {
+    use rayon::prelude::*;
+    let opposite = overall::opposites(dirs, ctx.op.real_coefficients);
+    ctx.progress.start(Stage::Directions, dirs.len() as u64);
+    let computed: Vec<(f64, Vec<f64>)> = ctx.par.run(|| {
+        dirs.par_iter()
+            .zip(&opposite)
+            .map(|(n, opp)| {
+                let r = match opp {
+                    Some(_) => (f64::NAN, Vec::new()),
+                    None => ray(n),
+                };
+                ctx.progress.advance(1);
+                r
+            })
+            .collect()
+    });
+    ctx.progress.finish();
+    overall::mirror_fill(computed, &opposite)
+}
+
 fn finish(
     ctx: &Context,
     mut overall: Limit,
+    bracket: Option<(f64, f64)>,
     dirs: Vec<Vec<f64>>,
     res: Vec<(f64, Vec<f64>)>,
     found_by: FoundBy,
     verification: Option<Verification>,
 ) -> LimitResult {
-    let (dt, wavevector): (Vec<f64>, Vec<Vec<f64>>) = res.into_iter().unzip();
+    let (mut dt, mut wavevector): (Vec<f64>, Vec<Vec<f64>>) = res.into_iter().unzip();
+    // a ray through the wavevector that sets the overall limit is never above it
+    let w = &overall.wavevector;
+    let wn = w.iter().map(|x| x * x).sum::<f64>().sqrt();
+    if wn > 0.0 && overall.dt_max.is_finite() {
+        for (k, n) in dirs.iter().enumerate() {
+            let cos = n.iter().zip(w).map(|(a, b)| a * b).sum::<f64>() / wn;
+            if cos >= 1.0 - 1e-12 && !(dt[k] <= overall.dt_max) {
+                dt[k] = overall.dt_max;
+                wavevector[k] = w.clone();
+            }
+        }
+    }
     let p = ctx.problem;
     let courant = match p.system.reference_speed > 0.0 {
         true => dt
@@ -265,6 +307,12 @@ fn finish(
         },
         dt_max: overall.dt_max,
         wavevector: overall.wavevector,
+        bracket: match overall.kind {
+            LimitKind::Bounded => {
+                bracket.map(|(lo, hi)| (overall.dt_max.min(lo), hi.max(overall.dt_max)))
+            }
+            _ => None,
+        },
         found_by,
         verification,
         by_direction,

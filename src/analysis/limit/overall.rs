@@ -1,65 +1,21 @@
-//! The largest stable Δt of one-step and multistep methods: screening on the
-//! grid, exact first-exit times at the candidates, refinement in continuous θ;
-//! and the same along each wave direction.
+//! The largest stable Δt of one-step and multistep methods over the whole box:
+//! the best screened grid nodes evaluated exactly, every separated candidate
+//! refined in continuous θ, and the limits approached at θ = 0 and at the
+//! corners and faces of the box; the evidence gives the limit and its bracket
+//! ([`super::certify`]). Also the bounded list of screened candidates the main
+//! sweep keeps, and the pairing of opposite directions.
 
-use super::first_exit::{min_over_modes, ExitTimes};
-use super::{Limit, LimitKind};
-use crate::linalg::EigSolver;
-use crate::numeric::minimise::{compass_min, golden_min};
-use crate::operator::Operator;
-use crate::sample::{ray_length, Grid, Progress};
+use super::abscissa;
+use super::certify::Evidence;
+use super::first_exit::ExitTimes;
+use super::longwave;
+use super::loss::{Exact, FirstLoss};
+use super::Limit;
+use crate::numeric::minimise::compass_min;
+use crate::operator::{Operator, Spectrum};
+use crate::sample::Grid;
 use num_complex::Complex64 as C64;
-use rayon::prelude::*;
-use std::cell::RefCell;
 use std::f64::consts::PI;
-
-/// Exact min over modes of t*(μ(θ)) at any θ.
-pub struct Evaluator<'a> {
-    op: &'a Operator,
-    exits: &'a ExitTimes<'a>,
-    work: RefCell<(EigSolver, Vec<C64>, Vec<C64>)>,
-}
-
-impl<'a> Evaluator<'a> {
-    /// For an operator and its method's exit times.
-    pub fn new(op: &'a Operator, exits: &'a ExitTimes<'a>) -> Self {
-        let m = op.m;
-        Self {
-            op,
-            exits,
-            work: RefCell::new((
-                EigSolver::new(m),
-                vec![C64::new(0.0, 0.0); m * m],
-                vec![C64::new(0.0, 0.0); m],
-            )),
-        }
-    }
-
-    fn eval(&self, theta: &[f64], exact: bool) -> (f64, f64) {
-        let mut w = self.work.borrow_mut();
-        let (solver, sym, eig) = &mut *w;
-        self.op.symbol_into(theta, sym);
-        if solver.eigenvalues(sym, eig).is_err() {
-            return (f64::NAN, 0.0);
-        }
-        let noise = super::first_exit::noise_level(sym);
-        if exact {
-            min_over_modes(eig, |mu| self.exits.exact(mu, noise))
-        } else {
-            min_over_modes(eig, |mu| self.exits.estimate(mu, noise))
-        }
-    }
-
-    /// Exact first-exit time at θ.
-    pub fn exact(&self, theta: &[f64]) -> f64 {
-        self.eval(theta, true).0
-    }
-
-    /// Screening value at θ.
-    pub fn estimate(&self, theta: &[f64]) -> f64 {
-        self.eval(theta, false).0
-    }
-}
 
 /// Wraps an angle into [−π, π].
 pub fn wrap(x: f64) -> f64 {
@@ -72,7 +28,7 @@ pub fn wrap(x: f64) -> f64 {
 }
 
 /// How many separated grid candidates are refined.
-const CANDIDATES: usize = 8;
+const CANDIDATES: usize = 16;
 
 /// How many screened wavevectors are kept for the refinement.
 pub const SCREEN_CANDIDATES: usize = 4096;
@@ -130,25 +86,60 @@ impl Candidates {
     }
 }
 
-/// The overall limit from the best screened wavevectors `(flat, t*, |μ|)`, best first.
+/// How many of the best screened nodes are evaluated exactly.
+const EXACT_CANDIDATES: usize = 256;
+
+/// The overall limit from the best screened wavevectors `(flat, t*, |μ|)`, best
+/// first, with its bracket.
 pub fn overall(
     op: &Operator,
     exits: &ExitTimes,
+    tolerance: f64,
     grid: &Grid,
     screen: &[(usize, f64, f64)],
-) -> Limit {
+) -> (Limit, Option<(f64, f64)>) {
     let dims = grid.points.len();
-    if screen.is_empty() {
-        return Limit {
-            kind: LimitKind::None,
-            dt_max: f64::NAN,
-            wavevector: vec![0.0; dims],
-        };
+    let f = Exact::new(op, exits, tolerance);
+    let mut evidence = Evidence::default();
+    let origin = vec![0.0; dims];
+    evidence.offer(f.at(&origin).dt, &origin);
+    let mut idx = vec![0usize; dims];
+    for &(i, _, _) in screen.iter().take(EXACT_CANDIDATES) {
+        grid.unravel(i, &mut idx);
+        let th = grid.theta(&idx);
+        evidence.offer(f.at(&th).dt, &th);
     }
-    let order: Vec<usize> = screen.iter().map(|c| c.0).collect();
+    if evidence.witness.as_ref().is_some_and(|w| w.0 == 0.0) {
+        return evidence.conclude(dims);
+    }
+    // an unstable region of L narrower than a grid cell
+    if let Some(theta) = abscissa::unstable_wavevector(op, tolerance, grid) {
+        evidence.offer(0.0, &theta);
+        return evidence.conclude(dims);
+    }
+    let step = (0..dims)
+        .map(|d| grid.step(d))
+        .fold(f64::INFINITY, f64::min);
+    let g = |x: &[f64]| f.at(x).bound_or_inf();
+    for c in separated(grid, screen) {
+        let (x, v) = compass_min(&g, &grid.theta(&c), step, 1e-12, 3000);
+        evidence.offer(v, &x);
+    }
+    for o in longwave::origins(dims) {
+        if degenerate(op, tolerance, &o) {
+            let lw = longwave::overall(&f, &o);
+            evidence.approach(lw);
+        }
+    }
+    evidence.conclude(dims)
+}
+
+/// Up to `CANDIDATES` screened nodes at least three cells apart (periodically).
+fn separated(grid: &Grid, screen: &[(usize, f64, f64)]) -> Vec<Vec<usize>> {
+    let dims = grid.points.len();
     let mut idx = vec![0usize; dims];
     let mut chosen: Vec<Vec<usize>> = Vec::new();
-    for &i in &order {
+    for &(i, _, _) in screen {
         grid.unravel(i, &mut idx);
         let far = chosen.iter().all(|c| {
             c.iter().zip(&idx).enumerate().any(|(d, (a, b))| {
@@ -164,84 +155,15 @@ pub fn overall(
             }
         }
     }
-    let best_node = order[0];
-    let best_t = screen[0].1;
-    grid.unravel(best_node, &mut idx);
-    let best_theta = grid.theta(&idx);
-    let eval = Evaluator::new(op, exits);
-    if best_t == 0.0 {
-        return Limit {
-            kind: LimitKind::None,
-            dt_max: 0.0,
-            wavevector: best_theta,
-        };
-    }
-    if best_t == f64::INFINITY {
-        return Limit {
-            kind: LimitKind::Unconditional,
-            dt_max: f64::INFINITY,
-            wavevector: best_theta,
-        };
-    }
-    let step = (0..dims)
-        .map(|d| grid.step(d))
-        .fold(f64::INFINITY, f64::min);
-    let f = |x: &[f64]| {
-        let v = eval.exact(x);
-        if v.is_nan() {
-            f64::INFINITY
-        } else {
-            v
-        }
-    };
-    let mut best = (f(&best_theta), best_theta);
-    for c in &chosen {
-        let x0 = grid.theta(c);
-        let (x, v) = compass_min(&f, &x0, step, 1e-11, 2000);
-        if v < best.0 {
-            best = (v, x);
-        }
-    }
-    let (dt, theta) = best;
-    let kind = if dt == 0.0 {
-        LimitKind::None
-    } else if dt.is_infinite() {
-        LimitKind::Unconditional
-    } else {
-        LimitKind::Bounded
-    };
-    Limit {
-        kind,
-        dt_max: dt,
-        wavevector: theta.iter().map(|x| wrap(*x)).collect(),
-    }
+    chosen
 }
 
-/// The limit along each direction: min over the ray θ = s n, 0 < s ≤ s_max.
-/// Returns, per direction, Δt and the wavevector that sets it. With `even`
-/// (a real-coefficient scheme), directions n and −n share their limit, and a
-/// direction whose opposite is also in the list is computed once.
-pub fn by_direction(
-    op: &Operator,
-    exits: &ExitTimes,
-    directions: &[Vec<f64>],
-    samples: usize,
-    even: bool,
-    progress: &dyn Progress,
-) -> Vec<(f64, Vec<f64>)> {
-    let opposite = opposites(directions, even);
-    let computed: Vec<(f64, Vec<f64>)> = directions
-        .par_iter()
-        .zip(&opposite)
-        .map(|(n, opp)| {
-            if opp.is_some() {
-                progress.advance(1);
-                return (f64::NAN, Vec::new());
-            }
-            ray_limit(op, exits, n, samples, progress)
-        })
-        .collect();
-    mirror_fill(computed, &opposite)
+/// Whether L has an eigenvalue at (or within 1e-8 of its size of) zero at θ:
+/// there the first loss can tend to a limit no point attains.
+pub fn degenerate(op: &Operator, tolerance: f64, theta: &[f64]) -> bool {
+    let mut eig = vec![C64::new(0.0, 0.0); op.m];
+    let mut s = Spectrum::new(op, tolerance);
+    s.at(theta, &mut eig).is_ok() && eig.iter().any(|mu| mu.norm() <= 1e-8 * op.scale())
 }
 
 /// For each direction, the index of an earlier direction opposite to it (when
@@ -274,46 +196,4 @@ pub fn mirror_fill(
             None => c.clone(),
         })
         .collect()
-}
-
-fn ray_limit(
-    op: &Operator,
-    exits: &ExitTimes,
-    n: &[f64],
-    samples: usize,
-    progress: &dyn Progress,
-) -> (f64, Vec<f64>) {
-    let eval = Evaluator::new(op, exits);
-    let smax = ray_length(n);
-    let at = |s: f64| -> Vec<f64> { n.iter().map(|x| x * s).collect() };
-    let mut best = (f64::INFINITY, 1usize);
-    for k in 1..=samples {
-        let v = eval.estimate(&at(smax * k as f64 / samples as f64));
-        if v < best.0 {
-            best = (v, k);
-        }
-    }
-    progress.advance(1);
-    let k = best.1;
-    let s_k = smax * k as f64 / samples as f64;
-    let exact_k = eval.exact(&at(s_k));
-    if !(exact_k.is_finite() && exact_k > 0.0) {
-        return (exact_k, at(s_k));
-    }
-    let lo = smax * (k - 1) as f64 / samples as f64;
-    let hi = (smax * (k + 1) as f64 / samples as f64).min(smax);
-    let g = |s: f64| {
-        let v = eval.exact(&at(s));
-        if v.is_nan() {
-            f64::INFINITY
-        } else {
-            v
-        }
-    };
-    let (s, v) = golden_min(&g, lo.max(1e-12 * smax), hi);
-    if v < exact_k {
-        (v, at(s))
-    } else {
-        (exact_k, at(s_k))
-    }
 }

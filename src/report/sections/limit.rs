@@ -92,6 +92,14 @@ impl Section for Limit {
             "stable_at_case_dt": l.stable_at_dt,
             "found_by": l.found_by.describe(),
         });
+        if let Some((lo, hi)) = l.bracket {
+            limit["bracket"] = json!({
+                "dt_lo": num(lo),
+                "dt_hi": num(hi),
+                "relative_width": num((hi - lo) / hi),
+                "meaning": "stable for every dt in (0, dt_lo] at every wavevector examined (grid, continuous refinement, long waves and the corners of the box); unstable just above dt_hi; dt_max = dt_lo",
+            });
+        }
         if let Some(v) = l.verification {
             limit["verified_below"] = json!({
                 "dt_steps_scanned": v.steps_scanned,
@@ -144,6 +152,15 @@ impl Section for Limit {
                     "theta = {}, direction {}",
                     theta(&l.wavevector),
                     dir(&l.wavevector)
+                ),
+            ));
+        }
+        if let Some((lo, hi)) = l.bracket {
+            rows.push((
+                "bracket".into(),
+                format!(
+                    "stable up to {lo:.10e}, unstable just above {hi:.10e} (relative width {:.1e})",
+                    (hi - lo) / hi
                 ),
             ));
         }

@@ -36,7 +36,6 @@ fn ftcs_1d_limit_is_two_d_over_u_squared_reference() {
 }
 
 #[test]
-#[ignore = "engine: reports kind none for FTCS, whose limit is 0.2"]
 fn ftcs_1d_limit_is_two_d_over_u_squared_engine() {
     let e = engine(&ftcs_1d());
     assert_eq!(e.kind, EngineKind::Bounded);
@@ -89,7 +88,6 @@ fn ftcs_2d_limits_follow_the_projected_long_wave_condition_reference() {
 }
 
 #[test]
-#[ignore = "engine: 2-D FTCS long-wave limit 1.6e-8 relative too large"]
 fn ftcs_2d_limits_follow_the_projected_long_wave_condition_engine() {
     let e = engine(&ftcs_2d());
     assert_limit(e.dt_max, 0.15625, "FTCS 2-D overall, engine");
@@ -168,7 +166,6 @@ fn imex_euler_long_wave_limit_is_h_over_a_plus_two_d_over_a_squared_reference() 
 }
 
 #[test]
-#[ignore = "engine: IMEX Euler long-wave limit 2.4e-7 relative too large"]
 fn imex_euler_long_wave_limit_is_h_over_a_plus_two_d_over_a_squared_engine() {
     let e = engine(&imex_euler_1d());
     assert_limit(e.dt_max, 1.2, "IMEX Euler 1-D, engine");
@@ -223,7 +220,6 @@ fn heun_with_fourth_order_dissipation_limit_is_cube_root_of_half_sigma_reference
 }
 
 #[test]
-#[ignore = "engine: reports kind none for Heun + dissipation, whose limit is (σ/2)^(1/3)"]
 fn heun_with_fourth_order_dissipation_limit_is_cube_root_of_half_sigma_engine() {
     let e = engine(&heun_dissipation());
     assert_eq!(e.kind, EngineKind::Bounded);

@@ -1,0 +1,91 @@
+//! Instability of the spatial operator itself: a wavevector where some
+//! eigenvalue of L(θ) has a positive real part makes every consistent time
+//! method unstable at every small Δt (G = I + ΔtL + O(Δt²), so ρ(G) ≈ 1 + Δt·Re μ).
+//!
+//! Such a region can be narrower than a grid cell (a random biased compact
+//! stencil whose real part turns positive on a short interval of θ that diffusion
+//! does not cover). The spectral abscissa α(θ) = max Re eig L(θ) is evaluated on
+//! the grid and maximised in continuous θ from the best separated nodes by a
+//! compass search; a trusted positive maximum ([`crate::operator::Spectrum`]) is
+//! the witness of a scheme that no Δt makes stable.
+
+use crate::numeric::minimise::compass_min;
+use crate::operator::{Operator, Spectrum};
+use crate::sample::Grid;
+use num_complex::Complex64 as C64;
+use rayon::prelude::*;
+
+/// How many separated grid nodes are refined.
+const REFINED: usize = 8;
+
+/// The spectral abscissa at θ when it can be trusted, −∞ otherwise.
+fn abscissa(spectrum: &mut Spectrum, eig: &mut [C64], theta: &[f64]) -> f64 {
+    match spectrum.at(theta, eig) {
+        Ok(true) => eig.iter().map(|z| z.re).fold(f64::NEG_INFINITY, f64::max),
+        _ => f64::NEG_INFINITY,
+    }
+}
+
+/// A wavevector where L(θ) has an eigenvalue with a positive real part (beyond
+/// rounding), searched on the grid and refined from its best nodes; None when
+/// the largest real part found is not positive.
+pub fn unstable_wavevector(op: &Operator, tolerance: f64, grid: &Grid) -> Option<Vec<f64>> {
+    let dims = grid.points.len();
+    let scored: Vec<(f64, usize)> = (0..grid.len())
+        .into_par_iter()
+        .map_init(
+            || {
+                (
+                    Spectrum::new(op, tolerance),
+                    vec![C64::new(0.0, 0.0); op.m],
+                    vec![0usize; dims],
+                )
+            },
+            |(s, eig, idx), i| {
+                grid.unravel(i, idx);
+                (abscissa(s, eig, &grid.theta(idx)), i)
+            },
+        )
+        .collect();
+    let mut idx = vec![0usize; dims];
+    if let Some((_, i)) = scored
+        .iter()
+        .filter(|(a, _)| *a > 0.0)
+        .max_by(|a, b| a.0.total_cmp(&b.0))
+    {
+        grid.unravel(*i, &mut idx);
+        return Some(grid.theta(&idx));
+    }
+    let mut order: Vec<(f64, usize)> = scored.into_iter().filter(|(a, _)| a.is_finite()).collect();
+    order.sort_by(|a, b| b.0.total_cmp(&a.0));
+    let far = 3.0 * (0..dims).map(|d| grid.step(d)).fold(0.0, f64::max);
+    let step = (0..dims)
+        .map(|d| grid.step(d))
+        .fold(f64::INFINITY, f64::min);
+    let mut starts: Vec<Vec<f64>> = Vec::new();
+    for (_, i) in order {
+        grid.unravel(i, &mut idx);
+        let p = grid.theta(&idx);
+        if starts
+            .iter()
+            .all(|c| c.iter().zip(&p).any(|(a, b)| (a - b).abs() > far))
+        {
+            starts.push(p);
+            if starts.len() == REFINED {
+                break;
+            }
+        }
+    }
+    starts.into_par_iter().find_map_any(|x0| {
+        let mut s = Spectrum::new(op, tolerance);
+        let mut eig = vec![C64::new(0.0, 0.0); op.m];
+        let cell = std::cell::RefCell::new((&mut s, &mut eig));
+        let minus = |x: &[f64]| {
+            let mut c = cell.borrow_mut();
+            let (s, eig) = &mut *c;
+            -abscissa(s, eig, x)
+        };
+        let (x, v) = compass_min(&minus, &x0, 0.5 * step, 1e-9, 400);
+        (-v > 0.0).then_some(x)
+    })
+}

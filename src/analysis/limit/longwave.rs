@@ -1,0 +1,320 @@
+//! Limits set by long waves, θ → 0.
+//!
+//! Many schemes lose stability first at long wavelengths, where the first loss
+//! f(s n) along a direction n tends to a limit L(n) as s → 0 that no grid point
+//! attains: forward Euler with central differences for advection–diffusion
+//! (ν² ≤ 2r, Hirsch, Numerical Computation of Internal and External Flows),
+//! Heun with fourth-order dissipation, IMEX and two-level schemes. Along each
+//! direction f is evaluated at s_j = s₀ 2⁻ʲ while its values can be trusted;
+//! near s = 0 it behaves as L + C s^k (k ≥ 1; k = 2 for real schemes), so the
+//! geometric sequence is extrapolated by Aitken's Δ² process, whose error is
+//! estimated by the difference between two successive extrapolations. A value
+//! of 0 (or a geometric decay towards 0: C s^k) means that long waves are
+//! unstable at every Δt; values growing as s → 0 mean long waves set no limit.
+//!
+//! The limit over all long waves is the minimum of L(n) over directions: a set
+//! including the axes and diagonals, then a golden-section (2-D) or compass (3-D)
+//! refinement of the best direction.
+
+use super::loss::FirstLoss;
+use crate::numeric::{directions, minimise};
+use std::f64::consts::PI;
+
+/// First long-wave sample, in radians.
+pub const S0: f64 = 0.2;
+/// At most this many halvings.
+const STEPS: usize = 40;
+/// How many directions' smallest samples are refined in full θ-space.
+const DIPS: usize = 3;
+
+/// The long-wave limit along one direction, or over all.
+#[derive(Debug, Clone, PartialEq)]
+pub struct LongWave {
+    /// L (∞: no long-wave limit; 0: unstable at every Δt).
+    pub limit: f64,
+    /// An estimate of the error of L.
+    pub uncertainty: f64,
+    /// The direction (unit vector in θ-space).
+    pub direction: Vec<f64>,
+    /// The smallest first loss met on the way, and where.
+    pub sample: (f64, Vec<f64>),
+}
+
+/// The limit of `f` at `origin` approached along the unit vector `n` (the
+/// long-wave limit for origin 0).
+pub fn along(f: &dyn FirstLoss, origin: &[f64], n: &[f64]) -> LongWave {
+    let at = |s: f64| -> Vec<f64> { origin.iter().zip(n).map(|(o, x)| o + x * s).collect() };
+    let mut values: Vec<f64> = Vec::new();
+    let mut sample = (f64::INFINITY, at(S0));
+    let mut estimates: Vec<f64> = Vec::new();
+    for j in 0..STEPS {
+        let s = S0 * 0.5f64.powi(j as i32);
+        let loss = f.at(&at(s));
+        if !loss.trusted || loss.dt.is_nan() {
+            if values.is_empty() && loss.bound && decays_to_zero(f, &at, s) {
+                // upper bounds of the first loss that fall like a power of s
+                // towards 0: long waves are unstable at every Δt
+                return LongWave {
+                    limit: 0.0,
+                    uncertainty: 0.0,
+                    direction: n.to_vec(),
+                    sample: (0.0, at(s)),
+                };
+            }
+            break;
+        }
+        if loss.dt < sample.0 {
+            sample = (loss.dt, at(s));
+        }
+        values.push(loss.dt);
+        if loss.dt == 0.0 {
+            break;
+        }
+        if let Some(e) = aitken(&values) {
+            estimates.push(e);
+            let k = estimates.len();
+            let settled = k >= 2 && (estimates[k - 1] - estimates[k - 2]).abs() <= 1e-13 * e.abs();
+            let n = values.len();
+            let flat = (values[n - 1] - values[n - 2]).abs() <= 1e-14 * values[n - 1].abs();
+            if settled || flat {
+                break;
+            }
+        }
+        if values.len() >= 6 && values[values.len() - 3..].iter().all(|v| v.is_infinite()) {
+            break;
+        }
+    }
+    let (limit, uncertainty) = conclude(&values, &estimates);
+    LongWave {
+        limit,
+        uncertainty,
+        direction: n.to_vec(),
+        sample,
+    }
+}
+
+/// Whether verified upper bounds of the first loss at s, s/2, s/4, … fall
+/// geometrically (each at most 0.7 times the one before) for at least five
+/// halvings in a row, to below 1e-2 of the first, until they meet their
+/// rounding floor: the first loss then tends to 0 as s → 0.
+fn decays_to_zero(f: &dyn FirstLoss, at: &dyn Fn(f64) -> Vec<f64>, s: f64) -> bool {
+    let mut values: Vec<f64> = Vec::new();
+    for j in 0..12 {
+        let loss = f.at(&at(s * 0.5f64.powi(j)));
+        let falling = values.last().is_none_or(|p| loss.dt < 0.7 * p);
+        if !loss.bound || !falling {
+            break;
+        }
+        values.push(loss.dt);
+    }
+    values.len() >= 6 && values[values.len() - 1] < 1e-2 * values[0]
+}
+
+/// Aitken's Δ² extrapolation of the last three values, when they converge
+/// geometrically.
+fn aitken(v: &[f64]) -> Option<f64> {
+    let n = v.len();
+    if n < 3 || v[n - 3..].iter().any(|x| !x.is_finite()) {
+        return None;
+    }
+    let (a, b, c) = (v[n - 3], v[n - 2], v[n - 1]);
+    let (d1, d2) = (b - a, c - b);
+    if d2 == 0.0 || d1 == 0.0 {
+        return Some(c);
+    }
+    let r = d2 / d1;
+    (r > 0.0 && r < 1.0).then(|| (c + d2 * r / (1.0 - r)).max(0.0))
+}
+
+/// (L, its uncertainty) from the sequence and its extrapolations.
+fn conclude(values: &[f64], estimates: &[f64]) -> (f64, f64) {
+    let finite: Vec<f64> = values.iter().copied().filter(|v| v.is_finite()).collect();
+    let Some(&last) = finite.last() else {
+        return (f64::INFINITY, 0.0);
+    };
+    if last == 0.0 {
+        return (0.0, 0.0);
+    }
+    let n = finite.len();
+    let step = if n >= 2 { last - finite[n - 2] } else { 0.0 };
+    if step > 1e-9 * last {
+        // Growing as s → 0. If the values first settled towards a limit (two
+        // successive extrapolations agreeing to 1e-8) and only then turned up,
+        // the turn is rounding (a weight sum of 1e-17 or the rounding of the
+        // symbol grows relative to the vanishing terms that set the limit): the
+        // settled extrapolation is the limit. Otherwise long waves set no limit
+        // below the samples.
+        let settled = estimates
+            .windows(2)
+            .map(|w| (w[1], (w[1] - w[0]).abs()))
+            .filter(|(e, d)| *d <= 1e-8 * e.abs())
+            .min_by(|a, b| (a.1 / a.0.abs()).total_cmp(&(b.1 / b.0.abs())));
+        return match settled {
+            Some((e, d)) => (e, d.max(1e-15 * e)),
+            None => (f64::INFINITY, 0.0),
+        };
+    }
+    match estimates {
+        [.., prev, e] => (*e, (e - prev).abs().max(1e-15 * e)),
+        [e] => match romberg(&finite[n - 3..]) {
+            Some(v) => v,
+            None => (*e, (last - e).abs()),
+        },
+        [] if n >= 2 => ((last - step.abs()).max(0.0), step.abs()),
+        [] => (last, last),
+    }
+}
+
+/// With only three values v(s), v(s/2), v(s/4) converging like s² (the ratio of
+/// successive differences within 4% of 1/4, as for every scheme with real
+/// coefficients, whose first loss is even in θ): Romberg's extrapolation,
+/// R_k = v_k + (v_k − v_{k−1})/3 and L = R₂ + (R₂ − R₁)/15, with twice the last
+/// correction as the uncertainty.
+fn romberg(v: &[f64]) -> Option<(f64, f64)> {
+    let (d1, d2) = (v[1] - v[0], v[2] - v[1]);
+    let r = d2 / d1;
+    if !((0.24..=0.26).contains(&r)) {
+        return None;
+    }
+    let (r1, r2) = (v[1] + d1 / 3.0, v[2] + d2 / 3.0);
+    let correction = (r2 - r1) / 15.0;
+    Some((r2 + correction, 2.0 * correction.abs()))
+}
+
+/// Directions for the long-wave search: in 2-D 32 angles (axes and diagonals
+/// among them), in 3-D 64 sphere points with the 26 axis, face and body
+/// diagonals; in 1-D ±x.
+fn candidate_directions(dims: usize) -> Vec<Vec<f64>> {
+    match dims {
+        1 => vec![vec![1.0], vec![-1.0]],
+        2 => directions::unit_vectors(2, 32),
+        _ => {
+            let mut v = directions::unit_vectors(3, 64);
+            for i in -1i32..=1 {
+                for j in -1i32..=1 {
+                    for k in -1i32..=1 {
+                        if (i, j, k) != (0, 0, 0) {
+                            let n = ((i * i + j * j + k * k) as f64).sqrt();
+                            v.push(vec![i as f64 / n, j as f64 / n, k as f64 / n]);
+                        }
+                    }
+                }
+            }
+            v
+        }
+    }
+}
+
+/// The smallest limit of `f` approached at `origin` (0 for long waves; the
+/// corners and face centres of the box, where central differences vanish too)
+/// over all directions.
+pub fn overall(f: &dyn FirstLoss, origin: &[f64]) -> LongWave {
+    let dims = origin.len();
+    let dirs = candidate_directions(dims);
+    let all: Vec<LongWave> = dirs.iter().map(|n| along(f, origin, n)).collect();
+    // A direction whose samples stopped being trusted after the first carries
+    // no long-wave information (its uncertainty is its whole value): it does not
+    // steer the choice of the limiting direction while others do. When every
+    // direction is like that the limit stays 0 (the safe side).
+    let any_informative = all.iter().any(informative);
+    let key = |l: &LongWave| {
+        if any_informative && !informative(l) {
+            f64::INFINITY
+        } else {
+            l.limit - l.uncertainty
+        }
+    };
+    let best = all
+        .iter()
+        .min_by(|a, b| key(a).total_cmp(&key(b)))
+        .cloned()
+        .expect("at least one direction");
+    let mut smallest_sample = best.sample.clone();
+    for l in &all {
+        if l.sample.0 < smallest_sample.0 {
+            smallest_sample = l.sample.clone();
+        }
+    }
+    // A dip of the first loss at a small but finite |θ − origin| (inside the
+    // first grid cell, between two long-wave samples) is refined in full
+    // θ-space from the smallest samples of the best few directions.
+    let mut dips: Vec<&LongWave> = all.iter().filter(|l| l.sample.0.is_finite()).collect();
+    dips.sort_by(|a, b| a.sample.0.total_cmp(&b.sample.0));
+    let g = |x: &[f64]| f.at(x).bound_or_inf();
+    for l in dips.into_iter().take(DIPS) {
+        let x0 = &l.sample.1;
+        let dist = x0
+            .iter()
+            .zip(origin)
+            .map(|(a, b)| (a - b).powi(2))
+            .sum::<f64>()
+            .sqrt();
+        if dist == 0.0 {
+            continue;
+        }
+        let (x, v) = minimise::compass_min(&g, x0, 0.25 * dist, 1e-10 * dist, 400);
+        if v < smallest_sample.0 {
+            smallest_sample = (v, x);
+        }
+    }
+    let refined = match dims {
+        1 => best,
+        2 if best.limit.is_finite() && best.limit > 0.0 => {
+            let phi = best.direction[1].atan2(best.direction[0]);
+            let h = 2.0 * PI / 32.0;
+            let g = |a: f64| key(&along(f, origin, &[a.cos(), a.sin()]));
+            let (a, _) = minimise::golden_min(&g, phi - h, phi + h);
+            pick(best, along(f, origin, &[a.cos(), a.sin()]), any_informative)
+        }
+        3 if best.limit.is_finite() && best.limit > 0.0 => {
+            let n = &best.direction;
+            let start = [n[2].clamp(-1.0, 1.0).acos(), n[1].atan2(n[0])];
+            let unit = |x: &[f64]| {
+                let (st, ct) = x[0].sin_cos();
+                let (sp, cp) = x[1].sin_cos();
+                vec![st * cp, st * sp, ct]
+            };
+            let g = |x: &[f64]| key(&along(f, origin, &unit(x)));
+            let (x, _) = minimise::compass_min(&g, &start, 0.2, 1e-7, 200);
+            pick(best, along(f, origin, &unit(&x)), any_informative)
+        }
+        _ => best,
+    };
+    LongWave {
+        sample: if refined.sample.0 < smallest_sample.0 {
+            refined.sample.clone()
+        } else {
+            smallest_sample
+        },
+        ..refined
+    }
+}
+
+/// Whether a long-wave result says something: a limit known to better than its
+/// own size (or 0 or ∞).
+fn informative(l: &LongWave) -> bool {
+    !(l.limit > 0.0 && l.limit.is_finite() && l.uncertainty >= l.limit)
+}
+
+fn pick(a: LongWave, b: LongWave, skip_uninformative: bool) -> LongWave {
+    if skip_uninformative && !informative(&b) {
+        return a;
+    }
+    if b.limit - b.uncertainty < a.limit - a.uncertainty {
+        b
+    } else {
+        a
+    }
+}
+
+/// The points where long-wave-like limits can arise: θ = 0 and every corner and
+/// face centre of the box (each coordinate 0 or π).
+pub fn origins(dims: usize) -> Vec<Vec<f64>> {
+    (0..1usize << dims)
+        .map(|bits| {
+            (0..dims)
+                .map(|d| if bits >> d & 1 == 1 { PI } else { 0.0 })
+                .collect()
+        })
+        .collect()
+}

@@ -1,0 +1,102 @@
+//! The first loss of stability at one wavevector: the largest Δt such that every
+//! Δt' in (0, Δt] is stable at θ. Every limit is the infimum of this function
+//! over a set of wavevectors, so each analysis of a limit — grid, refinement,
+//! long waves, rays — works on a [`FirstLoss`].
+//!
+//! For one-step and linear multistep methods it is the exact first-exit time
+//! min over modes of r*(arg μ)/|μ| ([`Exact`]); for composite schemes a root of
+//! ρ(G(θ, Δt)) − 1 ([`super::search`]).
+
+use super::first_exit::{min_over_modes, ExitTimes};
+use crate::operator::{Operator, Spectrum};
+use num_complex::Complex64 as C64;
+use std::cell::RefCell;
+
+/// The first loss at one wavevector.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct Loss {
+    /// The Δt (∞: stable for every Δt; 0: unstable for every Δt > 0; NaN: the
+    /// kernel failed).
+    pub dt: f64,
+    /// Whether the value can be trusted to its rounding level (false where the
+    /// sign of a real part is lost in roundoff, or where ρ − 1 crosses zero so
+    /// slowly that rounding blurs where).
+    pub trusted: bool,
+    /// Whether Δt just above the value is verified unstable beyond rounding, so
+    /// that the value bounds the true first loss from above even when it is not
+    /// accurate (a composite scheme's crossing of ρ − 1 with its rounding level).
+    pub bound: bool,
+}
+
+impl Loss {
+    /// A first loss known to its rounding level.
+    pub fn exact(dt: f64) -> Self {
+        Loss {
+            dt,
+            trusted: true,
+            bound: true,
+        }
+    }
+
+    /// The value where it is trusted or a verified upper bound, +∞ otherwise
+    /// (for the minimisations over θ: a value that is neither never wins, and
+    /// an upper bound can only lower the limit, the safe direction).
+    pub fn bound_or_inf(self) -> f64 {
+        if (self.trusted || self.bound) && !self.dt.is_nan() {
+            self.dt
+        } else {
+            f64::INFINITY
+        }
+    }
+}
+
+/// The first loss as a function of θ.
+pub trait FirstLoss {
+    /// The first loss at θ.
+    fn at(&self, theta: &[f64]) -> Loss;
+}
+
+/// Exact first-exit times of one-step and multistep methods.
+pub struct Exact<'a> {
+    exits: &'a ExitTimes<'a>,
+    work: RefCell<(Spectrum<'a>, Vec<C64>)>,
+}
+
+impl<'a> Exact<'a> {
+    /// For an operator, its method's exit radii and the stability tolerance.
+    pub fn new(op: &'a Operator, exits: &'a ExitTimes<'a>, tolerance: f64) -> Self {
+        Exact {
+            exits,
+            work: RefCell::new((Spectrum::new(op, tolerance), vec![C64::new(0.0, 0.0); op.m])),
+        }
+    }
+
+    /// The screening value at θ (a lower envelope from the tabulated radii).
+    pub fn estimate(&self, theta: &[f64]) -> f64 {
+        let mut w = self.work.borrow_mut();
+        let (spectrum, eig) = &mut *w;
+        match spectrum.at(theta, eig) {
+            Err(_) => f64::NAN,
+            Ok(_) => min_over_modes(eig, |mu| self.exits.estimate(mu)).0,
+        }
+    }
+}
+
+impl FirstLoss for Exact<'_> {
+    fn at(&self, theta: &[f64]) -> Loss {
+        let mut w = self.work.borrow_mut();
+        let (spectrum, eig) = &mut *w;
+        match spectrum.at(theta, eig) {
+            Err(_) => Loss {
+                dt: f64::NAN,
+                trusted: false,
+                bound: false,
+            },
+            Ok(trusted) => Loss {
+                dt: min_over_modes(eig, |mu| self.exits.exact(mu)).0,
+                trusted,
+                bound: trusted,
+            },
+        }
+    }
+}

@@ -1,0 +1,63 @@
+//! The limit along one wave direction: the infimum of the first loss over the
+//! ray θ = s n, 0 ≤ s ≤ s_max, to the boundary of the box.
+//!
+//! The ray is sampled uniformly from s = 0 (so an instability of the source at
+//! θ = 0 is seen by every ray), every local minimum of the samples is refined by
+//! golden-section search, and the long-wave limit along n ([`super::longwave`])
+//! covers s → 0. A direction is reported stable up to a Δt only if every part of
+//! its ray is.
+
+use super::longwave;
+use super::loss::FirstLoss;
+use crate::numeric::minimise::golden_min;
+use crate::sample::ray_length;
+
+/// How many local minima of the samples are refined.
+const REFINED: usize = 6;
+
+/// (Δt, the wavevector that sets it) along the unit vector `n`, from `samples`
+/// uniform samples.
+pub fn ray_limit(f: &dyn FirstLoss, n: &[f64], samples: usize) -> (f64, Vec<f64>) {
+    let smax = ray_length(n);
+    let at = |s: f64| -> Vec<f64> { n.iter().map(|x| x * s).collect() };
+    let s_of = |k: usize| smax * k as f64 / samples as f64;
+    let values: Vec<f64> = (0..=samples)
+        .map(|k| f.at(&at(s_of(k))).bound_or_inf())
+        .collect();
+    let mut best = (f64::INFINITY, at(0.0));
+    for (k, v) in values.iter().enumerate() {
+        if *v < best.0 {
+            best = (*v, at(s_of(k)));
+        }
+    }
+    let mut minima: Vec<usize> = (1..=samples)
+        .filter(|&k| {
+            let left = values[k - 1];
+            let right = if k < samples {
+                values[k + 1]
+            } else {
+                f64::INFINITY
+            };
+            values[k].is_finite() && values[k] <= left && values[k] <= right
+        })
+        .collect();
+    minima.sort_by(|a, b| values[*a].total_cmp(&values[*b]));
+    for &k in minima.iter().take(REFINED) {
+        let g = |s: f64| f.at(&at(s)).bound_or_inf();
+        let lo = s_of(k - 1).max(1e-12 * smax);
+        let hi = s_of((k + 1).min(samples));
+        let (s, v) = golden_min(&g, lo, hi);
+        if v < best.0 {
+            best = (v, at(s));
+        }
+    }
+    let lw = longwave::along(f, &vec![0.0; n.len()], n);
+    if lw.sample.0 < best.0 {
+        best = lw.sample.clone();
+    }
+    let floor = (lw.limit - lw.uncertainty).max(0.0);
+    if floor < best.0 {
+        best = (floor, at(longwave::S0 * 1e-6));
+    }
+    best
+}
