@@ -1,12 +1,13 @@
 //! The `kgain` command line: parses arguments, calls the library, renders errors
 //! once and maps them to exit codes (0 ok, 1 other failure, 2 invalid case or
-//! arguments, 3 unstable with --require-stable). Progress bars, the memory
+//! arguments, 3 unstable with --require-stable or short of --require-margin, with
+//! a one-line JSON verdict on stderr). Progress bars, the memory
 //! pre-flight and the thread policy live here ([`cli`]), not in the library.
 
 mod cli;
 
 use clap::{Parser, Subcommand, ValueEnum};
-use kgain::analysis::{analyse, Verdict};
+use kgain::analysis::analyse;
 use kgain::case::Case;
 use kgain::destination::{CommitError, Destination, DestinationError};
 use kgain::report;
@@ -50,6 +51,10 @@ enum Command {
         /// Exit with status 3 when the scheme is unstable at the case's time step.
         #[arg(long)]
         require_stable: bool,
+        /// Exit with status 3 unless dt <= F x dt_max (F in (0, 1], e.g. 0.8);
+        /// needs the limit analysis.
+        #[arg(long, value_name = "F", value_parser = cli::verdict::parse_margin)]
+        require_margin: Option<f64>,
         /// Print summary.json on stdout instead of the table.
         #[arg(long)]
         json: bool,
@@ -82,7 +87,8 @@ const MAX_THREADS: usize = 1024;
 enum Failure {
     Input(String),
     Other(String),
-    Unstable,
+    /// A failed --require-stable or --require-margin, with its verdict line.
+    Unstable(String),
 }
 
 fn main() -> ExitCode {
@@ -96,16 +102,25 @@ fn main() -> ExitCode {
     };
     match run(cli) {
         Ok(()) => ExitCode::SUCCESS,
-        Err(Failure::Unstable) => ExitCode::from(3),
+        Err(Failure::Unstable(line)) => {
+            say(&line);
+            ExitCode::from(3)
+        }
         Err(Failure::Input(m)) => {
-            eprintln!("kgain: error: {m}");
+            say(&format!("kgain: error: {m}"));
             ExitCode::from(2)
         }
         Err(Failure::Other(m)) => {
-            eprintln!("kgain: error: {m}");
+            say(&format!("kgain: error: {m}"));
             ExitCode::from(1)
         }
     }
+}
+
+/// One line on stderr; a closed or full stderr is ignored (the exit code still
+/// tells), never a panic.
+fn say(line: &str) {
+    let _ = writeln!(std::io::stderr(), "{line}");
 }
 
 /// A refused destination is the user's to fix (exit 2); anything else exit 1.
@@ -154,9 +169,20 @@ fn run(cli: Cli) -> Result<(), Failure> {
             quiet,
             force,
             require_stable,
+            require_margin,
             json,
         } => {
             let case = Case::load(&case, &set).map_err(|e| Failure::Input(e.to_string()))?;
+            let gate = cli::verdict::Gate {
+                stable: require_stable,
+                margin: require_margin,
+            };
+            if gate.margin.is_some() && case.plan.limit.is_none() {
+                return Err(Failure::Input(format!(
+                    "{}: --require-margin needs the limit analysis; add \"limit\" to scan.analyses",
+                    case.file.display()
+                )));
+            }
             let par = match threads {
                 Some(0) => return Err(Failure::Input("--threads must be at least 1".into())),
                 Some(n) if n > MAX_THREADS => {
@@ -173,10 +199,10 @@ fn run(cli: Cli) -> Result<(), Failure> {
             let dest = Destination::claim(&out, report::owner(&case.problem), force)
                 .map_err(destination)?;
             if !quiet && need > 512 << 20 {
-                eprintln!(
+                say(&format!(
                     "kgain: this scan needs about {:.1} GiB of memory",
                     need as f64 / (1u64 << 30) as f64
-                );
+                ));
             }
             let bars = cli::progress::Bars::new(!quiet && std::io::stderr().is_terminal());
             let results = analyse(&case.problem, &case.plan, par, &bars)
@@ -208,8 +234,12 @@ fn run(cli: Cli) -> Result<(), Failure> {
                     Some(&written),
                 ));
             }
-            if require_stable && results.verdict == Verdict::Unstable {
-                return Err(Failure::Unstable);
+            if let Some(line) = gate
+                .active()
+                .then(|| cli::verdict::failure(gate, &results))
+                .flatten()
+            {
+                return Err(Failure::Unstable(line));
             }
             Ok(())
         }

@@ -348,7 +348,7 @@ mod tests {
         // −4 sin²(θ/2) (common practice); 2 cos θ − 2 would lose every digit here.
         let st = catalogue::builtin("central2", 2).unwrap();
         for theta in [1e-3, 1e-6, 1e-9] {
-            let want = -4.0 * (0.5 * theta as f64).sin().powi(2);
+            let want = -4.0 * (0.5f64 * theta).sin().powi(2);
             let got = st.symbol(theta);
             assert!(
                 (got.re - want).abs() <= 4.0 * f64::EPSILON * want.abs(),
@@ -359,7 +359,7 @@ mod tests {
         let up = catalogue::builtin("upwind1", 1).unwrap();
         let theta = 1e-7;
         // 1 − e^{−iθ}: real part 2 sin²(θ/2)
-        let want = 2.0 * (0.5 * theta as f64).sin().powi(2);
+        let want = 2.0 * (0.5f64 * theta).sin().powi(2);
         assert!((up.symbol(theta).re - want).abs() <= 4.0 * f64::EPSILON * want);
     }
 

@@ -188,7 +188,7 @@ pub(super) fn multistep(ms: &Multistep, w: C64) -> f64 {
     let mut last: Option<usize> = None;
     for k in 0..=n {
         // off the stretches, and with a sign clear of rounding
-        if in_stretch[k] || !(samples[k].0.abs() > samples[k].3) {
+        if in_stretch[k] || (samples[k].0.abs() <= samples[k].3 || samples[k].0.is_nan()) {
             continue;
         }
         if let Some(p) = last {

@@ -1,8 +1,9 @@
-//! The command line as a testable value (INTERFACE.md): `kgain run`, `check` and
+//! The command line as a testable value (README: Commands, Output folder): `kgain run`, `check` and
 //! `list` on tiny cases, each test in its own temporary folder. Covers the output
 //! folder's contents, strict JSON, exit codes (0 success, 2 invalid case or
 //! arguments with file, key and line:col in the message, 3 unstable with
-//! --require-stable), the folder-replacement policy and the flags.
+//! --require-stable or short of --require-margin), the folder-replacement
+//! policy and the flags.
 
 #[path = "../support/mod.rs"]
 mod support;
@@ -10,6 +11,7 @@ mod support;
 mod check_list;
 mod extremes;
 mod flags;
+mod gate;
 mod output;
 mod policy;
 mod refusals;

@@ -126,7 +126,7 @@ pub fn limit(s: &Scheme, dom: &Domain, cap: f64) -> Option<LongWave> {
     let mut best: Option<LongWave> = None;
     for n in &dom.long_wave {
         if let Some(lw) = along(s, n, cap) {
-            if best.as_ref().map_or(true, |b| lw.dt < b.dt) {
+            if best.as_ref().is_none_or(|b| lw.dt < b.dt) {
                 best = Some(lw);
             }
         }

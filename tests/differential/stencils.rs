@@ -147,7 +147,7 @@ pub fn random_first(rng: &mut Rng, name: &str) -> Stencil {
     } else {
         (vec![0.0], vec![1.0])
     };
-    let offsets: Vec<f64> = if kind % 2 == 0 {
+    let offsets: Vec<f64> = if kind.is_multiple_of(2) {
         let k = rng.int(1, 3) as i32;
         (-k..=k).filter(|o| *o != 0).map(f64::from).collect()
     } else {

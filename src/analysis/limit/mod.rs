@@ -261,7 +261,7 @@ fn finish(
     if wn > 0.0 && overall.dt_max.is_finite() {
         for (k, n) in dirs.iter().enumerate() {
             let cos = n.iter().zip(w).map(|(a, b)| a * b).sum::<f64>() / wn;
-            if cos >= 1.0 - 1e-12 && !(dt[k] <= overall.dt_max) {
+            if cos >= 1.0 - 1e-12 && (dt[k] > overall.dt_max || dt[k].is_nan()) {
                 dt[k] = overall.dt_max;
                 wavevector[k] = w.clone();
             }
