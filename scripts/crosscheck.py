@@ -199,7 +199,9 @@ def staggered_cases():
         check(e <= 1e-12, f"cavity-yee3d: Yee leapfrog G rebuilt by numpy, max diff {e:.2e}")
         lim = s["limit"]["dt_max"]
         closed = 1 / (c * np.sqrt(sum(1 / x**2 for x in h)))
-        check(abs(lim - closed) <= 1e-6 * closed,
+        # safe side: never above the closed form; near-defective eigenvalues at
+        # the corner where the limit is set pin it to about 2e-6 below
+        check(closed * (1 - 2e-6) <= lim <= closed * (1 + 1e-9),
               f"cavity-yee3d: Yee limit {lim:.10e} vs 1/(c sqrt(sum 1/h^2)) = {closed:.10e}")
 
         load, s = check_samples("cases/estuary-imex.toml", os.path.join(tmp, "i"))

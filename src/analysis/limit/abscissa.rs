@@ -17,6 +17,8 @@ use rayon::prelude::*;
 
 /// How many separated grid nodes are refined.
 const REFINED: usize = 8;
+/// Points per axis of the grid that seeds the search.
+const COARSE: usize = 33;
 
 /// The spectral abscissa at θ when it can be trusted, −∞ otherwise.
 fn abscissa(spectrum: &mut Spectrum, eig: &mut [C64], theta: &[f64]) -> f64 {
@@ -30,6 +32,17 @@ fn abscissa(spectrum: &mut Spectrum, eig: &mut [C64], theta: &[f64]) -> f64 {
 /// rounding), searched on the grid and refined from its best nodes; None when
 /// the largest real part found is not positive.
 pub fn unstable_wavevector(op: &Operator, tolerance: f64, grid: &Grid) -> Option<Vec<f64>> {
+    // Every node of the scan grid is already checked by the first-loss screen
+    // (a node with Re μ > 0 has first loss 0); this search is for regions
+    // narrower than a cell, so a grid of at most COARSE points per axis seeds it.
+    let coarse = Grid::new(
+        &grid
+            .points
+            .iter()
+            .map(|&n| if n > COARSE { COARSE | 1 } else { n })
+            .collect::<Vec<_>>(),
+    );
+    let grid = &coarse;
     let dims = grid.points.len();
     let scored: Vec<(f64, usize)> = (0..grid.len())
         .into_par_iter()

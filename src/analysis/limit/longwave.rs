@@ -83,6 +83,14 @@ pub fn along(f: &dyn FirstLoss, origin: &[f64], n: &[f64]) -> LongWave {
         if values.len() >= 6 && values[values.len() - 3..].iter().all(|v| v.is_infinite()) {
             break;
         }
+        // growing geometrically from the start (each at least 1.5 times the
+        // one before, as c/s for a limit set at finite θ): long waves set no limit
+        if values.len() >= 5
+            && estimates.is_empty()
+            && values.windows(2).all(|w| w[1] >= 1.5 * w[0])
+        {
+            break;
+        }
     }
     let (limit, uncertainty) = conclude(&values, &estimates);
     LongWave {
