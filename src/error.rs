@@ -45,16 +45,24 @@ impl InputError {
     }
 }
 
-/// The candidate closest to `name` (Levenshtein distance, via `strsim`), if it
-/// is close enough to be a likely typo.
+/// The candidate closest to `name` (optimal string alignment distance via
+/// `strsim`, so a swap of two letters counts once), if it is close enough to be
+/// a likely typo, or shares a long stem with it (`matrix` for `matrices`).
 pub fn nearest<'a>(name: &str, candidates: impl IntoIterator<Item = &'a str>) -> Option<&'a str> {
     let lower = name.to_lowercase();
     candidates
         .into_iter()
-        .map(|c| (strsim::levenshtein(&lower, c), c))
-        .filter(|(d, c)| *d <= 2.max(c.len() / 3))
+        .map(|c| (strsim::osa_distance(&lower, c), c))
+        .filter(|(d, c)| *d <= 2.max(c.len() / 3) || shares_stem(&lower, c))
         .min_by_key(|(d, _)| *d)
         .map(|(_, c)| c)
+}
+
+/// Whether `a` and `b` begin with the same five or more characters, making up
+/// at least half of `b`.
+fn shares_stem(a: &str, b: &str) -> bool {
+    let common = a.chars().zip(b.chars()).take_while(|(x, y)| x == y).count();
+    common >= 5 && 2 * common >= b.chars().count()
 }
 
 /// A finite number, or an error at `key`.
@@ -87,5 +95,7 @@ mod tests {
     fn suggests_the_closest_name() {
         assert_eq!(nearest("rk5", ["rk4", "heun", "euler"]), Some("rk4"));
         assert_eq!(nearest("xyzzy", ["rk4", "heun"]), None);
+        assert_eq!(nearest("sacn", ["space", "scan"]), Some("scan"));
+        assert_eq!(nearest("matrix", ["steps", "matrices"]), Some("matrices"));
     }
 }

@@ -54,15 +54,45 @@ pub fn key_at(text: &str, offset: usize) -> Option<String> {
     if let Some(h) = header(line) {
         return Some(h);
     }
-    let key = line
-        .split_once('=')
-        .map(|(k, _)| k.trim().trim_matches('"').to_string())
+    // `key = value`, or a key whose `=` is missing (`courant 1.2`).
+    let key = match line.split_once('=') {
+        Some((k, _)) => k.trim().trim_matches('"').to_string(),
+        None => line
+            .split_whitespace()
+            .next()
+            .filter(|w| w.starts_with(|c: char| c.is_alphabetic()))
+            .unwrap_or("")
+            .to_string(),
+    };
+    let key = Some(key)
         .filter(|k| !k.is_empty() && k.chars().all(|c| c.is_alphanumeric() || "_-.".contains(c)))?;
     let table = text[..start].lines().rev().find_map(header);
     Some(match table {
         Some(t) => format!("{t}.{key}"),
         None => key,
     })
+}
+
+/// The key of a list or inline table left open: for a syntax error about one
+/// that is found at the start of a line, the last `key =` line above it.
+pub fn open_value_key(text: &str, offset: usize, message: &str) -> Option<String> {
+    let offset = offset.min(text.len());
+    let start = text[..offset].rfind('\n').map_or(0, |i| i + 1);
+    let about_value = message.contains("array") || message.contains("inline table");
+    if !about_value || !text[start..offset].trim().is_empty() {
+        return None;
+    }
+    let mut end = start;
+    while end > 0 {
+        let line_start = text[..end - 1].rfind('\n').map_or(0, |i| i + 1);
+        let line = &text[line_start..end];
+        let assigns = line.contains('=') && !line.trim_start().starts_with(['#', '[']);
+        if assigns {
+            return key_at(text, line_start);
+        }
+        end = line_start;
+    }
+    None
 }
 
 /// Applies `KEY=VALUE` overrides; VALUE is parsed as a TOML value, or taken as a
@@ -143,6 +173,22 @@ mod tests {
         let t = "[grid]\nspacing = [1.0]\n\n[time]\nmethod = \"rk4\"\n";
         assert_eq!(key_position(t, "time.method"), Some((5, 10)));
         assert_eq!(key_position(t, "grid.spacing.0"), Some((2, 12)));
+    }
+
+    #[test]
+    fn open_list_is_named_by_its_key() {
+        let t = "[grid]\nspacing = [1.0,\n  2.0\n\n[model]\n";
+        let at = t.find("[model]").unwrap();
+        assert_eq!(
+            open_value_key(t, at, "missing comma between array elements").as_deref(),
+            Some("grid.spacing")
+        );
+        assert_eq!(open_value_key(t, at, "duplicate key"), None);
+        let t = "[time]\ncourant 1.2\n";
+        assert_eq!(
+            key_at(t, t.find("1.2").unwrap()).as_deref(),
+            Some("time.courant")
+        );
     }
 
     #[test]

@@ -6,8 +6,13 @@
 //! misspelt names get the nearest valid one as a hint.
 
 mod convert;
+mod keypath;
 mod locate;
+mod plain;
 mod raw;
+mod read;
+
+pub use read::MAX_BYTES;
 
 use crate::analysis::Plan;
 use crate::error::{nearest, InputError};
@@ -24,6 +29,15 @@ pub enum CaseError {
         file: String,
         /// The cause.
         source: std::io::Error,
+    },
+    /// Not a file one can read a case from: a folder, more than [`MAX_BYTES`],
+    /// or nothing at all.
+    #[error("{file}: {reason}")]
+    Refused {
+        /// The file.
+        file: String,
+        /// Why it is refused.
+        reason: String,
     },
     /// TOML syntax, a wrong type or an unknown key, as reported by the parser.
     #[error("{file}:{line}:{col}: {message}")]
@@ -88,10 +102,7 @@ impl Case {
     /// Reads, overrides and validates a case file.
     pub fn load(path: &Path, overrides: &[String]) -> Result<Case, CaseError> {
         let file = path.display().to_string();
-        let text = std::fs::read_to_string(path).map_err(|source| CaseError::Read {
-            file: file.clone(),
-            source,
-        })?;
+        let text = read::case_text(path, &file)?;
         Self::from_str_with(&text, path, overrides)
     }
 
@@ -99,40 +110,8 @@ impl Case {
     pub fn from_str_with(text: &str, path: &Path, overrides: &[String]) -> Result<Case, CaseError> {
         let file = path.display().to_string();
         let text = locate::apply_overrides(text, &file, overrides)?;
-        let raw: raw::RawCase = toml::from_str(&text).map_err(|e| {
-            let (line, col) = e
-                .span()
-                .map(|s| locate::line_col(&text, s.start))
-                .unwrap_or((1, 1));
-            let message = e.message().trim().to_string();
-            let key = e.span().and_then(|s| locate::key_at(&text, s.start));
-            let message = match (key, message.strip_prefix("missing field `")) {
-                (Some(k), Some(rest)) => {
-                    let field = rest.split('`').next().unwrap_or("");
-                    format!("key `{k}.{field}`: is required ({message})")
-                }
-                (Some(k), None) if message.starts_with("unknown field") => {
-                    let parent = k
-                        .rsplit_once('.')
-                        .map_or("the top level".to_string(), |p| format!("[{}]", p.0));
-                    let words: Vec<&str> = message.split('`').skip(1).step_by(2).collect();
-                    let hint = words
-                        .split_first()
-                        .and_then(|(got, valid)| nearest(got, valid.iter().copied()))
-                        .map(|n| format!(" (hint: did you mean `{n}`?)"))
-                        .unwrap_or_default();
-                    format!("key `{k}`: {message} in {parent}{hint}")
-                }
-                (Some(k), None) => format!("key `{k}`: {message}"),
-                (None, _) => message,
-            };
-            CaseError::Syntax {
-                file: file.clone(),
-                line,
-                col,
-                message,
-            }
-        })?;
+        let raw: raw::RawCase =
+            toml::from_str(&text).map_err(|e| structure_error(&e, &file, &text))?;
         let located = |e: InputError| located(e, &file, &text);
         let problem = convert::builder(&raw, path)
             .and_then(|b| b.build())
@@ -151,6 +130,64 @@ impl Case {
     /// with the key's line and column.
     pub fn error_at(&self, e: InputError) -> CaseError {
         located(e, &self.file.display().to_string(), &self.text)
+    }
+}
+
+/// A structure error of the reader (syntax, a wrong type, a missing or unknown
+/// key) with its line and column, its dotted key and plain words.
+fn structure_error(e: &toml::de::Error, file: &str, text: &str) -> CaseError {
+    let offset = e.span().map(|s| s.start);
+    let (line, col) = offset.map_or((1, 1), |o| locate::line_col(text, o));
+    let raw = e.message().trim();
+    let key = offset.and_then(|o| {
+        keypath::path_at(text, o)
+            .or_else(|| locate::open_value_key(text, o, raw))
+            .or_else(|| locate::key_at(text, o))
+    });
+    let message = if let Some(rest) = raw.strip_prefix("missing field `") {
+        let field = rest.split('`').next().unwrap_or("");
+        // The error points at the table that lacks the field, or at the top.
+        let (parent, written) = key
+            .and_then(|k| keypath::keys_at(text, &k).map(|w| (k, w)))
+            .unwrap_or_else(|| {
+                (
+                    String::new(),
+                    keypath::keys_at(text, "").unwrap_or_default(),
+                )
+            });
+        let full = match parent.as_str() {
+            "" => field.to_string(),
+            p => format!("{p}.{field}"),
+        };
+        let hint = written
+            .iter()
+            .find(|w| 2 * strsim::osa_distance(w, field) < field.len())
+            .map(|w| format!(" (hint: `{w}` is written instead; did you mean `{field}`?)"))
+            .unwrap_or_default();
+        format!("key `{full}`: is required but missing{hint}")
+    } else if let (Some(k), true) = (&key, raw.starts_with("unknown field")) {
+        let parent = k
+            .rsplit_once('.')
+            .map_or("at the top level".to_string(), |p| format!("in [{}]", p.0));
+        let words: Vec<&str> = raw.split('`').skip(1).step_by(2).collect();
+        let (got, valid) = words.split_first().unwrap_or((&"", &[]));
+        let hint = nearest(got, valid.iter().copied())
+            .map(|n| format!(" (hint: did you mean `{n}`?)"))
+            .unwrap_or_default();
+        format!(
+            "key `{k}`: unknown key {parent}; the keys there are {}{hint}",
+            valid.join(", ")
+        )
+    } else if let Some(k) = &key {
+        format!("key `{k}`: {}", plain::plain(raw, k))
+    } else {
+        raw.to_string()
+    };
+    CaseError::Syntax {
+        file: file.to_string(),
+        line,
+        col,
+        message,
     }
 }
 
