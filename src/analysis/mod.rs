@@ -21,6 +21,7 @@
 pub mod cautions;
 pub mod context;
 pub mod dispersion;
+pub mod footprint;
 pub mod growth;
 pub mod limit;
 pub mod modes;
@@ -210,24 +211,6 @@ impl Plan {
             d.check()?;
         }
         Ok(())
-    }
-
-    /// Estimated bytes of memory the analyses need: per wavevector, the sweep's
-    /// working values and every output array.
-    pub fn memory_estimate(&self, problem: &Problem) -> u128 {
-        let nodes: u128 = self.points.iter().map(|&n| n as u128).product();
-        let (m, levels) = (problem.system.size(), problem.method.levels());
-        let mut per = 0u128;
-        if self.radius.is_some() || self.limit.is_some() {
-            per += 24 + 8;
-        }
-        if let Some(g) = &self.growth {
-            per += g.bytes_per_node();
-        }
-        if let Some(d) = &self.dispersion {
-            per += d.bytes_per_node(m, levels, problem.dims());
-        }
-        nodes * per
     }
 }
 

@@ -8,6 +8,12 @@ use crate::analysis::Results;
 use crate::problem::{Problem, Step};
 use serde_json::{json, Value};
 
+/// Worker threads the memory estimate assumes: one per core, as a run without
+/// `--threads` uses.
+fn estimate_threads() -> usize {
+    std::thread::available_parallelism().map_or(1, |n| n.get())
+}
+
 /// The content of summary.json.
 pub fn summary_json(problem: &Problem, r: &Results) -> Value {
     let mut s = json!({
@@ -31,6 +37,10 @@ pub fn summary_json(problem: &Problem, r: &Results) -> Value {
         "reference_speed": num(problem.system.reference_speed),
         "reference_spacing": num(problem.reference_spacing()),
         "tolerance": r.plan.tolerance,
+        "resources": {
+            "memory_estimate_bytes": r.plan.memory_estimate(problem, estimate_threads()).min(u64::MAX as u128) as u64,
+            "memory_estimate_threads": estimate_threads(),
+        },
         "definitions": {
             "theta": "wavevector coordinates theta_d = k_d h_d, radians, over [-pi, pi]",
             "reference_speed": "s = largest characteristic speed of the continuous system over all directions",

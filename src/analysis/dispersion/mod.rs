@@ -30,14 +30,6 @@ impl DispersionParams {
     pub fn check(&self) -> Result<(), crate::error::InputError> {
         crate::error::positive("scan.phase_tolerance", self.phase_tolerance).map(|_| ())
     }
-
-    /// Bytes per wavevector for `m` variables, `levels` time levels, `dims` axes:
-    /// matched ω (3 sets), group velocities (2), then the written copies and maps.
-    pub fn bytes_per_node(&self, m: usize, levels: usize, dims: usize) -> u128 {
-        let (m, big_m, d) = (m as u128, (m * levels) as u128, dims as u128);
-        let work = 16 * (2 * m + big_m) + 16 * m * d + 3 * 24;
-        2 * work + 6 * 8 * m
-    }
 }
 
 impl Default for DispersionParams {

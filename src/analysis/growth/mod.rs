@@ -50,11 +50,6 @@ impl GrowthParams {
         }
         Ok(())
     }
-
-    /// Bytes per wavevector: the three maps and the per-node peak.
-    pub fn bytes_per_node(&self) -> u128 {
-        48 + 2 * 24
-    }
 }
 
 impl Default for GrowthParams {
