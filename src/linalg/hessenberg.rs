@@ -152,7 +152,7 @@ mod tests {
         hd.flat_mut().copy_from_slice(a.as_flattened());
         reduce(&mut hd, None, &mut [ZERO; 16]);
         assert_eq!(hd.flat(), h.as_flattened());
-        let fro: f64 = a.iter().flatten().map(|z| z.norm_sqr()).sum::<f64>().sqrt();
+        let fro: f64 = crate::linalg::nonnormal::frobenius(a.iter().flatten().copied());
         for i in 0..N {
             for j in 0..N {
                 if i > j + 1 {

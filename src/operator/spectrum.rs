@@ -124,7 +124,9 @@ impl<'a> Spectrum<'a> {
         // a 1×1 symbol is its own eigenvalue, exactly
         let noise = match op.m {
             1 => 0.0,
-            _ => 64.0 * f64::EPSILON * self.sym.iter().map(|z| z.norm_sqr()).sum::<f64>().sqrt(),
+            _ => {
+                64.0 * f64::EPSILON * crate::linalg::nonnormal::frobenius(self.sym.iter().copied())
+            }
         };
         let axis = |mu: C64| {
             if split {

@@ -77,6 +77,29 @@ fn large_but_representable_values_still_run() {
 }
 
 #[test]
+fn a_huge_mean_flow_keeps_its_courant_limit() {
+    // Acoustics with u = 1e300 ≫ c: L has entries near 1e300, whose squares
+    // overflow. The Courant limit (in s = |u| + c) must be the one of u = 1e12,
+    // where c is already negligible: once, the overflowing rounding level
+    // zeroed every eigenvalue and the limit came out 1e298 times too large.
+    let courant = |u: &str| {
+        let t = format!(
+            "[grid]\nspacing = [1.0, 1.0]\n[model]\nkind = \"acoustics\"\nsound_speed = 1.0\nvelocity = [{u}, 0.0]\n[time]\nmethod = \"rk4\"\ncourant = 0.5\n[scan]\npoints = [17, 17]\nanalyses = [\"limit\"]\n"
+        );
+        let cf = CaseFile::new("case", &t);
+        let (out, _) = run_ok(&cf, &["--quiet"]);
+        let s = read_json(&out.join("summary.json"));
+        s["limit"]["courant_max"]
+            .as_f64()
+            .expect("a bounded Courant limit")
+    };
+    let (huge, big) = (courant("1e300"), courant("1e12"));
+    assert_close(huge, big, 1e-6, "Courant limit at u = 1e300 vs 1e12");
+    // RK4 + C2 along x: 2√2 (Hairer & Wanner II), set by the flow
+    assert_close(big, 2.0 * SQRT_2, 1e-6, "Courant limit at u = 1e12");
+}
+
+#[test]
 fn counts_beyond_their_caps_are_refused_with_the_figure() {
     let base = |scan: &str| {
         case_1d(
