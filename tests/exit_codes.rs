@@ -3,23 +3,12 @@
 //! refused destination, 3 unstable with --require-stable), each run in its own
 //! temporary folder and each asserting the exact code.
 
+#[path = "support/mod.rs"]
+mod support;
+
 use std::path::Path;
 use std::process::Command;
-
-/// A 1-D RK4 + central2 advection case; with a = h = 1 it is stable for
-/// Courant numbers up to 2√2 ≈ 2.828 (from memory: the RK4 stability interval on
-/// the imaginary axis, times the largest C2 symbol 1).
-const LINE: &str = r#"[grid]
-spacing = [1.0]
-[model]
-kind = "advection"
-velocity = [1.0]
-[time]
-method = "rk4"
-courant = 1.0
-[scan]
-points = [33]
-"#;
+use support::RK4_LINE as LINE;
 
 /// One row of the matrix: a name, the arguments, the exit code.
 struct Row {

@@ -6,19 +6,7 @@ use super::*;
 #[test]
 fn require_stable_exits_three_when_unstable_and_zero_when_stable() {
     // RK4 + C2 (a = h = 1, 1D): stable iff ν ≤ 2√2 = 2.8284… (Hairer & Wanner, Solving ODEs II).
-    let text = r#"
-[grid]
-spacing = [1.0]
-[model]
-kind = "advection"
-velocity = [1.0]
-[time]
-method = "rk4"
-courant = 1.0
-[scan]
-points = [33]
-"#;
-    let cf = CaseFile::new("line", text);
+    let cf = CaseFile::new("line", support::RK4_LINE);
     for (nu, code) in [(2.82, 0), (2.84, 3)] {
         let res = kgain()
             .current_dir(cf.root())

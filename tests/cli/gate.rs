@@ -4,20 +4,9 @@
 
 use super::*;
 
-/// RK4 + C2, a = h = 1, 1-D: dt_max = 2√2 (the imaginary-axis reach of RK4,
-/// Hairer & Wanner, Solving ODEs II), so the Courant number is the ratio × 2√2.
-const LINE: &str = r#"
-[grid]
-spacing = [1.0]
-[model]
-kind = "advection"
-velocity = [1.0]
-[time]
-method = "rk4"
-courant = 1.0
-[scan]
-points = [33]
-"#;
+/// RK4 + C2, a = h = 1, 1-D: dt_max = 2√2, so the Courant number is the
+/// ratio × 2√2.
+const LINE: &str = support::RK4_LINE;
 
 fn run_gate(cf: &CaseFile, courant: f64, extra: &[&str]) -> (Option<i32>, String) {
     let res = kgain()

@@ -13,6 +13,22 @@ use kgain::sample::{NoProgress, Par};
 use num_complex::Complex64 as C64;
 use std::path::{Path, PathBuf};
 
+/// A 1-D RK4 + central2 advection case at Courant number 1; with a = h = 1 it is
+/// stable for Courant numbers up to 2√2 ≈ 2.828 (the reach of RK4 on the
+/// imaginary axis, Hairer & Wanner, Solving ODEs II, times the largest C2
+/// symbol 1).
+pub const RK4_LINE: &str = r#"[grid]
+spacing = [1.0]
+[model]
+kind = "advection"
+velocity = [1.0]
+[time]
+method = "rk4"
+courant = 1.0
+[scan]
+points = [33]
+"#;
+
 /// Unit roundoff of f64 (the ε of every tolerance in these tests).
 pub const EPS: f64 = f64::EPSILON;
 
