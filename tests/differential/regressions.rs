@@ -152,6 +152,15 @@ fn direction_whose_bounds_fall_to_zero_is_none() {
     assert_seed_agrees(76);
 }
 
+/// BDF2 on a 1-D 2×2 system whose source has Re μ = 1.7e-4 > 0 at θ = 0: no
+/// Δt is stable. Once failed: overall was none, but each direction reported a
+/// bounded 5e-13 (ρ − 1 stays inside the rounding tolerance up to there); the
+/// rays now check the spectral abscissa along themselves.
+#[test]
+fn direction_through_an_unstable_source_is_none() {
+    assert_seed_agrees(522);
+}
+
 /// A seed the engine passes today (keeps the helper itself tested).
 #[test]
 fn passing_seed_agrees_with_the_reference() {

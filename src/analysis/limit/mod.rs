@@ -185,6 +185,9 @@ pub(super) fn by_first_exit(
     let dirs = limit_directions(ctx.problem.dims(), count);
     let per_ray = (ctx.grid.points.iter().max().copied().unwrap_or(2) / 2).max(32);
     let res = along_rays(ctx, &dirs, |n| {
+        if let Some(theta) = abscissa::unstable_on_ray(op, tol, n, per_ray) {
+            return (0.0, theta);
+        }
         rays::ray_limit(&loss::Exact::new(op, exits, tol), n, per_ray)
     });
     finish(ctx, overall, bracket, dirs, res, FoundBy::FirstExit, None)
@@ -204,6 +207,9 @@ pub(super) fn by_search(ctx: &Context, ev: &CompositeEval, count: usize) -> Limi
     let res = along_rays(ctx, &dirs, |n| {
         if overall.kind == LimitKind::None && overall.wavevector.iter().all(|x| *x == 0.0) {
             return (0.0, vec![0.0; n.len()]);
+        }
+        if let Some(theta) = abscissa::unstable_on_ray(&ctx.op, ctx.plan.tolerance, n, per_ray) {
+            return (0.0, theta);
         }
         rays::ray_limit(&search::PerTheta::new(ev, floor), n, per_ray)
     });
