@@ -10,7 +10,7 @@ pub mod grid;
 pub mod sweep;
 
 pub use grid::{axis_coords, ray_length, Grid};
-pub use sweep::{computed_rows, map, sweep, sweep_rows, Node, Symmetry};
+pub use sweep::{computed_rows, map, map_with, sweep, sweep_rows, Node, Symmetry};
 
 /// Degree of parallelism.
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]

@@ -196,3 +196,34 @@ where
     };
     by_rows(grid, par, Span::Grid(symmetry), progress, init, work)
 }
+
+/// Evaluates `f(workspace, θ)` at every grid node in C order, with one
+/// workspace from `init` per worker (for per-node work that reuses buffers).
+pub fn map_with<T, W, I, F>(
+    grid: &Grid,
+    par: Par,
+    symmetry: Symmetry,
+    progress: &dyn Progress,
+    init: I,
+    f: F,
+) -> Vec<T>
+where
+    T: Send + Clone + Default,
+    W: Send,
+    I: Fn() -> W + Sync + Send,
+    F: Fn(&mut W, &[f64]) -> T + Sync,
+{
+    let dims = grid.points.len();
+    let row = grid.points[dims - 1];
+    let init = || (init(), vec![0usize; dims], vec![0.0; dims]);
+    let work = |(ws, idx, theta): &mut (W, Vec<usize>, Vec<f64>), (r, chunk): (usize, &mut [T])| {
+        for (j, slot) in chunk.iter_mut().enumerate() {
+            grid.unravel(r * row + j, idx);
+            for d in 0..dims {
+                theta[d] = grid.coords[d][idx[d]];
+            }
+            *slot = f(ws, theta);
+        }
+    };
+    by_rows(grid, par, Span::Grid(symmetry), progress, init, work)
+}

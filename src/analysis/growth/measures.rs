@@ -4,12 +4,15 @@
 //!
 //! One Schur factorisation G = QTQᴴ per wavevector serves everything:
 //! ‖Gⁿ‖₂ = ‖Tⁿ‖₂, and the powers of the triangular T are formed with a running
-//! scale so they cannot overflow. The envelope is exact without an SVD at every
-//! (θ, n): ‖Tⁿ‖_F bounds ‖Tⁿ‖₂ from above and the largest column norm and ρ(T)ⁿ
-//! from below; an exact 2-norm is computed only where the upper bound beats the
-//! best lower bound found so far over the whole grid (shared atomically).
+//! scale so they cannot overflow ([`super::powers`]). The envelope is exact
+//! without an SVD at every (θ, n): cheap certified bounds bracket ‖Tⁿ‖₂, and an
+//! exact 2-norm is computed only where the upper bound beats the best value
+//! found so far over the whole grid (shared atomically). The per-wavevector
+//! work runs in a [`NodeWorkspace`] and allocates nothing.
 
-use crate::linalg::dense;
+use super::powers::PowerWorkspace;
+use crate::linalg::nonnormal::{self, ConditionWorkspace};
+use crate::linalg::{dense, from_matrix, SchurSolver, SvdSolver};
 use nalgebra::DMatrix;
 use num_complex::Complex64 as C64;
 use std::sync::atomic::{AtomicU64, Ordering};
@@ -54,44 +57,17 @@ impl Envelope {
         self.best[n].fetch_max(v.to_bits(), Ordering::Relaxed);
     }
 
+    /// The smallest envelope value over the steps after n (∞ when none).
+    pub fn smallest_after(&self, n: usize) -> f64 {
+        (n + 1..self.best.len())
+            .map(|k| self.get(k))
+            .fold(f64::INFINITY, f64::min)
+    }
+
     /// The envelope values.
     pub fn values(&self) -> Vec<f64> {
         (0..self.best.len()).map(|n| self.get(n)).collect()
     }
-}
-
-/// Exact ‖Tⁿ‖₂ at the steps `want` (ascending), by scaled powers.
-fn exact_norms(
-    t: &DMatrix<C64>,
-    steps: usize,
-    mut want: impl FnMut(usize, f64, f64) -> bool,
-) -> Vec<(usize, f64)> {
-    let m = t.nrows();
-    let mut p = DMatrix::<C64>::identity(m, m);
-    let mut log_scale = 0.0f64;
-    let mut out = Vec::new();
-    let rho = (0..m).map(|i| t[(i, i)].norm()).fold(0.0, f64::max);
-    for n in 0..=steps {
-        if n > 0 {
-            p = &p * t;
-            let f = dense::frobenius(&p);
-            if f > 1e100 || (f < 1e-100 && f > 0.0) {
-                p /= C64::new(f, 0.0);
-                log_scale += f.ln();
-            }
-        }
-        let s = log_scale.exp();
-        let fro = dense::frobenius(&p) * s;
-        let col = (0..m)
-            .map(|j| (0..m).map(|i| p[(i, j)].norm_sqr()).sum::<f64>().sqrt())
-            .fold(0.0, f64::max)
-            * s;
-        let lower = col.max(rho.powi(n as i32));
-        if want(n, fro, lower) {
-            out.push((n, dense::norm2(&p) * s));
-        }
-    }
-    out
 }
 
 /// ‖Gⁿ‖₂ for n = 0..=steps of one matrix (exact at every step; for tests and refinement).
@@ -99,48 +75,119 @@ pub fn power_norms(g: &DMatrix<C64>, steps: usize) -> Vec<f64> {
     let Some((_, t)) = dense::schur(g) else {
         return vec![f64::NAN; steps + 1];
     };
-    exact_norms(&t, steps, |_, _, _| true)
-        .into_iter()
-        .map(|(_, v)| v)
-        .collect()
+    let mut out = vec![f64::NAN; steps + 1];
+    PowerWorkspace::new(t.nrows().max(1)).walk(
+        &from_matrix(&t),
+        steps,
+        |_, _| true,
+        |n, v| out[n] = v,
+        |_| f64::INFINITY,
+    );
+    out
 }
 
-/// Measures at one wavevector, offering its powers to the envelope; returns the
-/// measures and this node's own peak (value, step) over the values it knows
-/// exactly or as a lower bound — the largest of these over all nodes is the
-/// peak of the envelope.
-pub fn node(g: &DMatrix<C64>, steps: usize, env: &Envelope) -> (NodeMeasures, (f64, usize)) {
-    let Some((_, t)) = dense::schur(g) else {
-        let nan = NodeMeasures {
-            norm: f64::NAN,
-            departure: f64::NAN,
-            condition: f64::NAN,
-            radius: f64::NAN,
-            defective: f64::NAN,
-        };
-        return (nan, (f64::NAN, 0));
-    };
-    let m = t.nrows();
-    let measures = NodeMeasures {
-        norm: dense::norm2(g),
-        departure: dense::departure(&t),
-        condition: dense::eigvec_condition(g, &t),
-        radius: (0..m).map(|i| t[(i, i)].norm()).fold(0.0, f64::max),
-        defective: dense::defective_modulus(&t).unwrap_or(f64::NAN),
-    };
-    let mut peak = (f64::NEG_INFINITY, 0usize);
-    let exact = exact_norms(&t, steps, |n, upper, lower| {
-        env.offer(n, lower);
-        if lower > peak.0 {
-            peak = (lower, n);
-        }
-        upper > env.get(n)
-    });
-    for (n, v) in &exact {
-        env.offer(*n, *v);
-        if *v > peak.0 {
-            peak = (*v, *n);
+/// Reusable kernels and buffers for [`NodeWorkspace::node`]: one per worker,
+/// so the per-wavevector work allocates nothing.
+pub struct NodeWorkspace {
+    m: usize,
+    g: Vec<C64>,
+    t: Vec<C64>,
+    q: Vec<C64>,
+    schur: SchurSolver,
+    svd: SvdSolver,
+    condition: ConditionWorkspace,
+    powers: PowerWorkspace,
+}
+
+impl NodeWorkspace {
+    /// A workspace for m×m amplification matrices (m ≥ 1).
+    pub fn new(m: usize) -> Self {
+        let zero = C64::new(0.0, 0.0);
+        Self {
+            m,
+            g: vec![zero; m * m],
+            t: vec![zero; m * m],
+            q: vec![zero; m * m],
+            schur: SchurSolver::new(m),
+            svd: SvdSolver::new(m),
+            condition: ConditionWorkspace::new(m),
+            powers: PowerWorkspace::new(m),
         }
     }
-    (measures, peak)
+
+    /// Measures at one wavevector, offering its powers to the envelope; returns
+    /// the measures and this node's own peak (value, step) over the values it
+    /// knows exactly or as a lower bound — the largest of these over all nodes
+    /// is the peak of the envelope. An exact ‖Tⁿ‖₂ is computed only where the
+    /// node's certified upper bound beats the envelope found so far.
+    pub fn node(
+        &mut self,
+        g: &DMatrix<C64>,
+        steps: usize,
+        env: &Envelope,
+    ) -> (NodeMeasures, (f64, usize)) {
+        let m = self.m;
+        assert_eq!(g.shape(), (m, m), "amplification matrix has the wrong size");
+        for i in 0..m {
+            for j in 0..m {
+                self.g[i * m + j] = g[(i, j)];
+            }
+        }
+        if self
+            .schur
+            .decompose(&self.g, &mut self.t, &mut self.q)
+            .is_err()
+        {
+            let nan = NodeMeasures {
+                norm: f64::NAN,
+                departure: f64::NAN,
+                condition: f64::NAN,
+                radius: f64::NAN,
+                defective: f64::NAN,
+            };
+            return (nan, (f64::NAN, 0));
+        }
+        let t = &self.t;
+        let condition = nonnormal::eigvec_condition(t, &mut self.condition).unwrap_or(f64::NAN);
+        let defective = if condition.is_infinite() {
+            nonnormal::defective_modulus(t, &mut self.condition)
+                .ok()
+                .flatten()
+                .unwrap_or(f64::NAN)
+        } else {
+            f64::NAN
+        };
+        let measures = NodeMeasures {
+            norm: self.svd.norm2(&self.g).unwrap_or(f64::NAN),
+            departure: nonnormal::departure(t, m),
+            condition,
+            radius: (0..m).map(|i| t[i * m + i].norm()).fold(0.0, f64::max),
+            defective,
+        };
+        let mut peak = (f64::NEG_INFINITY, 0usize);
+        let peak_cell = std::cell::Cell::new(peak);
+        self.powers.walk(
+            t,
+            steps,
+            |n, b| {
+                env.offer(n, b.lower);
+                let mut p = peak_cell.get();
+                if b.lower > p.0 {
+                    p = (b.lower, n);
+                    peak_cell.set(p);
+                }
+                b.upper > env.get(n)
+            },
+            |n, v| {
+                env.offer(n, v);
+                let p = peak_cell.get();
+                if v > p.0 {
+                    peak_cell.set((v, n));
+                }
+            },
+            |n| env.smallest_after(n),
+        );
+        peak = peak_cell.get();
+        (measures, peak)
+    }
 }

@@ -7,12 +7,13 @@
 //! work, [`resolvent`] the measures of one matrix.
 
 pub mod measures;
+pub mod powers;
 pub mod resolvent;
 
 use super::context::Context;
 use super::norm::NormTransform;
 use crate::sample::{self, Stage};
-use measures::{Envelope, NodeMeasures};
+use measures::{Envelope, NodeMeasures, NodeWorkspace};
 
 pub use measures::power_norms;
 pub use resolvent::{kreiss_lower_bound, optimal_perturbation, pseudospectral_radius};
@@ -136,11 +137,20 @@ pub(super) fn analyse(ctx: &Context, p: &GrowthParams) -> GrowthResult {
     let (grid, dt, steps) = (&ctx.grid, ctx.dt, p.steps);
     let w = NormTransform::new(ctx.problem, p.weights.as_deref());
     let env = Envelope::new(steps);
+    let size = ctx.problem.system.size() * ctx.problem.method.levels();
+    // The long-wave node first: there G ≈ I, so the envelope starts near 1 and
+    // the other nodes' powers can stop as soon as they provably stay below it.
+    let origin: Vec<f64> = grid.coords.iter().map(|c| nearest_to_zero(c)).collect();
+    NodeWorkspace::new(size).node(&w.weighted(ctx.amplification(&origin, dt)), steps, &env);
     ctx.progress.start(Stage::Growth, grid.len() as u64);
-    let nodes: Vec<(NodeMeasures, (f64, usize))> =
-        sample::map(grid, ctx.par, ctx.symmetry(), ctx.progress, |th| {
-            measures::node(&w.weighted(ctx.amplification(th, dt)), steps, &env)
-        });
+    let nodes: Vec<(NodeMeasures, (f64, usize))> = sample::map_with(
+        grid,
+        ctx.par,
+        ctx.symmetry(),
+        ctx.progress,
+        || NodeWorkspace::new(size),
+        |ws, th| ws.node(&w.weighted(ctx.amplification(th, dt)), steps, &env),
+    );
     ctx.progress.finish();
     let envelope = env.values();
     let (ipk, (pv, pn)) = nodes
@@ -164,7 +174,6 @@ pub(super) fn analyse(ctx: &Context, p: &GrowthParams) -> GrowthResult {
         .map(|n| n.0.radius)
         .filter(|v| !v.is_nan())
         .fold(0.0, f64::max);
-    let size = ctx.problem.system.size() * ctx.problem.method.levels();
     let kreiss = {
         let k = resolvent::kreiss_lower_bound(&g_peak);
         k.is_finite().then(|| Kreiss {
@@ -213,6 +222,15 @@ pub(super) fn analyse(ctx: &Context, p: &GrowthParams) -> GrowthResult {
         class,
         verdict,
     }
+}
+
+/// The grid coordinate nearest to 0 on one axis.
+fn nearest_to_zero(coords: &[f64]) -> f64 {
+    coords
+        .iter()
+        .copied()
+        .min_by(|a, b| a.abs().total_cmp(&b.abs()))
+        .unwrap_or(0.0)
 }
 
 /// The verdict from the envelope, the largest radius and the defective count.
