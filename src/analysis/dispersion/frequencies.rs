@@ -31,19 +31,29 @@ const START: f64 = 1e-4;
 fn assign(target: &[C64], new: &[C64]) -> Vec<C64> {
     let m = target.len();
     if m <= 4 {
-        let mut perm: Vec<usize> = (0..m).collect();
-        let mut best = (f64::INFINITY, perm.clone());
-        permute(&mut perm, 0, &mut |p| {
-            let cost: f64 = p
+        // distances once (m² moduli), then every permutation sums from the table
+        let mut dist = [[0.0f64; 4]; 4];
+        for (i, t) in target.iter().enumerate() {
+            for (j, n) in new.iter().enumerate().take(m) {
+                dist[i][j] = (t - n).norm();
+            }
+        }
+        let mut best = (f64::INFINITY, 0usize);
+        let perms = &permutations()[m];
+        for (k, p) in perms.iter().enumerate() {
+            let cost: f64 = p[..m]
                 .iter()
                 .enumerate()
-                .map(|(i, &j)| (target[i] - new[j]).norm())
+                .map(|(i, &j)| dist[i][j as usize])
                 .sum();
             if cost < best.0 {
-                best = (cost, p.to_vec());
+                best = (cost, k);
             }
-        });
-        best.1.iter().map(|&j| new[j]).collect()
+        }
+        perms[best.1][..m]
+            .iter()
+            .map(|&j| new[j as usize])
+            .collect()
     } else {
         let mut pairs: Vec<(f64, usize, usize)> = Vec::with_capacity(m * new.len());
         for (i, t) in target.iter().enumerate() {
@@ -63,6 +73,26 @@ fn assign(target: &[C64], new: &[C64]) -> Vec<C64> {
         }
         out
     }
+}
+
+/// Every permutation of 0..m for m = 0..=4, in the order [`permute`] visits
+/// them (the first of equal-cost assignments wins, as before the table).
+fn permutations() -> &'static [Vec<[u8; 4]>; 5] {
+    static TABLE: std::sync::OnceLock<[Vec<[u8; 4]>; 5]> = std::sync::OnceLock::new();
+    TABLE.get_or_init(|| {
+        std::array::from_fn(|m| {
+            let mut out = Vec::new();
+            let mut p: Vec<usize> = (0..m).collect();
+            permute(&mut p, 0, &mut |q| {
+                let mut a = [0u8; 4];
+                for (x, y) in a.iter_mut().zip(q) {
+                    *x = *y as u8;
+                }
+                out.push(a);
+            });
+            out
+        })
+    })
 }
 
 fn permute(p: &mut [usize], k: usize, f: &mut impl FnMut(&[usize])) {
