@@ -218,31 +218,55 @@ pub fn list_stencils() -> String {
     s
 }
 
+/// The order column of `kgain list methods`: for methods with a Butcher
+/// tableau, the order from the order conditions, and the linear order of the
+/// stability function after it when the two differ ("2 (lin. 4)").
+fn order_text(name: &str, m: &time::Method) -> String {
+    match time::presets::tableau(name) {
+        Some(t) => {
+            let nonlinear = time::order::order(&t);
+            if nonlinear == m.order {
+                nonlinear.to_string()
+            } else {
+                format!("{nonlinear} (lin. {})", m.order)
+            }
+        }
+        None => m.order.to_string(),
+    }
+}
+
 /// Built-in time methods with their stability intervals, computed here.
 pub fn list_methods() -> String {
     let mut s = format!(
-        "time methods (stability limits computed from each method's region)\n  {:<16}{:>6}{:>10}{:>8}{:>18}{:>18}\n",
-        "name", "order", "kind", "levels", "imaginary axis", "negative real"
+        "time methods (order from the order conditions, \"lin.\" the order on linear problems where it differs; stability limits computed from each method's region)\n  {:<16}{:>12}{:>8}{:>10}{:>8}{:>18}{:>18}\n",
+        "name", "order", "stages", "kind", "levels", "imaginary axis", "negative real"
     );
     for name in time::method_names() {
         let m = match name {
             "theta" => time::methods::theta(0.5).expect("valid theta"),
-            "tableau" => continue,
+            "tableau" | "low-storage" => continue,
             n => time::builtin(n).expect("listed methods exist"),
         };
         let label = if name == "theta" { "theta (0.5)" } else { name };
+        let stages = time::methods::stages(name).map_or("-".to_string(), |n| n.to_string());
         let _ = writeln!(
             s,
-            "  {:<16}{:>6}{:>10}{:>8}{:>18}{:>18}",
+            "  {:<16}{:>12}{:>8}{:>10}{:>8}{:>18}{:>18}",
             label,
-            m.order,
+            order_text(name, &m),
+            stages,
             if m.explicit { "explicit" } else { "implicit" },
             m.levels(),
             limit_text(m.imaginary_limit()),
             limit_text(m.real_limit())
         );
     }
-    s.push_str("  tableau: any Butcher tableau (time.tableau = { a = [[..]], b = [..] })\n");
+    s.push_str("presets from published coefficients\n");
+    for p in time::presets::PRESETS {
+        let _ = writeln!(s, "  {:<16}{}", p.name, p.source);
+    }
+    s.push_str("  tableau: any Butcher tableau (time.tableau = { a = [[..]], b = [..] }; entries may be fractions in quotes, \"1/6\")\n");
+    s.push_str("  low-storage: any 2N scheme by its coefficients (time.low_storage = { a = [..], b = [..] })\n");
     s.push_str("composite schemes (limit by a verified search on dt)\n");
     for (n, d) in [
         ("forward-backward", "variables updated in order (time.first or time.sequence), each with the newest values; the Yee leapfrog"),

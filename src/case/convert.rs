@@ -2,6 +2,7 @@
 //! value check is the builder's and the plan's; this only maps case-file tables
 //! to their calls and turns TOML values into model parameters.
 
+use super::rational::values;
 use super::raw::{OneOrMany, RawCase, RawScan};
 use crate::analysis::{DispersionParams, GrowthParams, LimitParams, Plan};
 use crate::error::{positive, InputError};
@@ -71,10 +72,13 @@ pub(super) fn builder(raw: &RawCase, path: &Path) -> Result<ProblemBuilder, Inpu
     }
     if let Some(tb) = &t.tableau {
         b = b.tableau(TableauSpec {
-            a: tb.a.clone(),
-            b: tb.b.clone(),
-            c: tb.c.clone(),
+            a: tb.a.iter().map(|row| values(row)).collect(),
+            b: values(&tb.b),
+            c: tb.c.as_deref().map(values),
         });
+    }
+    if let Some(spec) = super::lowstorage::tableau(t)? {
+        b = b.method("tableau").tableau(spec);
     }
     fn names(v: &[String]) -> Vec<&str> {
         v.iter().map(String::as_str).collect()

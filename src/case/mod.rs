@@ -8,7 +8,9 @@
 mod convert;
 mod keypath;
 mod locate;
+mod lowstorage;
 mod plain;
+mod rational;
 mod raw;
 mod read;
 

@@ -1,6 +1,7 @@
 //! The serde mirror of the case file: every table refuses unknown keys, so a
 //! misspelt key is an error that names it, with its line and column.
 
+use super::rational::Coefficient;
 use serde::Deserialize;
 use std::collections::BTreeMap;
 
@@ -79,6 +80,7 @@ pub struct RawTime {
     pub dt: Option<f64>,
     pub theta: Option<f64>,
     pub tableau: Option<RawTableau>,
+    pub low_storage: Option<RawLowStorage>,
     pub first: Option<Vec<String>>,
     pub sequence: Option<Vec<String>>,
     pub splitting: Option<String>,
@@ -87,9 +89,17 @@ pub struct RawTime {
 #[derive(Debug, Clone, Deserialize)]
 #[serde(deny_unknown_fields)]
 pub struct RawTableau {
-    pub a: Vec<Vec<f64>>,
-    pub b: Vec<f64>,
-    pub c: Option<Vec<f64>>,
+    pub a: Vec<Vec<Coefficient>>,
+    pub b: Vec<Coefficient>,
+    pub c: Option<Vec<Coefficient>>,
+}
+
+/// A 2N low-storage scheme by its coefficients A_1..A_s and B_1..B_s.
+#[derive(Debug, Clone, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct RawLowStorage {
+    pub a: Vec<Coefficient>,
+    pub b: Vec<Coefficient>,
 }
 
 #[derive(Debug, Clone, Default, Deserialize)]

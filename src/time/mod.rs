@@ -11,10 +11,14 @@
 //! `exit` computes the first-exit radius r*(φ) of each region along a ray, the
 //! quantity behind the stability limit (README: The largest stable time step).
 
+pub mod butcher;
 pub mod composite;
 mod exit;
 pub mod increment;
+pub mod lowstorage;
 pub mod methods;
+pub mod order;
+pub mod presets;
 
 use nalgebra::DMatrix;
 use num_complex::Complex64 as C64;
