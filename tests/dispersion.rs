@@ -246,3 +246,47 @@ fn leapfrog_group_velocity_follows_its_discrete_dispersion_relation() {
         );
     }
 }
+
+/// Points per wavelength at which the fully discrete phase ratio of upwind1 +
+/// forward Euler, r(θ) = −arg(1 − ν(1 − e^{−iθ}))/(νθ) (the closed form of the
+/// scheme's amplification factor, derived by hand), first leaves 1 ± tol,
+/// scanning from long waves.
+fn upwind_euler_ppw(nu: f64, tol: f64) -> f64 {
+    let ratio = |th: f64| {
+        let g = num_complex::Complex64::new(1.0 - nu + nu * th.cos(), -nu * th.sin());
+        -g.arg() / (nu * th)
+    };
+    let mut th = 1e-4;
+    while (ratio(th) - 1.0).abs() <= tol {
+        th += 1e-5;
+    }
+    2.0 * std::f64::consts::PI / th
+}
+
+#[test]
+fn each_wave_of_a_user_system_keeps_its_name_and_its_own_speed_in_both_directions() {
+    // Two waves of speeds 1 and 1.1 (lower-triangular flux, characteristic
+    // upwinding): each behaves as scalar upwind1 + forward Euler with its own
+    // Courant number ν = 0.9 × speed/1.1. Ordering by frequency once named the
+    // slower wave "mode1" along +x and the faster one along −x, and paired a
+    // fully discrete wave with the other wave's exact speed.
+    let text = "[grid]\nspacing = [1.0]\n[model]\nkind = \"linear\"\nvariables = [\"c\", \"s\"]\nflux = [ [[1.0, 0.0], [8.0, 1.1]] ]\n[space]\nfirst = \"upwind1\"\nupwind = \"characteristic\"\n[time]\nmethod = \"euler\"\ncourant = 0.9\n[scan]\npoints = [129]\nanalyses = [\"dispersion\"]\n";
+    let (_, r) = run(text);
+    let d = disp(&r);
+    for (mode, speed) in [(0usize, 1.0), (1, 1.1)] {
+        let want = upwind_euler_ppw(0.9 * speed / 1.1, d.tolerance);
+        let got = d.resolution[mode].1.expect("a fully discrete requirement");
+        assert!(
+            (got - want).abs() <= 0.01 * want,
+            "mode {mode}: {got} vs {want}"
+        );
+        // the same wave in both directions: its exact frequency is speed·θ
+        for (i, th) in r.grid.coords[0].iter().enumerate() {
+            let w = d.exact[i][mode];
+            assert!(
+                (w.re - speed * th).abs() <= 1e-9,
+                "mode {mode} at θ = {th}: {w}"
+            );
+        }
+    }
+}

@@ -7,15 +7,23 @@
 //! semi-discrete ω (so the branch follows the mode continuously from small
 //! wavenumbers rather than the principal logarithm).
 //!
-//! Modes are matched by continuation from the long-wave limit: along the ray
-//! from θ = 0 to each wavevector both spectra are followed step by step (each step
-//! pairs eigenvalues with the previous ones, extrapolated linearly, by the
-//! cheapest assignment); at the start of the ray the numerical and exact spectra
-//! agree, and the exact ones carry the model's mode names.
+//! The exact modes carry the model's mode names by continuation from the long-wave
+//! limit: along the ray from θ = 0 to each wavevector the exact spectrum is
+//! followed step by step (each step pairs eigenvalues with the previous ones,
+//! extrapolated linearly, by the cheapest assignment), in ascending Re ω at the
+//! start. Each numerical mode is then paired with the exact mode of the same
+//! shape at θ itself: its eigenvector is expanded in the exact eigenvectors and
+//! goes to the exact mode that holds most of it ([`shape`]). Only where shapes do
+//! not decide (a defective exact system, or a numerical eigenvector spread over
+//! several exact modes of different frequency) is the numerical spectrum followed
+//! along the ray like the exact one. Frequencies alone cannot keep identity: two
+//! waves whose discrete speeds cross would swap names.
 
+use super::shape;
 use crate::analysis::context::amplification_at;
 use crate::linalg::{self, EigSolver};
 use crate::operator::Operator;
+use crate::physics::ModelKind;
 use crate::problem::Problem;
 use num_complex::Complex64 as C64;
 use std::f64::consts::PI;
@@ -196,15 +204,96 @@ impl<'a> Frequencies<'a> {
 
     /// (numerical, exact) ω at θ, both in physical-mode order.
     pub fn matched(&self, theta: &[f64]) -> (Vec<C64>, Vec<C64>) {
-        let num = Tracker {
-            freq: &|t| self.numerical_raw(t),
-        }
-        .follow(theta);
-        let exact = Tracker {
+        let mut exact = Tracker {
             freq: &|t| self.exact_raw(t),
         }
         .follow(theta);
+        if self.problem.system.kind == ModelKind::Linear {
+            if let Some(named) = self.named_by_reference_shape(theta, &exact) {
+                exact = named;
+            }
+        }
+        let num = self.paired_by_shape(theta, &exact).unwrap_or_else(|| {
+            Tracker {
+                freq: &|t| self.numerical_raw(t),
+            }
+            .follow(theta)
+        });
         (num, exact)
+    }
+
+    /// A user's system has no physical mode names, only mode1..m, and ordering by
+    /// frequency would give one name to different waves in different directions
+    /// (the slower wave along +x is the faster one's mirror along −x). Its mode j
+    /// is therefore the wave whose shape is eigenvector j of the x-flux matrix A₁
+    /// (ascending speed along +x), wherever that shape decides; `exact` is
+    /// reordered accordingly. None when A₁'s speeds are not distinct or shapes do
+    /// not decide.
+    fn named_by_reference_shape(&self, theta: &[f64], exact: &[C64]) -> Option<Vec<C64>> {
+        let system = &self.problem.system;
+        let m = self.op.m;
+        let zero = C64::new(0.0, 0.0);
+        let mut solver = EigSolver::new(m);
+        let (mut speeds, mut refs) = (vec![zero; m], vec![zero; m * m]);
+        solver
+            .eigenvalues_and_vectors(
+                &linalg::from_matrix(&system.flux[0]),
+                &mut speeds,
+                &mut refs,
+            )
+            .ok()?;
+        let mut by_speed: Vec<usize> = (0..m).collect();
+        by_speed.sort_by(|a, b| speeds[*a].re.total_cmp(&speeds[*b].re));
+        let scale = speeds.iter().map(|z| z.norm()).fold(0.0, f64::max);
+        let distinct = by_speed
+            .windows(2)
+            .all(|w| (speeds[w[1]] - speeds[w[0]]).norm() > 1e-6 * scale);
+        if !distinct || scale == 0.0 {
+            return None;
+        }
+        let k: Vec<f64> = theta
+            .iter()
+            .zip(&self.problem.spacing)
+            .map(|(t, h)| t / h)
+            .collect();
+        let lc = linalg::from_matrix(&system.continuous_symbol(&k));
+        let (mut ve, mut xe) = (vec![zero; m], vec![zero; m * m]);
+        solver.eigenvalues_and_vectors(&lc, &mut ve, &mut xe).ok()?;
+        let we: Vec<C64> = ve.iter().map(|mu| C64::new(0.0, 1.0) * mu).collect();
+        // the exact eigenvectors at θ in the order of `exact`
+        let order = shape::nearest_order(exact, &we)?;
+        let at_theta: Vec<C64> = (0..m * m)
+            .map(|rc| xe[(rc / m) * m + order[rc % m]])
+            .collect();
+        let ref_speeds: Vec<C64> = by_speed.iter().map(|&j| speeds[j]).collect();
+        let pairing = shape::pair(&refs, &by_speed, &ref_speeds, &at_theta, m)?;
+        Some(pairing.iter().map(|&j| exact[j]).collect())
+    }
+
+    /// The numerical ω at θ in the order of `exact` (the exact ω at θ in mode
+    /// order), paired by eigenvector shape; None when shapes do not decide.
+    fn paired_by_shape(&self, theta: &[f64], exact: &[C64]) -> Option<Vec<C64>> {
+        let m = self.op.m;
+        let k: Vec<f64> = theta
+            .iter()
+            .zip(&self.problem.spacing)
+            .map(|(t, h)| t / h)
+            .collect();
+        let lc = linalg::from_matrix(&self.problem.system.continuous_symbol(&k));
+        let zero = C64::new(0.0, 0.0);
+        let (mut ve, mut xe) = (vec![zero; m], vec![zero; m * m]);
+        let (mut vn, mut xn) = (vec![zero; m], vec![zero; m * m]);
+        let mut solver = EigSolver::new(m);
+        solver.eigenvalues_and_vectors(&lc, &mut ve, &mut xe).ok()?;
+        solver
+            .eigenvalues_and_vectors(&self.op.symbol(theta), &mut vn, &mut xn)
+            .ok()?;
+        // the exact decomposition's modes in the order of `exact`
+        let we: Vec<C64> = ve.iter().map(|mu| C64::new(0.0, 1.0) * mu).collect();
+        let order = shape::nearest_order(exact, &we)?;
+        let wn: Vec<C64> = vn.iter().map(|mu| C64::new(0.0, 1.0) * mu).collect();
+        let pairing = shape::pair(&xe, &order, exact, &xn, m)?;
+        Some(pairing.iter().map(|&j| wn[j]).collect())
     }
 
     /// Group velocities (physical units) of the matched numerical and exact modes
@@ -272,7 +361,45 @@ impl<'a> Frequencies<'a> {
 
     /// Fully discrete ω for the matched semi-discrete modes (principal roots, in
     /// physical-mode order) followed by the computational modes.
+    ///
+    /// A one-step or multistep method acts on each eigenvector of L(θ) alone, so
+    /// mode j's amplification factors are those of z = Δt μ_j (R(z) for one-step
+    /// methods, the roots of the characteristic polynomial for multistep ones,
+    /// the principal one nearest e^z): the mode keeps its identity exactly. Only
+    /// composite schemes, whose G is not a function of L, take the eigenvalues of
+    /// G and pair each mode with the one nearest e^{−iωΔt}.
     pub fn discrete(&self, theta: &[f64], num: &[C64], dt: f64) -> Vec<C64> {
+        let method = &self.problem.method;
+        if method.composite().is_some() {
+            return self.discrete_composite(theta, num, dt);
+        }
+        let mut out = Vec::with_capacity(num.len() * method.levels());
+        let mut computational = Vec::new();
+        for w in num {
+            let z = C64::new(0.0, -1.0) * w * dt;
+            let target = z.exp();
+            let roots = method.amplification_eigenvalues(z);
+            let principal = (0..roots.len())
+                .min_by(|a, b| {
+                    (roots[*a] - target)
+                        .norm()
+                        .total_cmp(&(roots[*b] - target).norm())
+                })
+                .unwrap_or(0);
+            for (j, l) in roots.iter().enumerate() {
+                if j == principal {
+                    out.push(log_branch(*l, dt, w.re));
+                } else {
+                    computational.push(log_branch(*l, dt, 0.0));
+                }
+            }
+        }
+        out.extend(computational);
+        out
+    }
+
+    /// [`Frequencies::discrete`] for composite schemes, from the eigenvalues of G.
+    fn discrete_composite(&self, theta: &[f64], num: &[C64], dt: f64) -> Vec<C64> {
         let g = amplification_at(self.problem, self.op, theta, dt);
         let size = g.nrows();
         let lam = linalg::eigenvalues(&linalg::from_matrix(&g), size)

@@ -9,6 +9,7 @@
 pub mod curves;
 pub mod frequencies;
 pub mod maps;
+pub mod shape;
 
 use super::context::Context;
 use crate::sample::{self, Stage};
