@@ -1,0 +1,74 @@
+//! Regression tests for the findings of the fuzz targets in `fuzz/`: each
+//! offending input, saved under `fuzz/findings/`, is run through the same path
+//! as the fuzz targets (`fuzz/src/tiny.rs`, included here by path: case text →
+//! case → memory estimate → tiny scan → summaries) and must give a clean
+//! refusal or a result, never a panic.
+
+#[path = "../fuzz/src/tiny.rs"]
+mod tiny;
+
+use kgain::analysis::{analyse, LimitKind, LimitParams, Plan};
+use kgain::case::Case;
+use kgain::{NoProgress, Par};
+use std::path::Path;
+use tiny::Outcome;
+
+/// Runs a finding through the fuzz path; its outcome.
+fn replay(text: &str, overrides: &[&str]) -> Outcome {
+    let overrides: Vec<String> = overrides.iter().map(|s| s.to_string()).collect();
+    tiny::run(text, &overrides)
+}
+
+/// The JSON summary of a finding that must validate and run.
+fn ran(outcome: Outcome) -> serde_json::Value {
+    match outcome {
+        Outcome::Ran(json) => json,
+        Outcome::Refused(m) => panic!("expected a result, got a refusal: {m}"),
+    }
+}
+
+/// case_text, timeout (> 2 s for one input): the lake case's linear system with
+/// the x flux changed to [[5, 40, 0], [9.81, 0, 0], [5, 0, 0]] (complex flux
+/// eigenvalues) under leapfrog is unstable for every Δt, and the limit search
+/// took 1.7 s on a 9×9 scan and about 50 s on the case's own 130×129 scan with
+/// 180 directions (the unmodified case: 0.3 s). Not fixed (the search is in
+/// src/analysis/limit/, outside this work); the fuzz path now runs the limit only
+/// for one-step methods. The limit must still come out as "none".
+#[test]
+fn leapfrog_system_unstable_for_every_dt_gives_no_stable_dt() {
+    let text = include_str!("../fuzz/findings/leapfrog-system-unstable-for-every-dt.toml");
+    let json = ran(replay(text, &[]));
+    assert_eq!(json["radius"]["stable"], false, "{json:#}");
+    let case = Case::from_str_with(text, Path::new(tiny::FILE), &[]).unwrap();
+    let plan = Plan::new(&[9, 9]).with_limit(LimitParams { directions: 6 });
+    let results = analyse(&case.problem, &plan, Par::Seq, &NoProgress).unwrap();
+    let limit = results.limit.unwrap();
+    assert_eq!(limit.kind, LimitKind::None);
+    assert_eq!(limit.dt_max, 0.0);
+}
+
+/// case_text, timeout: the bundled feedline case (only its comments mutated:
+/// compact4 + AB3 on the telegraph system) when the fuzz path still ran every
+/// analysis for one input in 32: the limit (0.9 s), growth (0.55 s) and
+/// dispersion on a 9-point scan together passed 2 s with debug assertions on.
+/// No library fault; the fuzz path now adds at most one analysis to the radius
+/// map. The case must run and be stable at its Δt.
+#[test]
+fn feedline_ab3_case_runs_on_the_fuzz_path() {
+    let text = include_str!("../fuzz/findings/feedline-ab3-every-analysis.toml");
+    let json = ran(replay(text, &[]));
+    assert_eq!(json["radius"]["stable"], true, "{json:#}");
+}
+
+/// user_stencils_and_tableaux, timeout: a 12-point first-derivative stencil
+/// reaching 228 cells to the left, a one-stage implicit tableau a = [[−228.45]]
+/// and Courant number 284 on 2-D acoustics, run with every analysis on the old
+/// fuzz path (1.4 s with debug assertions, over 2 s on the loaded machine). No
+/// library fault; the case must validate and its radius map must be finite.
+#[test]
+fn wide_user_stencil_with_implicit_tableau_runs() {
+    let text = include_str!("../fuzz/findings/wide-user-stencil-with-tableau.toml");
+    let json = ran(replay(text, &[]));
+    let max = json["radius"]["max"].as_f64().expect("a radius");
+    assert!(max.is_finite() && max > 0.0, "{json:#}");
+}
