@@ -20,7 +20,7 @@ targets=(case_text overrides user_stencils_and_tableaux)
 
 if ! cargo fuzz --version >/dev/null 2>&1; then
     echo "fuzz-smoke: installing cargo-fuzz"
-    cargo install --locked cargo-fuzz
+    cargo install --locked --version 0.13.2 cargo-fuzz
 fi
 
 echo "fuzz-smoke: building ${targets[*]}"
