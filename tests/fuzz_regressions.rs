@@ -53,7 +53,10 @@ fn leapfrog_system_unstable_for_every_dt_gives_no_stable_dt() {
     let results = analyse(&case.problem, &own, Par::Seq, &NoProgress).unwrap();
     assert_eq!(results.limit.unwrap().kind, LimitKind::None);
     let secs = started.elapsed().as_secs_f64();
-    assert!(secs < 20.0, "the case's own scan took {secs:.1} s (50 s before the fix)");
+    assert!(
+        secs < 20.0,
+        "the case's own scan took {secs:.1} s (50 s before the fix)"
+    );
 }
 
 /// case_text, timeout: the bundled feedline case (only its comments mutated:

@@ -163,12 +163,22 @@ impl Tracker<'_> {
 pub struct Frequencies<'a> {
     problem: &'a Problem,
     op: &'a Operator,
+    /// Whether the continuous symbol is homogeneous of degree one in k (no
+    /// source, no diffusion), so that the exact spectrum scales along a ray.
+    homogeneous: bool,
 }
 
 impl<'a> Frequencies<'a> {
     /// For a problem and its operator.
     pub fn new(problem: &'a Problem, op: &'a Operator) -> Self {
-        Self { problem, op }
+        let system = &problem.system;
+        let zero = |m: &nalgebra::DMatrix<C64>| m.iter().all(|z| *z == C64::new(0.0, 0.0));
+        let homogeneous = zero(&system.source) && system.diffusion.iter().all(zero);
+        Self {
+            problem,
+            op,
+            homogeneous,
+        }
     }
 
     /// The problem.
@@ -204,10 +214,17 @@ impl<'a> Frequencies<'a> {
 
     /// (numerical, exact) ω at θ, both in physical-mode order.
     pub fn matched(&self, theta: &[f64]) -> (Vec<C64>, Vec<C64>) {
-        let mut exact = Tracker {
-            freq: &|t| self.exact_raw(t),
-        }
-        .follow(theta);
+        let mut exact = if self.homogeneous {
+            // ω(sθ) = s ω(θ): the order at the start of the ray is the order here
+            let mut w = self.exact_raw(theta);
+            w.sort_by(|a, b| a.re.total_cmp(&b.re));
+            w
+        } else {
+            Tracker {
+                freq: &|t| self.exact_raw(t),
+            }
+            .follow(theta)
+        };
         if self.problem.system.kind == ModelKind::Linear {
             if let Some(named) = self.named_by_reference_shape(theta, &exact) {
                 exact = named;
