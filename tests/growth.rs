@@ -72,6 +72,43 @@ fn kreiss_bounds_bracket_the_growth_of_a_jordan_block() {
 }
 
 #[test]
+fn kreiss_bound_is_sharp_enough_near_the_unit_circle() {
+    // [[λ, 1], [0, λ]] with λ = 0.9995 e^{iπ/128}: the resolvent peaks close
+    // to the eigenvalue, whose angle lies midway between two angles of a fixed
+    // 128-angle polar grid (that grid alone gives K ≈ 19, numpy, while
+    // sup ‖Gⁿ‖/(e m) ≈ 135). The theorem's right-hand side,
+    // sup_n ‖Gⁿ‖ ≤ e·m·K, turns the true growth into a floor for any honest
+    // lower bound of K.
+    let lambda = C64::from_polar(0.9995, std::f64::consts::PI / 128.0);
+    let g = DMatrix::from_row_slice(2, 2, &[lambda, c(1.0, 0.0), c(0.0, 0.0), lambda]);
+    let k = growth::kreiss_lower_bound(&g);
+    let sup = growth::power_norms(&g, 20000)
+        .into_iter()
+        .fold(0.0, f64::max);
+    assert!(k <= sup * (1.0 + 1e-12), "K = {k} above sup = {sup}");
+    assert!(
+        sup <= std::f64::consts::E * 2.0 * k,
+        "K = {k} too weak: sup ||G^n|| = {sup} > e m K"
+    );
+}
+
+#[test]
+fn kreiss_bound_is_at_least_one_for_every_matrix() {
+    // (|z| − 1)‖(zI − G)⁻¹‖ → 1 as |z| → ∞, so K ≥ 1 always; a normal matrix
+    // inside the disc (here diagonal) has K = 1 exactly.
+    let zero = DMatrix::from_element(3, 3, c(0.0, 0.0));
+    let normal = DMatrix::from_diagonal(&nalgebra::DVector::from_vec(vec![
+        c(0.5, 0.1),
+        c(-0.3, 0.0),
+        c(0.0, 0.9),
+    ]));
+    for g in [zero, normal] {
+        let k = growth::kreiss_lower_bound(&g);
+        assert!((1.0 - 1e-9..=1.0 + 1e-9).contains(&k), "K = {k}");
+    }
+}
+
+#[test]
 fn pseudospectral_radius_of_a_normal_matrix_is_rho_plus_epsilon() {
     // For normal G the ε-pseudospectrum is the union of ε-discs around the
     // eigenvalues (Trefethen & Embree 2005), so ρ_ε = ρ + ε.

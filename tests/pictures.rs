@@ -393,7 +393,6 @@ fn growth_picture_clips_infinite_and_nan_envelope_values() {
             g.kreiss = Some(Kreiss {
                 lower_bound: f64::INFINITY,
                 wavevector: vec![0.0, 0.0],
-                growth_bound: f64::INFINITY,
             });
         },
         // a single step, and nothing finite at all

@@ -95,8 +95,6 @@ pub struct Kreiss {
     pub lower_bound: f64,
     /// The wavevector.
     pub wavevector: Vec<f64>,
-    /// e·M·K, as reported by earlier versions (M the state size).
-    pub growth_bound: f64,
 }
 
 /// Non-normality maps, the growth envelope and its headline numbers.
@@ -179,7 +177,6 @@ pub(super) fn analyse(ctx: &Context, p: &GrowthParams) -> GrowthResult {
         k.is_finite().then(|| Kreiss {
             lower_bound: k,
             wavevector: peak_theta.clone(),
-            growth_bound: std::f64::consts::E * size as f64 * k,
         })
     };
     let pseudo = resolvent::pseudospectral_radius(&g_peak, p.epsilon);

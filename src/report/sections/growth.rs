@@ -71,8 +71,8 @@ impl Section for Growth {
                     Some(k) => json!({
                         "lower_bound": num(k.lower_bound),
                         "wavevector": vec_num(&k.wavevector),
-                        "upper_bound_on_growth_from_sampled_constant": num(k.growth_bound),
-                        "note": "K sampled over |z| > 1 at the peak wavevector is a lower bound on the Kreiss constant; by the Kreiss matrix theorem K <= sup ||G^n|| <= e m K",
+                        "growth_lower_bound": num(k.lower_bound),
+                        "note": "K, sampled and refined over |z| > 1 at the peak wavevector, is a lower bound on the Kreiss constant (K >= 1 for every matrix). By the Kreiss matrix theorem K <= sup_n ||G^n|| <= e m K: the growth of this wavevector over all n is at least K; e m K bounds it from above only with the exact constant, which sampling cannot certify, so no upper bound is reported",
                     }),
                     None => json!({"lower_bound": null, "infinite": true}),
                 },
