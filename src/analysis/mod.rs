@@ -381,6 +381,22 @@ fn non_finite(r: &Results, first_failure: Option<usize>) -> Vec<NonFinite> {
             count,
             g.norm.iter().position(bad),
         );
+        // a Schur form that converged but a departure or an eigenvector
+        // condition number that did not (NaN; infinite is a defective G, a value)
+        let count = g.departure.iter().filter(|v| bad(v)).count();
+        if g.norm.iter().all(|v| !bad(v)) {
+            note(
+                "departure from normality",
+                count,
+                g.departure.iter().position(bad),
+            );
+        }
+        let count = g.condition.iter().filter(|v| bad(v)).count();
+        note(
+            "eigenvector condition number",
+            count,
+            g.condition.iter().position(bad),
+        );
     }
     if let Some(d) = &r.dispersion {
         let bad =
