@@ -629,3 +629,23 @@ fn dispersion_picture_leaves_gaps_at_nan_and_clips_far_ratios() {
         assert_eq!((p.width, p.height), SIZE);
     }
 }
+
+/// Forward–backward on a C-grid basin: |λ| = 1 at every wavevector (the
+/// zero-frequency mode alone sees G act as the identity). A flat radius map
+/// has no worst wavevector, so no crimson marker is drawn (the legend says the
+/// map is flat); a map that is not flat (RK4 + C2 advection) keeps its marker.
+#[test]
+fn a_flat_radius_map_marks_no_worst_wavevector() {
+    let text = "[grid]\nspacing = [1000.0, 1000.0]\n[model]\nkind = \"shallow-water\"\ndepth = 10.0\ngravity = 9.81\n[space]\nfirst = \"central2\"\narrangement = \"c\"\n[time]\nmethod = \"forward-backward\"\nsequence = [\"h\", \"u\", \"v\"]\ncourant = 0.5\n[scan]\npoints = [33, 33]\nanalyses = [\"radius\"]\n";
+    let (_tmp, out) = run(text);
+    let flat = decode(&out.join("radius.png"));
+    assert_eq!(count_colour(&flat, CRIMSON), 0, "a marker on a flat map");
+    let advection = "[grid]\nspacing = [1.0, 1.0]\n[model]\nkind = \"advection\"\nvelocity = [1.0, 0.5]\n[space]\nfirst = \"central2\"\n[time]\nmethod = \"rk4\"\ncourant = 0.5\n[scan]\npoints = [33, 33]\nanalyses = [\"radius\"]\n";
+    let (_tmp2, out2) = run(advection);
+    let marked = decode(&out2.join("radius.png"));
+    let ring = count_colour(&marked, CRIMSON);
+    assert!(
+        ring > 20,
+        "the marker of a non-flat map: {ring} crimson pixels"
+    );
+}

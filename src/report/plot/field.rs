@@ -81,6 +81,39 @@ pub fn no_data(root: &Area, msg: &str) -> Res {
     Ok(())
 }
 
+/// Whether every finite value is the same to 1e-12 (relative to max(1, |max|)):
+/// such a map has no worst wavevector, and marking one node would single out
+/// whichever rounding happened to be largest.
+fn flat(values: &[f64]) -> bool {
+    let (lo, hi) = values
+        .iter()
+        .filter(|v| v.is_finite())
+        .fold((f64::INFINITY, f64::NEG_INFINITY), |(a, b), v| {
+            (a.min(*v), b.max(*v))
+        });
+    hi >= lo && hi - lo <= FLAT * hi.abs().max(1.0)
+}
+
+/// Relative spread below which a map counts as flat.
+const FLAT: f64 = 1e-12;
+
+/// The legend entry of the marker, or the flat map's note.
+fn marker_entry(spec: &Spec) -> (Key, String) {
+    if flat(spec.values) {
+        let v = spec.marker.1;
+        (
+            Key::Swatch(style::MUTED),
+            format!(
+                "flat: {} everywhere (to {}), no worst wavevector",
+                style::num(v, 8),
+                style::num(FLAT, 1)
+            ),
+        )
+    } else {
+        (Key::Target, spec.marker_label.to_string())
+    }
+}
+
 fn level_value(spec: &Spec) -> Option<f64> {
     spec.level.as_ref().map(|l| l.value)
 }
@@ -98,7 +131,7 @@ fn map_legend(spec: &Spec, crossed: bool) -> Vec<(Key, String)> {
         };
         entries.push((Key::Contour, text.clone()));
     }
-    entries.push((Key::Target, spec.marker_label.to_string()));
+    entries.push(marker_entry(spec));
     let missing = spec.values.iter().filter(|v| v.is_nan()).count();
     if missing > 0 {
         let label = match missing {
@@ -127,7 +160,7 @@ fn map2(root: &Area, grid: &Grid, spec: &Spec) -> Res {
         x_desc: AXIS[0].to_string(),
         y_desc: AXIS[1].to_string(),
         caption: None,
-        marker: Some((spec.marker.0[0], spec.marker.0[1])),
+        marker: (!flat(spec.values)).then(|| (spec.marker.0[0], spec.marker.0[1])),
     };
     let level = level_value(spec);
     let placed = panel(root, (x0, y0), side, &field, &spec.scale, level, &frame)?;
@@ -222,7 +255,7 @@ fn line(root: &Area, grid: &Grid, spec: &Spec) -> Res {
     let (px, py) = chart.plotting_area().get_pixel_range();
     let bounds = ((px.start, px.end - 1), (py.start, py.end - 1));
     let (mx, mv) = (spec.marker.0[0], spec.marker.1);
-    if mv.is_finite() {
+    if mv.is_finite() && !flat(spec.values) {
         let p = chart.backend_coord(&(mx, mv.clamp(lo, hi)));
         target(root, p)?;
         callout(root, p, &spec.callout, bounds)?;
@@ -236,7 +269,7 @@ fn line(root: &Area, grid: &Grid, spec: &Spec) -> Res {
         }
         entries.push((Key::Dashed(BLACK), l.line.clone()));
     }
-    entries.push((Key::Target, spec.marker_label.to_string()));
+    entries.push(marker_entry(spec));
     legend_row(root, (px.start, SIZE.1 as i32 - 34), &entries)
 }
 
@@ -288,7 +321,7 @@ fn map3(root: &Area, grid: &Grid, spec: &Spec) -> Res {
                 NAME[f],
                 style::num_fixed(c[f][fixed[f]], 3)
             )),
-            marker: Some((w[a], w[b])),
+            marker: (!flat(spec.values)).then(|| (w[a], w[b])),
         };
         let (cx, cy) = (
             (p % 2) as i32 * cell.0,
