@@ -22,6 +22,7 @@
 use super::shape;
 use crate::analysis::context::amplification_at;
 use crate::linalg::{self, EigSolver};
+use crate::numeric::assignment::optimal_assignment;
 use crate::operator::Operator;
 use crate::physics::ModelKind;
 use crate::problem::Problem;
@@ -33,86 +34,20 @@ const TRACK_STEPS: usize = 20;
 /// Relative start of the ray (long-wave limit).
 const START: f64 = 1e-4;
 
-/// Pairs `new` with `target` by the cheapest total distance (all permutations for
-/// m ≤ 4; beyond, the globally closest pair first, repeatedly); returns `new`
-/// reordered.
+/// Pairs `new` with `target` by the least total distance (an optimal
+/// assignment); returns `new` reordered.
 fn assign(target: &[C64], new: &[C64]) -> Vec<C64> {
     let m = target.len();
-    if m <= 4 {
-        // distances once (m² moduli), then every permutation sums from the table
-        let mut dist = [[0.0f64; 4]; 4];
-        for (i, t) in target.iter().enumerate() {
-            for (j, n) in new.iter().enumerate().take(m) {
-                dist[i][j] = (t - n).norm();
-            }
+    let mut cost = vec![0.0; m * m];
+    for (i, t) in target.iter().enumerate() {
+        for (j, n) in new.iter().enumerate().take(m) {
+            cost[i * m + j] = (t - n).norm();
         }
-        let mut best = (f64::INFINITY, 0usize);
-        let perms = &permutations()[m];
-        for (k, p) in perms.iter().enumerate() {
-            let cost: f64 = p[..m]
-                .iter()
-                .enumerate()
-                .map(|(i, &j)| dist[i][j as usize])
-                .sum();
-            if cost < best.0 {
-                best = (cost, k);
-            }
-        }
-        perms[best.1][..m]
-            .iter()
-            .map(|&j| new[j as usize])
-            .collect()
-    } else {
-        let mut pairs: Vec<(f64, usize, usize)> = Vec::with_capacity(m * new.len());
-        for (i, t) in target.iter().enumerate() {
-            for (j, n) in new.iter().enumerate() {
-                pairs.push(((t - n).norm(), i, j));
-            }
-        }
-        pairs.sort_by(|a, b| a.0.total_cmp(&b.0));
-        let mut out = vec![C64::new(f64::NAN, f64::NAN); m];
-        let (mut ti, mut nj) = (vec![false; m], vec![false; new.len()]);
-        for (_, i, j) in pairs {
-            if !ti[i] && !nj[j] {
-                ti[i] = true;
-                nj[j] = true;
-                out[i] = new[j];
-            }
-        }
-        out
     }
-}
-
-/// Every permutation of 0..m for m = 0..=4, in the order [`permute`] visits
-/// them (the first of equal-cost assignments wins, as before the table).
-fn permutations() -> &'static [Vec<[u8; 4]>; 5] {
-    static TABLE: std::sync::OnceLock<[Vec<[u8; 4]>; 5]> = std::sync::OnceLock::new();
-    TABLE.get_or_init(|| {
-        std::array::from_fn(|m| {
-            let mut out = Vec::new();
-            let mut p: Vec<usize> = (0..m).collect();
-            permute(&mut p, 0, &mut |q| {
-                let mut a = [0u8; 4];
-                for (x, y) in a.iter_mut().zip(q) {
-                    *x = *y as u8;
-                }
-                out.push(a);
-            });
-            out
-        })
-    })
-}
-
-fn permute(p: &mut [usize], k: usize, f: &mut impl FnMut(&[usize])) {
-    if k == p.len() {
-        f(p);
-        return;
-    }
-    for i in k..p.len() {
-        p.swap(k, i);
-        permute(p, k + 1, f);
-        p.swap(k, i);
-    }
+    optimal_assignment(&cost, m)
+        .into_iter()
+        .map(|j| new[j])
+        .collect()
 }
 
 /// Frequencies along a ray, evaluated by `freq` at fractions s of the end point.

@@ -10,6 +10,7 @@
 //! change the exact frequency a numerical mode is compared with.
 
 use crate::linalg::solve;
+use crate::numeric::assignment::optimal_assignment;
 use num_complex::Complex64 as C64;
 
 /// A numerical mode is named by shape only when at least this share of its
@@ -18,29 +19,18 @@ pub const DECISIVE_SHARE: f64 = 0.9;
 /// Exact frequencies within this fraction of the largest one form a cluster.
 const CLUSTER: f64 = 1e-6;
 
-/// For each entry of `wanted`, a distinct index into `have`, nearest first
-/// (globally closest pairs taken first); None when the lengths differ or a value
+/// For each entry of `wanted`, a distinct index into `have`, of least total
+/// distance (an optimal assignment); None when the lengths differ or a value
 /// is not finite.
 pub fn nearest_order(wanted: &[C64], have: &[C64]) -> Option<Vec<usize>> {
     let m = wanted.len();
     if have.len() != m || wanted.iter().chain(have).any(|z| !z.is_finite()) {
         return None;
     }
-    let mut pairs: Vec<(f64, usize, usize)> = Vec::with_capacity(m * m);
-    for (i, w) in wanted.iter().enumerate() {
-        for (j, h) in have.iter().enumerate() {
-            pairs.push(((w - h).norm(), i, j));
-        }
-    }
-    pairs.sort_by(|a, b| a.0.total_cmp(&b.0));
-    let mut out = vec![usize::MAX; m];
-    let mut taken = vec![false; m];
-    for (_, i, j) in pairs {
-        if out[i] == usize::MAX && !taken[j] {
-            out[i] = j;
-            taken[j] = true;
-        }
-    }
+    let cost: Vec<f64> = (0..m * m)
+        .map(|ij| (wanted[ij / m] - have[ij % m]).norm())
+        .collect();
+    let out = optimal_assignment(&cost, m);
     Some(out)
 }
 
@@ -68,21 +58,9 @@ pub fn pair(
     };
     let scale = exact.iter().map(|z| z.norm()).fold(0.0, f64::max);
     let together = |i: usize, k: usize| (exact[i] - exact[k]).norm() <= CLUSTER * scale;
-    let mut candidates: Vec<(f64, usize, usize)> = Vec::with_capacity(m * m);
-    for i in 0..m {
-        for j in 0..m {
-            candidates.push((share(i, j), i, j));
-        }
-    }
-    candidates.sort_by(|a, b| b.0.total_cmp(&a.0));
-    let mut out = vec![usize::MAX; m];
-    let mut taken = vec![false; m];
-    for (_, i, j) in candidates {
-        if out[i] == usize::MAX && !taken[j] {
-            out[i] = j;
-            taken[j] = true;
-        }
-    }
+    // the pairing that keeps the largest total share (an optimal assignment)
+    let cost: Vec<f64> = (0..m * m).map(|ij| -share(ij / m, ij % m)).collect();
+    let out = optimal_assignment(&cost, m);
     let decisive = (0..m).all(|i| {
         let pooled: f64 = (0..m)
             .filter(|&k| together(i, k))
