@@ -27,22 +27,80 @@ pub fn sphere(count: usize) -> Vec<[f64; 3]> {
         .collect()
 }
 
-/// Unit vectors for a dimension: ±x in 1-D, `count` angles in 2-D, `count`
-/// sphere points in 3-D.
+/// The 26 lattice directions of 3-D: 6 along the axes, 12 along the face
+/// diagonals, 8 along the body diagonals (unit vectors).
+pub fn lattice_3d() -> Vec<[f64; 3]> {
+    let mut out = Vec::with_capacity(26);
+    for i in -1i32..=1 {
+        for j in -1i32..=1 {
+            for k in -1i32..=1 {
+                if (i, j, k) != (0, 0, 0) {
+                    let n = ((i * i + j * j + k * k) as f64).sqrt();
+                    out.push([i as f64 / n, j as f64 / n, k as f64 / n]);
+                }
+            }
+        }
+    }
+    out.sort_by_key(|v| v.iter().filter(|x| **x != 0.0).count());
+    out
+}
+
+/// Unit vectors for a dimension, always with the grid's own directions among
+/// them: ±x in 1-D; in 2-D `count` angles rounded up to a multiple of 8, so
+/// that the axes and diagonals are in the set; in 3-D the 26 lattice
+/// directions ([`lattice_3d`]) and then Fibonacci points up to `count` in all.
 pub fn unit_vectors(dims: usize, count: usize) -> Vec<Vec<f64>> {
     match dims {
         1 => vec![vec![1.0], vec![-1.0]],
-        2 => circle(count)
+        2 => circle(count.max(1).div_ceil(8) * 8)
             .into_iter()
             .map(|a| vec![a.cos(), a.sin()])
             .collect(),
-        _ => sphere(count).into_iter().map(|v| v.to_vec()).collect(),
+        _ => lattice_3d()
+            .into_iter()
+            .chain(sphere(count.saturating_sub(26)))
+            .map(|v| v.to_vec())
+            .collect(),
     }
 }
 
 #[cfg(test)]
 mod tests {
     use super::*;
+
+    #[test]
+    fn sets_hold_the_axes_and_the_diagonals() {
+        let has = |set: &[Vec<f64>], v: &[f64]| {
+            set.iter()
+                .any(|u| u.iter().zip(v).all(|(a, b)| (a - b).abs() < 1e-15))
+        };
+        let h = 0.5f64.sqrt();
+        for count in [30, 36, 180, 181] {
+            let set = unit_vectors(2, count);
+            assert_eq!(set.len() % 8, 0);
+            assert!(set.len() >= count);
+            for v in [
+                [1.0, 0.0],
+                [0.0, 1.0],
+                [-1.0, 0.0],
+                [0.0, -1.0],
+                [h, h],
+                [-h, h],
+                [-h, -h],
+                [h, -h],
+            ] {
+                assert!(has(&set, &v), "{count}: {v:?} missing");
+            }
+        }
+        let t = 1.0 / 3f64.sqrt();
+        for count in [12, 60, 180] {
+            let set = unit_vectors(3, count);
+            assert_eq!(set.len(), count.max(26));
+            for v in [[0.0, 0.0, 1.0], [h, 0.0, -h], [0.0, -h, h], [t, -t, t]] {
+                assert!(has(&set, &v), "{count}: {v:?} missing");
+            }
+        }
+    }
 
     #[test]
     fn sphere_points_are_unit_vectors_with_zero_mean() {

@@ -24,8 +24,9 @@ fn run_writes_every_interface_file_of_the_radius_and_limit_analyses() {
     assert_eq!(shape("theta_x.npy"), vec![33]);
     assert_eq!(shape("theta_y.npy"), vec![17]);
     assert_eq!(shape("radius.npy"), vec![33, 17]);
-    assert_eq!(shape("directions.npy"), vec![36]);
-    assert_eq!(shape("limit_by_direction.npy"), vec![36]);
+    // scan.directions = 36, rounded up to 40 (a multiple of 8: axes and diagonals)
+    assert_eq!(shape("directions.npy"), vec![40]);
+    assert_eq!(shape("limit_by_direction.npy"), vec![40]);
     for f in files.iter().filter(|f| f.ends_with(".npy")) {
         let (descr, fortran, _) = npy_header(&out.join(f));
         assert!(

@@ -197,16 +197,12 @@ fn candidate_directions(dims: usize) -> Vec<Vec<f64>> {
         1 => vec![vec![1.0], vec![-1.0]],
         2 => directions::unit_vectors(2, 32),
         _ => {
-            let mut v = directions::unit_vectors(3, 64);
-            for i in -1i32..=1 {
-                for j in -1i32..=1 {
-                    for k in -1i32..=1 {
-                        if (i, j, k) != (0, 0, 0) {
-                            let n = ((i * i + j * j + k * k) as f64).sqrt();
-                            v.push(vec![i as f64 / n, j as f64 / n, k as f64 / n]);
-                        }
-                    }
-                }
+            let mut v: Vec<Vec<f64>> = directions::sphere(64)
+                .into_iter()
+                .map(|p| p.to_vec())
+                .collect();
+            for p in directions::lattice_3d() {
+                v.push(p.to_vec());
             }
             v
         }
