@@ -185,16 +185,7 @@ where
     T: Send + Clone + Default,
     F: Fn(&[f64]) -> T + Sync,
 {
-    let dims = grid.points.len();
-    let row = grid.points[dims - 1];
-    let init = || vec![0usize; dims];
-    let work = |idx: &mut Vec<usize>, (r, chunk): (usize, &mut [T])| {
-        for (j, slot) in chunk.iter_mut().enumerate() {
-            grid.unravel(r * row + j, idx);
-            *slot = f(&grid.theta(idx));
-        }
-    };
-    by_rows(grid, par, Span::Grid(symmetry), progress, init, work)
+    map_with(grid, par, symmetry, progress, || (), |_, theta| f(theta))
 }
 
 /// Evaluates `f(workspace, θ)` at every grid node in C order, with one

@@ -96,34 +96,29 @@ mod tests {
         assert_eq!(out, Some(vec![1, 0]));
     }
 
-    #[test]
-    fn a_vector_spread_over_two_distinct_modes_does_not_decide() {
+    /// Numerical eigenvectors (e₁ ± e₂)/√2, each split evenly over the exact
+    /// modes e₁ and e₂ of frequencies `exact`.
+    fn evenly_split(exact: [f64; 2]) -> Option<Vec<usize>> {
         let exact_vectors = [c(1.0), c(0.0), c(0.0), c(1.0)];
         let s = c(0.5f64.sqrt());
         let numerical_vectors = [s, s, s, -s];
-        let out = pair(
+        pair(
             &exact_vectors,
             &[0, 1],
-            &[c(1.0), c(2.0)],
+            &exact.map(c),
             &numerical_vectors,
             2,
-        );
-        assert_eq!(out, None);
+        )
+    }
+
+    #[test]
+    fn a_vector_spread_over_two_distinct_modes_does_not_decide() {
+        assert_eq!(evenly_split([1.0, 2.0]), None);
     }
 
     #[test]
     fn a_cluster_of_equal_frequencies_pools_its_shares() {
-        let exact_vectors = [c(1.0), c(0.0), c(0.0), c(1.0)];
-        let s = c(0.5f64.sqrt());
-        let numerical_vectors = [s, s, s, -s];
-        let out = pair(
-            &exact_vectors,
-            &[0, 1],
-            &[c(1.0), c(1.0)],
-            &numerical_vectors,
-            2,
-        );
-        assert!(out.is_some());
+        assert!(evenly_split([1.0, 1.0]).is_some());
     }
 
     #[test]
