@@ -9,7 +9,7 @@
 //! compass search; a trusted positive maximum ([`crate::operator::Spectrum`]) is
 //! the witness of a scheme that no Δt makes stable.
 
-use crate::numeric::minimise::{compass_min, golden_max};
+use crate::numeric::minimise::compass_min;
 use crate::operator::{Operator, Spectrum};
 use crate::sample::{ray_length, Grid};
 use num_complex::Complex64 as C64;
@@ -104,11 +104,13 @@ pub fn unstable_wavevector(op: &Operator, tolerance: f64, grid: &Grid) -> Option
 }
 
 /// A wavevector on the ray θ = s n (0 ≤ s to the box boundary) where L(θ) has
-/// an eigenvalue with a positive real part beyond rounding, from `samples`
-/// uniform samples (s = 0 included) and a golden-section refinement of the
-/// best one; None when none is found. A direction whose ray meets such a
-/// wavevector has no stable Δt, however small the rounding tolerance lets the
-/// first exit look.
+/// an eigenvalue with a positive real part beyond rounding, among `samples`
+/// uniform samples (s = 0 included); None when none is found. A direction whose
+/// ray meets such a wavevector has no stable Δt, however small the rounding
+/// tolerance lets the first exit look. The samples are not refined: between
+/// them, and close to s = 0 where L is nearly zero and a degenerate cluster
+/// (Maxwell's static pair) spreads by rounding, the ray's own first-loss search
+/// decides.
 pub fn unstable_on_ray(
     op: &Operator,
     tolerance: f64,
@@ -119,31 +121,7 @@ pub fn unstable_on_ray(
     let at = |s: f64| -> Vec<f64> { n.iter().map(|x| x * s).collect() };
     let mut spectrum = Spectrum::new(op, tolerance);
     let mut eig = vec![C64::new(0.0, 0.0); op.m];
-    let values: Vec<f64> = (0..=samples)
-        .map(|k| {
-            abscissa(
-                &mut spectrum,
-                &mut eig,
-                &at(smax * k as f64 / samples as f64),
-            )
-        })
-        .collect();
-    let (kbest, vbest) = values
-        .iter()
-        .copied()
-        .enumerate()
-        .max_by(|a, b| a.1.total_cmp(&b.1))?;
-    if vbest > 0.0 {
-        return Some(at(smax * kbest as f64 / samples as f64));
-    }
-    let lo = smax * kbest.saturating_sub(1) as f64 / samples as f64;
-    let hi = smax * (kbest + 1).min(samples) as f64 / samples as f64;
-    let cell = std::cell::RefCell::new((spectrum, eig));
-    let g = |s: f64| {
-        let mut c = cell.borrow_mut();
-        let (sp, e) = &mut *c;
-        abscissa(sp, e, &at(s))
-    };
-    let (s, v) = golden_max(&g, lo, hi);
-    (v > 0.0).then(|| at(s))
+    (0..=samples)
+        .map(|k| at(smax * k as f64 / samples as f64))
+        .find(|theta| abscissa(&mut spectrum, &mut eig, theta) > 0.0)
 }
