@@ -149,21 +149,22 @@ fn settings(plan: &Plan) -> (usize, f64) {
 /// Points per wavelength each physical mode needs for the case's phase tolerance,
 /// from the dispersion curves (semi-discrete, and with the time method).
 fn resolution_line(case: &Problem, op: &Operator, directions: usize, tol: f64) -> String {
-    use crate::analysis::dispersion::{curves, frequencies::Frequencies};
+    use crate::analysis::dispersion::{curves, frequencies::Frequencies, resolution};
     let f = Frequencies::new(case, op);
     let dt = case.dt();
     let dirs = curves::curve_directions(case.dims(), directions);
     let curves_: Vec<_> = dirs.iter().map(|n| curves::curve(&f, n, dt)).collect();
     let names = &case.system.mode_names;
-    let res = curves::worst_resolution(&curves_, names.len(), tol);
+    let res = resolution::resolve(&f, &dirs, &curves_, dt, tol, names.len(), crate::Par::Seq);
     let parts: Vec<String> = names
         .iter()
         .zip(&res)
-        .filter_map(|(name, (semi, disc, _))| {
-            semi.map(|a| {
+        .filter_map(|(name, r)| {
+            r.semi_ppw().map(|a| {
                 format!(
-                    "{name} {a:.1} ({:.1} with {})",
-                    disc.unwrap_or(f64::NAN),
+                    "{name} {} ({} with {})",
+                    crate::report::format::sig3(a),
+                    crate::report::format::sig3(r.discrete_ppw().unwrap_or(f64::NAN)),
                     case.method.name
                 )
             })

@@ -80,8 +80,9 @@ fn points_per_wavelength_for_one_percent_error_with_c2_follow_sin_theta_over_the
     }
     let want = 2.0 * std::f64::consts::PI / th;
     let (_, r) = run(&advection_1d("central2", "rk4", 0.1));
-    let got = disp(&r).resolution[0].0.unwrap();
-    assert!((got - want).abs() <= 0.02 * want, "{got} vs {want}");
+    let got = disp(&r).resolution[0].semi_ppw().unwrap();
+    // the crossing is found by bisection on the error curve, not interpolated
+    assert!((got - want).abs() <= 1e-7 * want, "{got} vs {want}");
 }
 
 #[test]
@@ -258,9 +259,19 @@ fn upwind_euler_ppw(nu: f64, tol: f64) -> f64 {
     };
     let mut th = 1e-4;
     while (ratio(th) - 1.0).abs() <= tol {
-        th += 1e-5;
+        th += 1e-3;
     }
-    2.0 * std::f64::consts::PI / th
+    // bisection between the last good and the first bad step
+    let (mut good, mut bad) = (th - 1e-3, th);
+    for _ in 0..60 {
+        let mid = 0.5 * (good + bad);
+        if (ratio(mid) - 1.0).abs() <= tol {
+            good = mid;
+        } else {
+            bad = mid;
+        }
+    }
+    2.0 * std::f64::consts::PI / good
 }
 
 #[test]
@@ -275,9 +286,11 @@ fn each_wave_of_a_user_system_keeps_its_name_and_its_own_speed_in_both_direction
     let d = disp(&r);
     for (mode, speed) in [(0usize, 1.0), (1, 1.1)] {
         let want = upwind_euler_ppw(0.9 * speed / 1.1, d.tolerance);
-        let got = d.resolution[mode].1.expect("a fully discrete requirement");
+        let got = d.resolution[mode]
+            .discrete_ppw()
+            .expect("a fully discrete requirement");
         assert!(
-            (got - want).abs() <= 0.01 * want,
+            (got - want).abs() <= 1e-7 * want,
             "mode {mode}: {got} vs {want}"
         );
         // the same wave in both directions: its exact frequency is speed·θ
@@ -288,5 +301,126 @@ fn each_wave_of_a_user_system_keeps_its_name_and_its_own_speed_in_both_direction
                 "mode {mode} at θ = {th}: {w}"
             );
         }
+    }
+}
+
+/// The first points per wavelength p (scanning from 256 down to 2) at which
+/// |ratio(2π/p) − 1| leaves `tol`, refined by bisection; 2 when it never does.
+fn crossing_ppw(ratio: impl Fn(f64) -> f64, tol: f64) -> f64 {
+    let bad = |p: f64| (ratio(2.0 * std::f64::consts::PI / p) - 1.0).abs() > tol;
+    let steps = 20_000;
+    let at = |j: usize| 256.0 * (2.0f64 / 256.0).powf(j as f64 / steps as f64);
+    let Some(j) = (1..=steps).find(|&j| bad(at(j))) else {
+        return 2.0;
+    };
+    let (mut good, mut worse) = (at(j - 1), at(j));
+    for _ in 0..60 {
+        let mid = 0.5 * (good + worse);
+        if bad(mid) {
+            worse = mid;
+        } else {
+            good = mid;
+        }
+    }
+    good
+}
+
+#[test]
+fn an_anisotropic_grid_needs_the_same_points_per_wavelength_along_each_axis() {
+    // Gravity waves without rotation, C2 on a grid with h_x = 2 h_y. Along each
+    // axis c_num/c = sin θ/θ (common practice), so 1 % phase error needs
+    // 2π/θ* ≈ 25.6 cells per wavelength along x and along y alike; obliquely the
+    // ratio is a weighted mean of sin θ_d/θ_d, never below that of max_d |θ_d|,
+    // so no direction needs more. Counting in the smallest spacing charged the
+    // x-wave twice that. The shortest wavelength kept within 1 % in every
+    // direction is that of the x-wave, 25.6 h_x.
+    let text = "[grid]\nspacing = [2.0, 1.0]\n[model]\nkind = \"shallow-water\"\ngravity = 9.81\ndepth = 10.0\n[space]\nfirst = \"central2\"\n[time]\nmethod = \"rk4\"\ncourant = 0.05\n[scan]\npoints = [17, 17]\nanalyses = [\"dispersion\"]\n";
+    let (_, r) = run(text);
+    let d = disp(&r);
+    let want = crossing_ppw(|t| t.sin() / t, d.tolerance);
+    let mut propagating = 0;
+    for res in &d.resolution {
+        let Some(q) = &res.semi else { continue };
+        propagating += 1;
+        assert!(
+            (q.ppw() - want).abs() <= 1e-7 * want,
+            "{} vs {want}",
+            q.ppw()
+        );
+        assert!(
+            (q.wavelength - 2.0 * want).abs() <= 1e-7 * want,
+            "{}",
+            q.wavelength
+        );
+        let cells = q.cells_by_axis(&[2.0, 1.0]);
+        assert!((cells[0] - want).abs() <= 1e-7 * want, "{cells:?}");
+        assert!((cells[1] - 2.0 * want).abs() <= 1e-7 * want, "{cells:?}");
+        assert!(res.excluded.is_empty());
+    }
+    assert_eq!(propagating, 2, "two gravity waves");
+}
+
+#[test]
+fn directions_almost_across_the_flow_are_left_out_and_the_rest_follow_the_closed_form() {
+    // Oblique advection with velocity u = (1, 0.3), C2: along a physical
+    // direction n the phase ratio is (u·sin θ)/(u·θ) with sin taken per
+    // component (common practice). Where u·n → 0 the wave hardly moves and its
+    // relative phase error blows up at every wavelength, so the requirement once
+    // depended on which directions were sampled. Directions where |u·n| is below
+    // 10 % of its largest are left out (and counted); every other direction's
+    // crossing follows the closed form.
+    let u = [1.0, 0.3];
+    let text = "[grid]\nspacing = [1.0, 1.0]\n[model]\nkind = \"advection\"\nvelocity = [1.0, 0.3]\n[space]\nfirst = \"central2\"\n[time]\nmethod = \"rk4\"\ncourant = 0.05\n[scan]\npoints = [17, 17]\nanalyses = [\"dispersion\"]\n";
+    let (_, r) = run(text);
+    let d = disp(&r);
+    let speed = |n: &[f64]| u[0] * n[0] + u[1] * n[1];
+    let fastest = d
+        .directions
+        .iter()
+        .map(|n| speed(n).abs())
+        .fold(0.0, f64::max);
+    let slow: Vec<usize> = (0..d.directions.len())
+        .filter(|&k| speed(&d.directions[k]).abs() < 0.1 * fastest)
+        .collect();
+    assert!(!slow.is_empty());
+    assert_eq!(d.resolution[0].excluded, slow);
+    let mut want = 0.0f64;
+    for (k, n) in d.directions.iter().enumerate() {
+        if slow.contains(&k) {
+            continue;
+        }
+        let norm_inf = n[0].abs().max(n[1].abs());
+        let p = crossing_ppw(
+            |t| {
+                let th = [t * n[0] / norm_inf, t * n[1] / norm_inf];
+                (u[0] * th[0].sin() + u[1] * th[1].sin()) / (u[0] * th[0] + u[1] * th[1])
+            },
+            d.tolerance,
+        );
+        want = want.max(p);
+    }
+    let got = d.resolution[0].semi_ppw().expect("a requirement");
+    assert!((got - want).abs() <= 1e-6 * want, "{got} vs {want}");
+}
+
+#[test]
+fn the_number_of_curve_directions_is_a_case_key() {
+    let base = "[grid]\nspacing = [1.0, 1.0]\n[model]\nkind = \"advection\"\nvelocity = [1.0, 0.5]\n[space]\nfirst = \"central4\"\n[time]\nmethod = \"rk4\"\ncourant = 0.1\n[scan]\npoints = [9, 9]\nanalyses = [\"dispersion\"]\n";
+    // default: 36 angles, rounded up to 40 so that axes and diagonals are in the set
+    let (_, r) = run(base);
+    assert_eq!(disp(&r).directions.len(), 40);
+    let (_, r) = run(&format!("{base}dispersion_directions = 16\n"));
+    let d = disp(&r);
+    assert_eq!(d.directions.len(), 16);
+    assert_eq!(d.phase_curves.len(), 16);
+    for bad in ["0", "100000"] {
+        let text = format!("{base}dispersion_directions = {bad}\n");
+        let err = Case::from_str_with(&text, std::path::Path::new("c.toml"), &[])
+            .err()
+            .expect("refused");
+        assert!(
+            err.to_string().contains("scan.dispersion_directions"),
+            "{err}"
+        );
     }
 }

@@ -580,7 +580,10 @@ fn dispersion_picture_without_a_propagating_mode_shows_a_note() {
     let c = case(DIFFUSION_2D);
     let r = results(&c);
     let d = r.dispersion.as_ref().expect("dispersion");
-    assert!(d.resolution.iter().all(|x| x.0.is_none() && x.1.is_none()));
+    assert!(d
+        .resolution
+        .iter()
+        .all(|x| x.semi.is_none() && x.discrete.is_none()));
     let tmp = tempfile::tempdir().expect("temp dir");
     let files = write_pictures(tmp.path(), &c.problem, &r).expect("pictures drawn");
     assert_eq!(files.len(), 1);
@@ -623,7 +626,9 @@ fn dispersion_picture_leaves_gaps_at_nan_and_clips_far_ratios() {
         assert_looks_like_a_picture(&files[0]);
         // no requirement at all, but curves: the note stands instead
         let d = r.dispersion.as_mut().expect("dispersion");
-        d.resolution.iter_mut().for_each(|x| *x = (None, None, 0));
+        d.resolution
+            .iter_mut()
+            .for_each(|x| *x = Default::default());
         let files = write_pictures(tmp.path(), &c.problem, &r).expect("pictures drawn");
         let p = decode(&files[0]);
         assert_eq!((p.width, p.height), SIZE);

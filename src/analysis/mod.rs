@@ -116,7 +116,7 @@ impl Plan {
             .with_limit(LimitParams { directions })
             .with_growth(GrowthParams::default())
             .with_dispersion(DispersionParams {
-                directions,
+                directions: DispersionParams::default_directions(dims, directions),
                 ..Default::default()
             })
     }
@@ -195,7 +195,11 @@ impl Plan {
             cap("scan.steps", g.steps, MAX_STEPS)?;
         }
         if let Some(d) = &self.dispersion {
-            cap("scan.directions", d.directions, MAX_DIRECTIONS)?;
+            cap(
+                "scan.dispersion_directions",
+                d.directions,
+                dispersion::MAX_CURVE_DIRECTIONS,
+            )?;
         }
         if !(0.0..1e-2).contains(&self.tolerance) {
             return Err(InputError::new("scan.tolerance", "must lie in [0, 0.01)"));

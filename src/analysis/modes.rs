@@ -92,14 +92,14 @@ fn direction_text(theta: &[f64], forward: bool) -> String {
             }
         }
         2 => format!(
-            "travelling at {:.1} deg",
+            "travelling at {:.1} deg in theta-space",
             (theta[1].atan2(theta[0]).to_degrees() + flip).rem_euclid(360.0)
         ),
         _ => {
             let r = theta.iter().map(|x| x * x).sum::<f64>().sqrt().max(1e-300);
             let s = if forward { 1.0 } else { -1.0 };
             format!(
-                "travelling at azimuth {:.1} deg, elevation {:.1} deg",
+                "travelling at azimuth {:.1} deg, elevation {:.1} deg in theta-space",
                 (theta[1] * s)
                     .atan2(theta[0] * s)
                     .to_degrees()

@@ -210,6 +210,12 @@ pub(super) fn plan(s: &RawScan, dims: usize) -> Result<Plan, InputError> {
         }
     }
     let phase_tolerance = positive("scan.phase_tolerance", s.phase_tolerance.unwrap_or(0.01))?;
+    let curve_directions = count(
+        "scan.dispersion_directions",
+        s.dispersion_directions,
+        DispersionParams::default_directions(dims, directions) as i64,
+        1,
+    )?;
     let points: Vec<usize> = points.iter().map(|&n| n as usize).collect();
     let mut plan = Plan::new(&points).with_tolerance(tolerance);
     plan.matrices = matrices;
@@ -224,7 +230,7 @@ pub(super) fn plan(s: &RawScan, dims: usize) -> Result<Plan, InputError> {
             }),
             _ => plan.with_dispersion(DispersionParams {
                 phase_tolerance,
-                directions,
+                directions: curve_directions,
             }),
         };
     }

@@ -114,4 +114,5 @@ pub struct RawScan {
     pub epsilon: Option<f64>,
     pub weights: Option<Vec<f64>>,
     pub phase_tolerance: Option<f64>,
+    pub dispersion_directions: Option<i64>,
 }

@@ -9,6 +9,7 @@
 pub mod curves;
 pub mod frequencies;
 pub mod maps;
+pub mod resolution;
 pub mod shape;
 
 use super::context::Context;
@@ -22,7 +23,9 @@ use num_complex::Complex64 as C64;
 pub struct DispersionParams {
     /// Phase-error tolerance of the points-per-wavelength requirement.
     pub phase_tolerance: f64,
-    /// Directions of the dispersion curves in 3-D (12..60 used).
+    /// Physical directions of the dispersion curves (2-D: angles, rounded up to
+    /// a multiple of 8 so that axes and diagonals are among them; 3-D: sphere
+    /// points; 1-D: always ±x). Case key `scan.dispersion_directions`.
     pub directions: usize,
 }
 
@@ -33,11 +36,27 @@ impl DispersionParams {
     }
 }
 
+/// Most curve directions a case may ask for.
+pub const MAX_CURVE_DIRECTIONS: usize = 4096;
+
+impl DispersionParams {
+    /// The default number of curve directions: 36 angles in 2-D (40 after
+    /// rounding up to a multiple of 8), in 3-D the limit's direction count
+    /// clamped to 12..=60 (60 for the default 400).
+    pub fn default_directions(dims: usize, limit_directions: usize) -> usize {
+        match dims {
+            1 => 2,
+            2 => 36,
+            _ => limit_directions.clamp(12, 60),
+        }
+    }
+}
+
 impl Default for DispersionParams {
     fn default() -> Self {
         DispersionParams {
             phase_tolerance: 0.01,
-            directions: 180,
+            directions: 36,
         }
     }
 }
@@ -63,7 +82,8 @@ pub struct DispersionResult {
     pub group_discrete: Vec<Vec<Vec<f64>>>,
     /// Physical directions of the curves (unit vectors in k-space).
     pub directions: Vec<Vec<f64>>,
-    /// Points per wavelength of the curve samples.
+    /// Points per wavelength 2π/max_d |θ_d| of the curve samples (the same
+    /// along every direction).
     pub ppw: Vec<f64>,
     /// Phase-speed ratio c_num/c_exact, semi-discrete [direction][sample][mode].
     pub phase_curves: Vec<Vec<Vec<f64>>>,
@@ -71,9 +91,9 @@ pub struct DispersionResult {
     pub phase_curves_discrete: Vec<Vec<Vec<f64>>>,
     /// Group-speed ratio along the physical group velocity, semi-discrete.
     pub group_curves: Vec<Vec<Vec<f64>>>,
-    /// Per mode: (semi-discrete, fully discrete) points per wavelength needed for
-    /// |phase error| ≤ tolerance in the worst direction, and that direction's index.
-    pub resolution: Vec<(Option<f64>, Option<f64>, usize)>,
+    /// Per mode: the points per wavelength and the shortest wavelength needed
+    /// for |phase error| ≤ tolerance in every direction, semi- and fully discrete.
+    pub resolution: Vec<resolution::Resolution>,
     /// Phase tolerance used.
     pub tolerance: f64,
     /// Maps derived from the frequencies at every node.
@@ -139,9 +159,9 @@ pub(super) fn analyse(ctx: &Context, p: &DispersionParams) -> DispersionResult {
     let names = ctx.problem.system.mode_names.clone();
     let m = names.len();
     let tol = p.phase_tolerance;
-    let resolution = curves::worst_resolution(&curves, m, tol);
+    let resolution = resolution::resolve(&f, &dirs, &curves, dt, tol, m, ctx.par);
     let computational = nodes.first().map_or(0, |n| n.2.len().saturating_sub(m));
-    let ppw = curves.first().map(|c| c.0.clone()).unwrap_or_default();
+    let ppw = curves::curve_ppw();
     let mut maps = DerivedMaps::default();
     let mut opposed = vec![0usize; m];
     for (num, exact, disc, gn, ge, gd) in &nodes {

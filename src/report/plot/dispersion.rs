@@ -23,7 +23,6 @@
 
 use super::heatmap::{legend_entry, Key};
 use super::{style, title_band, Area, Res, SIZE, TITLE_BAND};
-use crate::analysis::dispersion::curves::curve_ppw;
 use crate::analysis::dispersion::DispersionResult;
 use crate::analysis::Results;
 use crate::problem::Problem;
@@ -46,7 +45,7 @@ const PHASE_CAP: (f64, f64) = (0.0, 1.5);
 /// Axis limits of the group-speed ratio.
 const GROUP_CAP: (f64, f64) = (-1.0, 1.5);
 
-const X_LABEL: &str = "points per wavelength 2π/(|k| h_min)";
+const X_LABEL: &str = "points per wavelength 2π/max|θ_d|";
 
 /// The mode the picture shows: the largest finite semi-discrete resolution
 /// requirement, or, when no mode has one, the largest fully discrete one.
@@ -56,7 +55,7 @@ pub fn shown_mode(d: &DispersionResult) -> Option<usize> {
             .iter()
             .enumerate()
             .filter_map(|(j, r)| {
-                let v = if semi { r.0 } else { r.1 };
+                let v = if semi { r.semi_ppw() } else { r.discrete_ppw() };
                 v.filter(|v| v.is_finite()).map(|v| (j, v))
             })
             .max_by(|a, b| a.1.total_cmp(&b.1))
@@ -499,15 +498,12 @@ fn requirements(d: &DispersionResult) -> Vec<String> {
         "points per wavelength for {} phase error, semi-discrete / fully discrete, worst direction:",
         percent(d.tolerance)
     )];
-    parts.extend(
-        d.names
-            .iter()
-            .zip(&d.resolution)
-            .map(|(name, (semi, disc, _))| match (semi, disc) {
-                (None, None) => format!("{name} does not propagate"),
-                _ => format!("{name} {} / {}", ppw_text(*semi), ppw_text(*disc)),
-            }),
-    );
+    parts.extend(d.names.iter().zip(&d.resolution).map(|(name, res)| {
+        match (res.semi_ppw(), res.discrete_ppw()) {
+            (None, None) => format!("{name} does not propagate"),
+            (semi, disc) => format!("{name} {} / {}", ppw_text(semi), ppw_text(disc)),
+        }
+    }));
     parts
 }
 
@@ -544,21 +540,14 @@ pub fn draw(root: &Area, problem: &Problem, r: &Results, d: &DispersionResult) -
         note_lines(root, &lines, SIZE.1 as i32 / 2 - 50)?;
         return Ok(());
     };
-    let (semi_need, disc_need, worst) = d.resolution[mode];
+    let res = &d.resolution[mode];
+    let (semi_need, disc_need, worst) = (res.semi_ppw(), res.discrete_ppw(), res.worst_direction());
     let name = &d.names[mode];
     let picks = picks(d, worst);
     let pct = percent(d.tolerance);
 
     // samples of the shown mode per drawn direction, x = −log₂ ppw
-    let spacing = &problem.spacing;
-    let ppw_of = |k: usize| {
-        let p = curve_ppw(&d.directions[k], spacing);
-        if p.len() == d.phase_curves[k].len() {
-            p
-        } else {
-            d.ppw.clone()
-        }
-    };
+    let ppw_of = |_: usize| d.ppw.clone();
     let column = |rows: &[Vec<f64>], ppw: &[f64]| -> Vec<(f64, f64)> {
         rows.iter()
             .zip(ppw)

@@ -4,9 +4,10 @@
 
 use super::grid::grid_dims;
 use super::Section;
+use crate::analysis::dispersion::resolution::{Requirement, SLOW_FRACTION};
 use crate::analysis::Results;
 use crate::problem::Problem;
-use crate::report::format::{direction_deg, num};
+use crate::report::format::{direction_deg, num, sig3, vec_num};
 use crate::report::npy::{axis, plain, Array};
 use num_complex::Complex64 as C64;
 use serde_json::{json, Map, Value};
@@ -172,43 +173,73 @@ impl Section for Dispersion {
         }
     }
 
-    fn summary(&self, _p: &Problem, r: &Results, s: &mut Map<String, Value>) {
+    fn summary(&self, p: &Problem, r: &Results, s: &mut Map<String, Value>) {
         let Some(d) = &r.dispersion else {
             return;
+        };
+        let spacing = &p.spacing;
+        let requirement = |q: &Option<Requirement>| match q {
+            None => json!(null),
+            Some(q) => {
+                let (deg, el) = direction_deg(&d.directions[q.worst.direction]);
+                json!({
+                    "ppw": num(q.ppw()),
+                    "shortest_wavelength": num(q.wavelength),
+                    "cells_per_wavelength_by_axis": vec_num(&q.cells_by_axis(spacing)),
+                    "worst_physical_direction_deg": deg,
+                    "worst_physical_elevation_deg": el,
+                    "theta_at_threshold": vec_num(&q.worst.theta),
+                })
+            }
         };
         let modes: Vec<Value> = d
             .names
             .iter()
             .zip(&d.resolution)
             .zip(&d.parasitic_fraction)
-            .map(|((name, (semi, disc, k)), parasitic)| {
-                let (deg, el) = direction_deg(&d.directions[*k]);
+            .map(|((name, res), parasitic)| {
+                let (deg, el) = direction_deg(&d.directions[res.worst_direction()]);
+                let semi = res.semi_ppw();
                 json!({
                     "name": name,
                     "ppw_required": semi.map(num),
-                    "ppw_required_discrete": disc.map(num),
+                    "ppw_required_discrete": res.discrete_ppw().map(num),
                     "worst_direction_deg": semi.map(|_| deg),
                     "worst_elevation_deg": semi.and(el),
+                    "semi_discrete": requirement(&res.semi),
+                    "fully_discrete": requirement(&res.discrete),
+                    "slow_directions_excluded": res.excluded.len(),
                     "parasitic_fraction": parasitic,
                 })
             })
             .collect();
-        s.insert(
-            "dispersion".into(),
-            json!({
-                "phase_tolerance": d.tolerance,
-                "modes": modes,
-                "computational_modes": d.computational,
-                "definitions": {
-                    "ppw_required": "points per wavelength 2 pi/(|k| h_min) above which |c_num/c_exact - 1| <= phase_tolerance in every direction",
-                    "parasitic_fraction": "share of grid wavevectors where the numerical group velocity opposes the exact one",
-                    "computational_modes": "fully discrete eigenvalues with no semi-discrete partner (extra roots of multistep methods)",
-                },
-            }),
-        );
+        let excluded: usize = d.resolution.iter().map(|r| r.excluded.len()).sum();
+        let mut out = json!({
+            "phase_tolerance": d.tolerance,
+            "curve_directions": d.directions.len(),
+            "modes": modes,
+            "computational_modes": d.computational,
+            "definitions": {
+                "ppw_required": "points per wavelength 2 pi / max_d |theta_d| (cells per wavelength along the least-resolved grid axis) above which |c_num/c_exact - 1| <= phase_tolerance in every physical curve direction where the mode moves; the crossing is found by bisection on the phase error between curve samples (to 1e-10 in ln k); null when the mode does not propagate",
+                "ppw_required_discrete": "the same for the fully discrete phase speed (with the time method at the case's dt)",
+                "worst_direction_deg": "physical direction (angle of the wavevector k in physical space, not in theta-space) needing the most points per wavelength",
+                "shortest_wavelength": "the shortest wavelength (units of grid.spacing) kept within phase_tolerance in every included direction: the longest of the per-direction threshold wavelengths",
+                "cells_per_wavelength_by_axis": "shortest_wavelength / spacing_d: how many cells along each axis that wavelength spans",
+                "slow_directions_excluded": "curve directions left out because the mode's exact long-wave phase speed there is below 10 % of its fastest (a wave crossing a mean flow almost at right angles hardly moves, and its relative phase error is ill-conditioned)",
+                "parasitic_fraction": "share of grid wavevectors where the numerical group velocity opposes the exact one",
+                "computational_modes": "fully discrete eigenvalues with no semi-discrete partner (extra roots of multistep methods)",
+            },
+        });
+        if excluded > 0 {
+            out["caution"] = json!(format!(
+                "{excluded} mode-direction pair(s) excluded from the resolution requirement as near-zero phase speed (below {} % of the mode's fastest); see slow_directions_excluded",
+                100.0 * SLOW_FRACTION
+            ));
+        }
+        s.insert("dispersion".into(), out);
     }
 
-    fn rows(&self, _p: &Problem, r: &Results, rows: &mut Vec<(String, String)>) {
+    fn rows(&self, p: &Problem, r: &Results, rows: &mut Vec<(String, String)>) {
         let Some(d) = &r.dispersion else {
             return;
         };
@@ -216,10 +247,10 @@ impl Section for Dispersion {
             .names
             .iter()
             .zip(&d.resolution)
-            .filter_map(|(n, (semi, disc, _))| {
-                semi.map(|a| match disc {
-                    Some(b) => format!("{n} {a:.1} ({b:.1} with time stepping)"),
-                    None => format!("{n} {a:.1}"),
+            .filter_map(|(n, res)| {
+                res.semi_ppw().map(|a| match res.discrete_ppw() {
+                    Some(b) => format!("{n} {} ({} with time stepping)", sig3(a), sig3(b)),
+                    None => format!("{n} {}", sig3(a)),
                 })
             })
             .collect();
@@ -227,9 +258,43 @@ impl Section for Dispersion {
             rows.push((
                 "resolution".into(),
                 format!(
-                    "points per wavelength for {:.1}% phase error: {}",
+                    "points per wavelength (along the least-resolved axis) for {:.1}% phase error: {}",
                     100.0 * d.tolerance,
                     parts.join(", ")
+                ),
+            ));
+        }
+        // the longest of the modes' shortest well-resolved wavelengths, with time stepping
+        let longest = d
+            .names
+            .iter()
+            .zip(&d.resolution)
+            .filter_map(|(n, res)| res.discrete.as_ref().or(res.semi.as_ref()).map(|q| (n, q)))
+            .max_by(|a, b| a.1.wavelength.total_cmp(&b.1.wavelength));
+        if let Some((name, q)) = longest {
+            let axes = ["x", "y", "z"];
+            let cells: Vec<String> = q
+                .cells_by_axis(&p.spacing)
+                .iter()
+                .zip(axes)
+                .map(|(c, a)| format!("{} cells along {a}", sig3(*c)))
+                .collect();
+            rows.push((
+                "wavelength".into(),
+                format!(
+                    "shortest well-resolved wavelength {} m ({name}, with time stepping): {}",
+                    sig3(q.wavelength),
+                    cells.join(", ")
+                ),
+            ));
+        }
+        let excluded: usize = d.resolution.iter().map(|r| r.excluded.len()).sum();
+        if excluded > 0 {
+            rows.push((
+                "caution".into(),
+                format!(
+                    "{excluded} mode-direction pair(s) left out of the resolution: phase speed below {} % of the mode's fastest",
+                    100.0 * SLOW_FRACTION
                 ),
             ));
         }

@@ -4,7 +4,7 @@
 use super::Section;
 use crate::analysis::{LimitKind, Results};
 use crate::problem::Problem;
-use crate::report::format::{dir, direction_deg, num, theta, vec_num};
+use crate::report::format::{dir, direction_deg, num, physical, theta, vec_num};
 use crate::report::npy::{axis, plain, Array};
 use serde_json::{json, Map, Value};
 
@@ -71,11 +71,12 @@ impl Section for Limit {
         }
     }
 
-    fn summary(&self, _p: &Problem, r: &Results, s: &mut Map<String, Value>) {
+    fn summary(&self, p: &Problem, r: &Results, s: &mut Map<String, Value>) {
         let Some(l) = &r.limit else {
             return;
         };
         let (deg, el) = direction_deg(&l.wavevector);
+        let (pdeg, pel) = direction_deg(&physical(&l.wavevector, &p.spacing));
         let dt_max = match l.kind {
             LimitKind::Unconditional => Value::Null,
             LimitKind::None => json!(0.0),
@@ -87,8 +88,11 @@ impl Section for Limit {
             "courant_max": l.courant_max.map(num),
             "diffusion_number_max": l.diffusion_number_max.map(num),
             "wavevector": vec_num(&l.wavevector),
+            "physical_direction_deg": pdeg,
+            "physical_elevation_deg": pel,
             "direction_deg": deg,
             "elevation_deg": el,
+            "directions": "physical_direction_deg is the direction of k (k_d = theta_d / h_d); direction_deg and elevation_deg, here and in limit_by_direction, are directions in theta-space (theta_d = k_d h_d), the same on a grid with equal spacings",
             "stable_at_case_dt": l.stable_at_dt,
             "found_by": l.found_by.describe(),
         });
@@ -110,10 +114,13 @@ impl Section for Limit {
         s.insert("limit".into(), limit);
         let d = &l.by_direction;
         let (deg, el) = direction_deg(&d.directions[d.worst]);
+        let (pdeg, pel) = direction_deg(&physical(&d.directions[d.worst], &p.spacing));
         s.insert(
             "limit_by_direction".into(),
             json!({
                 "count": d.directions.len(),
+                "worst_physical_direction_deg": pdeg,
+                "worst_physical_elevation_deg": pel,
                 "dt_min": num(d.smallest()),
                 "worst_direction_deg": deg,
                 "worst_elevation_deg": el,
@@ -122,7 +129,7 @@ impl Section for Limit {
         );
     }
 
-    fn rows(&self, _p: &Problem, r: &Results, rows: &mut Vec<(String, String)>) {
+    fn rows(&self, p: &Problem, r: &Results, rows: &mut Vec<(String, String)>) {
         let Some(l) = &r.limit else {
             return;
         };
@@ -149,8 +156,9 @@ impl Section for Limit {
             rows.push((
                 "set by".into(),
                 format!(
-                    "theta = {}, direction {}",
+                    "theta = {}, physical direction {} (theta-space {})",
                     theta(&l.wavevector),
+                    dir(&physical(&l.wavevector, &p.spacing)),
                     dir(&l.wavevector)
                 ),
             ));
@@ -170,8 +178,9 @@ impl Section for Limit {
             rows.push((
                 "by direction".into(),
                 format!(
-                    "{} directions: dt from {vmin:.6e} ({}) to {vmax:.6e}",
+                    "{} theta-space directions: dt from {vmin:.6e} (physical direction {}, theta-space {}) to {vmax:.6e}",
                     d.directions.len(),
+                    dir(&physical(&d.directions[d.worst], &p.spacing)),
                     dir(&d.directions[d.worst])
                 ),
             ));
