@@ -1,9 +1,12 @@
 //! The NPY exporter: every array a section describes is written as a `.npy`
 //! file (little-endian float64 or complex128, C order) straight from the
 //! results' own memory, and described in the manifest — file, shape, dtype,
-//! dims, coords (the file holding each axis's coordinates, or null), units and
-//! long_name (as in the CF conventions), plus labels where the last axis is a
-//! list of named things. Files are written in parallel.
+//! dims, coords (per dimension either the file holding its coordinates or the
+//! coordinate values themselves: the labels of named things such as modes, the
+//! axis names x, y, z, or the indices 0..n−1), units and long_name (as in the CF
+//! conventions), plus labels where an axis is a list of named things. A
+//! dimension name stands for one length throughout a folder, so the arrays load
+//! into one xarray Dataset. Files are written in parallel.
 
 use super::ReportError;
 use ndarray::{ArrayViewD, IxDyn};
@@ -92,10 +95,26 @@ impl<'a> Array<'a> {
             Data::Real(_) => "float64",
             Data::Complex(_) => "complex128",
         };
+        let labels = self
+            .extra
+            .iter()
+            .find(|(k, _)| *k == "labels")
+            .and_then(|(_, v)| v.as_array());
         let coords: Map<String, Value> = self
             .dims
             .iter()
-            .map(|(d, f)| (d.to_string(), f.clone().map_or(Value::Null, Value::from)))
+            .zip(&self.shape)
+            .map(|((d, f), &n)| {
+                let values = match (f, *d, labels) {
+                    (Some(file), _, _) => Value::from(file.clone()),
+                    (None, "axis", _) if n <= 3 => json!(["x", "y", "z"][..n]),
+                    (None, dim, Some(l)) if LABELLED.contains(&dim) && l.len() == n => {
+                        Value::from(l.clone())
+                    }
+                    (None, _, _) => json!((0..n).collect::<Vec<usize>>()),
+                };
+                (d.to_string(), values)
+            })
             .collect();
         let names: Vec<&str> = self.dims.iter().map(|(d, _)| *d).collect();
         let mut e = json!({
@@ -133,12 +152,16 @@ impl<'a> Array<'a> {
     }
 }
 
+/// Dimensions whose coordinates are the array's labels (when as many).
+const LABELLED: [&str; 4] = ["mode", "discrete_mode", "component", "stacked_component"];
+
 /// An axis named `name` whose coordinates are in `file`.
 pub fn axis(name: &'static str, file: &str) -> (&'static str, Option<String>) {
     (name, Some(file.to_string()))
 }
 
-/// An axis without a coordinate file (modes, components, ...).
+/// An axis without a coordinate file (modes, components, ...): its coordinates
+/// are written into the manifest.
 pub fn plain(name: &'static str) -> (&'static str, Option<String>) {
     (name, None)
 }

@@ -55,6 +55,9 @@ impl Section for Dispersion {
         let mm = d.discrete.first().map_or(m, |x| x.len());
         let mut dshape = r.grid.points.clone();
         dshape.push(mm);
+        // the fully discrete modes (principal + computational) are a dimension of their own
+        let mut ddims = grid_dims(r);
+        ddims.push(plain("discrete_mode"));
         let mut labels = d.names.clone();
         labels.extend((0..mm - m).map(|k| format!("computational{}", k + 1)));
         out.push(
@@ -62,7 +65,7 @@ impl Section for Dispersion {
                 "frequency_discrete",
                 &dshape,
                 d.discrete.iter().flatten().copied().collect::<Vec<C64>>(),
-                mdims.clone(),
+                ddims,
                 "rad s-1",
                 "fully discrete omega from eig G (lambda = exp(-i omega dt)), physical modes then computational modes",
             )
@@ -136,9 +139,9 @@ impl Section for Dispersion {
             "dispersion_ppw",
             &[k],
             &d.ppw[..],
-            vec![plain("sample")],
+            vec![axis("curve_sample", "dispersion_ppw.npy")],
             "1",
-            "points per wavelength 2 pi/(|k| h_min) of the curve samples",
+            "points per wavelength 2 pi / max_d |theta_d| of the curve samples (cells per wavelength along the least-resolved axis), the same along every direction",
         ));
         for (name, src, long_name) in [
             (
@@ -162,8 +165,9 @@ impl Section for Dispersion {
                 .flat_map(|dir| dir.iter().flat_map(|s| s[..m].iter().copied()))
                 .collect();
             let dims = vec![
-                axis("curve_direction", "dispersion_directions.npy"),
-                axis("sample", "dispersion_ppw.npy"),
+                // dispersion_directions.npy holds unit vectors, not a 1-D coordinate
+                plain("curve_direction"),
+                axis("curve_sample", "dispersion_ppw.npy"),
                 plain("mode"),
             ];
             out.push(

@@ -11,8 +11,14 @@ use serde_json::{json, Map, Value};
 /// The limit.
 pub struct Limit;
 
-fn direction() -> (&'static str, Option<String>) {
-    axis("direction", "directions.npy")
+/// The direction dimension: its coordinate is the angle (directions.npy) in
+/// 1-D and 2-D, the index in 3-D (where directions.npy holds unit vectors, not a
+/// 1-D coordinate).
+fn direction_in(dims: usize) -> (&'static str, Option<String>) {
+    match dims {
+        3 => plain("direction"),
+        _ => axis("direction", "directions.npy"),
+    }
 }
 
 impl Section for Limit {
@@ -22,13 +28,14 @@ impl Section for Limit {
         };
         let n = dl.directions.len();
         let dims = r.grid.points.len();
+        let direction = || direction_in(dims);
         if dims == 3 {
             let flat: Vec<f64> = dl.directions.iter().flatten().copied().collect();
             out.push(Array::real(
                 "directions",
                 &[n, 3],
                 flat,
-                vec![direction(), plain("component")],
+                vec![direction(), plain("axis")],
                 "1",
                 "wave direction unit vectors in wavevector space",
             ));

@@ -13,8 +13,14 @@ use serde_json::{json, Map, Value};
 pub struct Modes;
 
 impl Section for Modes {
-    fn arrays<'a>(&self, _p: &Problem, r: &'a Results, out: &mut Vec<Array<'a>>) {
+    fn arrays<'a>(&self, p: &Problem, r: &'a Results, out: &mut Vec<Array<'a>>) {
         for mode in &r.modes {
+            // the stacked state of a multistep method has more components than variables
+            let dim = if mode.vector.len() == p.system.size() {
+                "component"
+            } else {
+                "stacked_component"
+            };
             let long_name = match mode.kind {
                 Measure::Radius => {
                     "eigenvector of G for the largest |lambda| at the worst wavevector"
@@ -29,7 +35,7 @@ impl Section for Modes {
                     &format!("mode_{}", mode.kind.as_str()),
                     &[mode.vector.len()],
                     &mode.vector[..],
-                    vec![plain("component")],
+                    vec![plain(dim)],
                     "1",
                     long_name,
                 )

@@ -21,7 +21,7 @@ impl Section for Samples {
             "sample_index",
             &[k],
             s.index.iter().map(|&i| i as f64).collect::<Vec<_>>(),
-            vec![plain("sample")],
+            vec![plain("matrix_sample")],
             "1",
             "flat C-order grid index of each sampled wavevector",
         ));
@@ -29,7 +29,7 @@ impl Section for Samples {
             "sample_theta",
             &[k, dims],
             s.theta.iter().flatten().copied().collect::<Vec<_>>(),
-            vec![plain("sample"), plain("axis")],
+            vec![plain("matrix_sample"), plain("axis")],
             "radian",
             "sampled wavevectors",
         ));
@@ -37,7 +37,7 @@ impl Section for Samples {
             "sample_symbol",
             &[k, m, m],
             s.symbol.iter().flatten().copied().collect::<Vec<_>>(),
-            vec![plain("sample"), plain("row"), plain("col")],
+            vec![plain("matrix_sample"), plain("row"), plain("col")],
             "s-1",
             "spatial symbol L at the sampled wavevectors",
         ));
@@ -49,7 +49,12 @@ impl Section for Samples {
                 .flatten()
                 .copied()
                 .collect::<Vec<_>>(),
-            vec![plain("sample"), plain("row"), plain("col")],
+            if s.size == m {
+                vec![plain("matrix_sample"), plain("row"), plain("col")]
+            } else {
+                // the stacked amplification matrix of a multistep method is larger than L
+                vec![plain("matrix_sample"), plain("g_row"), plain("g_col")]
+            },
             "1",
             "amplification matrix G at the sampled wavevectors and the case time step",
         ));
