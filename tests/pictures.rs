@@ -575,8 +575,32 @@ fn dispersion_picture_is_drawn_in_one_two_and_three_dimensions() {
     }
 }
 
+const STATIC_2D: &str = "name = \"pic-static\"\n[grid]\nspacing = [1.0, 1.0]\n[model]\nkind = \"advection\"\nvelocity = [0.0, 0.0]\n[time]\nmethod = \"rk4\"\ndt = 0.1\n[scan]\npoints = [9, 9]\nanalyses = [\"dispersion\"]\n";
+
 #[test]
-fn dispersion_picture_without_a_propagating_mode_shows_a_note() {
+fn dispersion_picture_of_a_static_system_shows_a_note() {
+    // neither moving nor damped: nothing to draw but a note
+    let c = case(STATIC_2D);
+    let r = results(&c);
+    let d = r.dispersion.as_ref().expect("dispersion");
+    assert!(d
+        .resolution
+        .iter()
+        .all(|x| x.semi.is_none() && x.discrete.is_none() && x.decay.is_none()));
+    let tmp = tempfile::tempdir().expect("temp dir");
+    let files = write_pictures(tmp.path(), &c.problem, &r).expect("pictures drawn");
+    let p = decode(&files[0]);
+    assert_eq!((p.width, p.height), SIZE);
+    assert!(dark_pixels(&p, (0, p.width / 2), (0, TITLE_BAND / 2)) > 300);
+    let note = dark_pixels(&p, (0, p.width), (p.height / 2 - 60, p.height / 2 + 60));
+    assert!(note > 500, "{note} dark pixels in the note");
+    assert_eq!(count_colour(&p, CRIMSON), 0);
+}
+
+#[test]
+fn dispersion_picture_of_pure_diffusion_draws_the_decay_rate() {
+    // no propagating mode, but a damped one: one wide panel of decay-rate
+    // ratios with the crimson requirement line
     let c = case(DIFFUSION_2D);
     let r = results(&c);
     let d = r.dispersion.as_ref().expect("dispersion");
@@ -584,16 +608,24 @@ fn dispersion_picture_without_a_propagating_mode_shows_a_note() {
         .resolution
         .iter()
         .all(|x| x.semi.is_none() && x.discrete.is_none()));
+    assert!(d.resolution.iter().any(|x| x.decay.is_some()));
     let tmp = tempfile::tempdir().expect("temp dir");
     let files = write_pictures(tmp.path(), &c.problem, &r).expect("pictures drawn");
     assert_eq!(files.len(), 1);
     let p = decode(&files[0]);
     assert_eq!((p.width, p.height), SIZE);
-    assert!(dark_pixels(&p, (0, p.width / 2), (0, TITLE_BAND / 2)) > 300);
-    // the note in the middle of the picture, and no curve
-    let note = dark_pixels(&p, (0, p.width), (p.height / 2 - 60, p.height / 2 + 60));
-    assert!(note > 500, "{note} dark pixels in the note");
-    assert_eq!(count_colour(&p, CRIMSON), 0);
+    assert!(
+        count_colour(&p, CRIMSON) > 200,
+        "the worst direction and its requirement"
+    );
+    // one panel across the width: curves right of the middle too
+    assert!(
+        dark_pixels(
+            &p,
+            (p.width / 2 + 40, p.width - 40),
+            (p.height / 3, p.height - 120)
+        ) > 100
+    );
 }
 
 #[test]

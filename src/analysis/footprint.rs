@@ -77,12 +77,12 @@ impl Sizes {
 
 /// Bytes held per wavevector by the dispersion results: the matched ω
 /// (semi-discrete, exact: m; fully discrete: M), three group velocities (m
-/// vectors of d), the tuple of six vector headers, and the ten derived maps.
+/// vectors of d), the tuple of six vector headers, and the twelve derived maps.
 fn dispersion_resident(s: &Sizes) -> u128 {
     let omegas = 2 * heap(16 * s.m) + heap(16 * s.big_m);
     let groups = 3 * (heap(VEC * s.m) + s.m * heap(8 * s.d));
     let headers = 6 * VEC;
-    let maps = 10 * 8 * s.m;
+    let maps = 12 * 8 * s.m;
     omegas + groups + headers + maps
 }
 
@@ -93,12 +93,13 @@ fn dispersion_copies(s: &Sizes) -> u128 {
 }
 
 /// Bytes of the dispersion curves: per direction, 48 samples of the points per
-/// wavelength and three ratio curves of m modes, their flattened copies and the
+/// wavelength and five ratio curves of m modes (phase, fully discrete phase,
+/// group, decay, fully discrete decay), their flattened copies and the
 /// direction itself.
 fn dispersion_curves(s: &Sizes, directions: u128) -> u128 {
     let ppw = vec_of(CURVE_SAMPLES, 8);
-    let curves = 3 * (VEC + heap(VEC * CURVE_SAMPLES) + CURVE_SAMPLES * vec_of(s.m, 8));
-    let copies = 3 * CURVE_SAMPLES * s.m * 8;
+    let curves = 5 * (VEC + heap(VEC * CURVE_SAMPLES) + CURVE_SAMPLES * vec_of(s.m, 8));
+    let copies = 5 * CURVE_SAMPLES * s.m * 8;
     directions * (ppw + curves + copies + vec_of(s.d, 8) + 8 * s.d)
 }
 

@@ -2,8 +2,9 @@
 //! file (little-endian float64 or complex128, C order) straight from the
 //! results' own memory, and described in the manifest — file, shape, dtype,
 //! dims, coords (per dimension either the file holding its coordinates or the
-//! coordinate values themselves: the labels of named things such as modes, the
-//! axis names x, y, z, or the indices 0..n−1), units and long_name (as in the CF
+//! coordinate values themselves: the labels of named things such as modes or
+//! the axis names x, y, z; or {"arange": n} for the indices 0..n−1), units and
+//! long_name (as in the CF
 //! conventions), plus labels where an axis is a list of named things. A
 //! dimension name stands for one length throughout a folder, so the arrays load
 //! into one xarray Dataset. Files are written in parallel.
@@ -111,7 +112,8 @@ impl<'a> Array<'a> {
                     (None, dim, Some(l)) if LABELLED.contains(&dim) && l.len() == n => {
                         Value::from(l.clone())
                     }
-                    (None, _, _) => json!((0..n).collect::<Vec<usize>>()),
+                    // indices 0..n−1, written compactly (a growth horizon can be 10⁶ steps)
+                    (None, _, _) => json!({ "arange": n }),
                 };
                 (d.to_string(), values)
             })

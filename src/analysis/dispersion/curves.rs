@@ -8,7 +8,7 @@
 //! mode needs is found from these curves in [`super::resolution`].
 
 use super::frequencies::Frequencies;
-use super::{group_ratio, phase_ratio};
+use super::{decay_ratio, group_ratio, phase_ratio};
 use std::f64::consts::PI;
 
 /// Points per wavelength of a wavevector in θ-space: 2π/max_d |θ_d| (cells per
@@ -54,38 +54,39 @@ pub fn theta_at(n: &[f64], spacing: &[f64], ppw: f64) -> Vec<f64> {
     n.iter().zip(spacing).map(|(a, h)| a * kappa * h).collect()
 }
 
-/// Dispersion curves along one physical direction n: (ppw, semi phase ratio,
-/// discrete phase ratio, group ratio) per sample and mode.
+/// Dispersion and dissipation curves along one physical direction n, per
+/// sample and mode.
 pub fn curve(f: &Frequencies, n: &[f64], dt: f64) -> Curve {
     let spacing = &f.problem().spacing;
     let ppw = curve_ppw();
-    let (mut ps, mut pd, mut gr) = (Vec::new(), Vec::new(), Vec::new());
+    let mut c = Curve {
+        ppw: ppw.clone(),
+        ..Curve::default()
+    };
     for p in &ppw {
         let theta = theta_at(n, spacing, *p);
         let (num, exact) = f.matched(&theta);
         let scale = frequency_scale(&exact);
         let disc = f.discrete(&theta, &num, dt);
         let (gn, ge) = f.group_velocities(&theta, &num, &exact);
-        ps.push(
-            num.iter()
+        let ratios = |w: &[num_complex::Complex64], ratio: fn(_, _, f64) -> f64| -> Vec<f64> {
+            w.iter()
                 .zip(&exact)
-                .map(|(a, b)| phase_ratio(*a, *b, scale))
-                .collect(),
-        );
-        pd.push(
-            disc.iter()
-                .zip(&exact)
-                .map(|(a, b)| phase_ratio(*a, *b, scale))
-                .collect(),
-        );
-        gr.push(
+                .map(|(a, b)| ratio(*a, *b, scale))
+                .collect()
+        };
+        c.phase.push(ratios(&num, phase_ratio));
+        c.phase_discrete.push(ratios(&disc, phase_ratio));
+        c.decay.push(ratios(&num, decay_ratio));
+        c.decay_discrete.push(ratios(&disc, decay_ratio));
+        c.group.push(
             gn.iter()
                 .zip(&ge)
                 .map(|(a, b)| group_ratio(a, b).0)
                 .collect(),
         );
     }
-    (ppw, ps, pd, gr)
+    c
 }
 
 /// The largest |ω| of the exact modes (the scale below which a mode counts as
@@ -98,5 +99,19 @@ pub fn frequency_scale(exact: &[num_complex::Complex64]) -> f64 {
         .max(1e-300)
 }
 
-/// Curves along one direction: (ppw, semi phase ratio, discrete phase ratio, group ratio).
-pub type Curve = (Vec<f64>, Vec<Vec<f64>>, Vec<Vec<f64>>, Vec<Vec<f64>>);
+/// Curves along one direction, each `[sample][mode]`.
+#[derive(Debug, Clone, Default)]
+pub struct Curve {
+    /// Points per wavelength of the samples.
+    pub ppw: Vec<f64>,
+    /// Semi-discrete phase-speed ratio.
+    pub phase: Vec<Vec<f64>>,
+    /// Fully discrete phase-speed ratio.
+    pub phase_discrete: Vec<Vec<f64>>,
+    /// Semi-discrete group-speed ratio.
+    pub group: Vec<Vec<f64>>,
+    /// Semi-discrete decay-rate ratio.
+    pub decay: Vec<Vec<f64>>,
+    /// Fully discrete decay-rate ratio.
+    pub decay_discrete: Vec<Vec<f64>>,
+}

@@ -1,10 +1,11 @@
 //! Maps derived from the matched frequencies at every grid node, per mode:
 //! phase- and group-speed ratios against the exact wave (semi- and fully
 //! discrete), the angle between numerical and exact group velocities, and the
-//! amplitude factors over one period and over one unit of length travelled.
+//! amplitude factors over one period and over one unit of length travelled,
+//! and the decay-rate ratio (numerical over exact damping rate).
 //! Each map is node-major (C order over the grid), m modes per node.
 
-use super::{group_ratio, phase_ratio};
+use super::{decay_ratio, group_ratio, phase_ratio};
 use num_complex::Complex64 as C64;
 use std::f64::consts::PI;
 
@@ -32,6 +33,10 @@ pub struct DerivedMaps {
     pub amplitude_per_unit_travel: Vec<f64>,
     /// Fully discrete amplitude factor over one unit of length.
     pub amplitude_per_unit_travel_discrete: Vec<f64>,
+    /// Semi-discrete decay rate over the exact one (Im ω_num / Im ω_exact).
+    pub decay_rate_ratio: Vec<f64>,
+    /// Fully discrete decay rate over the exact one.
+    pub decay_rate_ratio_discrete: Vec<f64>,
 }
 
 /// The frequencies and group velocities at one node, as the maps need them.
@@ -99,6 +104,10 @@ impl DerivedMaps {
                 .push(per_unit_travel(f.numerical[j], ge));
             self.amplitude_per_unit_travel_discrete
                 .push(per_unit_travel(f.discrete[j], ge));
+            self.decay_rate_ratio
+                .push(decay_ratio(f.numerical[j], we, scale));
+            self.decay_rate_ratio_discrete
+                .push(decay_ratio(f.discrete[j], we, scale));
         }
     }
 }

@@ -91,6 +91,10 @@ pub struct DispersionResult {
     pub phase_curves_discrete: Vec<Vec<Vec<f64>>>,
     /// Group-speed ratio along the physical group velocity, semi-discrete.
     pub group_curves: Vec<Vec<Vec<f64>>>,
+    /// Decay-rate ratio Im ω_num / Im ω_exact, semi-discrete [direction][sample][mode].
+    pub decay_curves: Vec<Vec<Vec<f64>>>,
+    /// The same, fully discrete.
+    pub decay_curves_discrete: Vec<Vec<Vec<f64>>>,
     /// Per mode: the points per wavelength and the shortest wavelength needed
     /// for |phase error| ≤ tolerance in every direction, semi- and fully discrete.
     pub resolution: Vec<resolution::Resolution>,
@@ -109,6 +113,16 @@ pub fn phase_ratio(num: C64, exact: C64, scale: f64) -> f64 {
         f64::NAN
     } else {
         num.re / exact.re
+    }
+}
+
+/// Decay-rate ratio Im ω_num / Im ω_exact (the numerical over the exact
+/// damping rate of a mode e^{i(k·x − ωt)}), NaN where the exact mode is not damped.
+pub fn decay_ratio(num: C64, exact: C64, scale: f64) -> f64 {
+    if exact.im.abs() <= 1e-9 * scale {
+        f64::NAN
+    } else {
+        num.im / exact.im
     }
 }
 
@@ -201,10 +215,14 @@ pub(super) fn analyse(ctx: &Context, p: &DispersionParams) -> DispersionResult {
     let mut phase_curves = Vec::new();
     let mut phase_curves_discrete = Vec::new();
     let mut group_curves = Vec::new();
-    for (_, ps, pd, gr) in curves {
-        phase_curves.push(ps);
-        phase_curves_discrete.push(pd);
-        group_curves.push(gr);
+    let mut decay_curves = Vec::new();
+    let mut decay_curves_discrete = Vec::new();
+    for c in curves {
+        phase_curves.push(c.phase);
+        phase_curves_discrete.push(c.phase_discrete);
+        group_curves.push(c.group);
+        decay_curves.push(c.decay);
+        decay_curves_discrete.push(c.decay_discrete);
     }
     DispersionResult {
         names,
@@ -220,6 +238,8 @@ pub(super) fn analyse(ctx: &Context, p: &DispersionParams) -> DispersionResult {
         phase_curves,
         phase_curves_discrete,
         group_curves,
+        decay_curves,
+        decay_curves_discrete,
         resolution,
         tolerance: tol,
         maps,

@@ -1,6 +1,7 @@
 //! The resolution each mode needs: the points per wavelength above which its
-//! phase error stays within a tolerance in every direction, and the shortest
-//! wavelength (in physical units) it carries that well.
+//! phase error (and, for damped modes, its decay-rate error) stays within a
+//! tolerance in every direction, and the shortest wavelength (in physical
+//! units) it carries that well.
 //!
 //! Along each physical direction the error |c_num/c_exact − 1| is scanned on the
 //! curve samples from long waves towards the grid limit; between the last sample
@@ -10,11 +11,12 @@
 //! error is relative to the wave's own speed, which is ill-conditioned where that
 //! speed vanishes (a wave crossing a mean flow almost at right angles): a
 //! direction where the mode's exact long-wave phase speed is below
-//! [`SLOW_FRACTION`] of its fastest is excluded and counted.
+//! [`SLOW_FRACTION`] of its fastest is excluded and counted; likewise for the
+//! decay rate, with the long-wave decay rate over |k|² in place of the speed.
 
 use super::curves::{self, Curve};
 use super::frequencies::Frequencies;
-use super::phase_ratio;
+use super::{decay_ratio, phase_ratio};
 use std::f64::consts::PI;
 
 /// A direction where a mode's exact long-wave phase speed is below this share
@@ -69,6 +71,12 @@ pub struct Resolution {
     pub discrete: Option<Requirement>,
     /// Directions left out as near-zero speed (indices into the curve directions).
     pub excluded: Vec<usize>,
+    /// Semi-discrete decay-rate requirement (None when the mode is not damped).
+    pub decay: Option<Requirement>,
+    /// Fully discrete decay-rate requirement.
+    pub decay_discrete: Option<Requirement>,
+    /// Directions left out of the decay requirement as near-zero damping.
+    pub decay_excluded: Vec<usize>,
 }
 
 impl Resolution {
@@ -88,8 +96,27 @@ impl Resolution {
     }
 }
 
-/// The crossings of every mode along one direction, semi-discrete and fully
-/// discrete: `[mode][variant]`, None where the mode does not move there.
+/// Which error a crossing is about.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum Quantity {
+    /// Phase speed, Re ω.
+    Phase,
+    /// Decay rate, Im ω.
+    Decay,
+}
+
+impl Quantity {
+    fn ratio(self) -> fn(num_complex::Complex64, num_complex::Complex64, f64) -> f64 {
+        match self {
+            Quantity::Phase => phase_ratio,
+            Quantity::Decay => decay_ratio,
+        }
+    }
+}
+
+/// The crossings of every mode along one direction: `[mode][variant]` with the
+/// variants phase semi-discrete, phase fully discrete, decay semi-discrete,
+/// decay fully discrete; None where the mode does not move (is not damped) there.
 pub fn crossings(
     f: &Frequencies,
     index: usize,
@@ -98,14 +125,19 @@ pub fn crossings(
     dt: f64,
     tol: f64,
 ) -> DirectionCrossings {
-    let (ppw, semi, disc, _) = curve;
-    let m = semi.first().map_or(0, Vec::len);
+    let m = curve.phase.first().map_or(0, Vec::len);
+    let ppw = &curve.ppw;
     (0..m)
         .map(|j| {
             let column = |rows: &[Vec<f64>]| -> Vec<f64> { rows.iter().map(|r| r[j]).collect() };
+            let at = |rows: &[Vec<f64>], dt: Option<f64>, q: Quantity| {
+                crossing(f, index, n, ppw, &column(rows), j, dt, q, tol)
+            };
             [
-                crossing(f, index, n, ppw, &column(semi), j, None, tol),
-                crossing(f, index, n, ppw, &column(disc), j, Some(dt), tol),
+                at(&curve.phase, None, Quantity::Phase),
+                at(&curve.phase_discrete, Some(dt), Quantity::Phase),
+                at(&curve.decay, None, Quantity::Decay),
+                at(&curve.decay_discrete, Some(dt), Quantity::Decay),
             ]
         })
         .collect()
@@ -122,6 +154,7 @@ fn crossing(
     ratio: &[f64],
     mode: usize,
     dt: Option<f64>,
+    quantity: Quantity,
     tol: f64,
 ) -> Option<Crossing> {
     if ratio.iter().all(|r| r.is_nan()) {
@@ -155,7 +188,7 @@ fn crossing(
             None => num[mode],
             Some(dt) => f.discrete(&theta, &num, dt)[mode],
         };
-        err(phase_ratio(w, exact[mode], scale))
+        err(quantity.ratio()(w, exact[mode], scale))
     };
     let (mut good, mut bad) = (ppw[first_bad - 1].ln(), ppw[first_bad].ln());
     for _ in 0..BISECTIONS {
@@ -169,36 +202,37 @@ fn crossing(
     Some(at(good.exp()))
 }
 
-/// The crossings of every mode along one direction, `[mode][variant]`.
-pub type DirectionCrossings = Vec<[Option<Crossing>; 2]>;
+/// The crossings of every mode along one direction, `[mode][variant]` (see
+/// [`crossings`]).
+pub type DirectionCrossings = Vec<[Option<Crossing>; 4]>;
 
 /// Each mode's resolution from the crossings of every direction
-/// (`[direction][mode][variant]`) and the exact long-wave phase speeds
-/// (`[direction][mode]`, NaN where a mode does not move).
-pub fn combine(
-    all: &[Vec<[Option<Crossing>; 2]>],
-    speeds: &[Vec<f64>],
-    m: usize,
-) -> Vec<Resolution> {
+/// (`[direction][mode][variant]`) and the exact long-wave rates
+/// (`[direction][mode]` = (phase speed, decay rate over |k|²), NaN where a mode
+/// does not move or is not damped).
+pub fn combine(all: &[DirectionCrossings], rates: &[Vec<(f64, f64)>], m: usize) -> Vec<Resolution> {
     (0..m)
         .map(|j| {
-            let fastest = speeds
-                .iter()
-                .map(|s| s[j].abs())
-                .filter(|s| s.is_finite())
-                .fold(0.0, f64::max);
-            let excluded: Vec<usize> = (0..all.len())
-                .filter(|&k| {
-                    let s = speeds[k][j].abs();
-                    // a NaN speed (the mode does not move there) counts as slow
-                    fastest > 0.0 && (s.is_nan() || s < SLOW_FRACTION * fastest)
-                })
-                .collect();
-            let pick = |variant: usize| -> Option<Requirement> {
+            let slow = |rate: &dyn Fn(usize) -> f64| -> Vec<usize> {
+                let fastest = (0..all.len())
+                    .map(|k| rate(k).abs())
+                    .filter(|s| s.is_finite())
+                    .fold(0.0, f64::max);
+                (0..all.len())
+                    .filter(|&k| {
+                        let s = rate(k).abs();
+                        // a NaN rate (the mode does not move there) counts as slow
+                        fastest > 0.0 && (s.is_nan() || s < SLOW_FRACTION * fastest)
+                    })
+                    .collect()
+            };
+            let excluded = slow(&|k| rates[k][j].0);
+            let decay_excluded = slow(&|k| rates[k][j].1);
+            let pick = |variant: usize, left_out: &[usize]| -> Option<Requirement> {
                 let kept = all
                     .iter()
                     .enumerate()
-                    .filter(|(k, _)| !excluded.contains(k))
+                    .filter(|(k, _)| !left_out.contains(k))
                     .filter_map(|(_, c)| c[j][variant].as_ref());
                 let mut worst: Option<&Crossing> = None;
                 let mut wavelength: f64 = 0.0;
@@ -214,31 +248,34 @@ pub fn combine(
                 })
             };
             Resolution {
-                semi: pick(0),
-                discrete: pick(1),
+                semi: pick(0, &excluded),
+                discrete: pick(1, &excluded),
+                decay: pick(2, &decay_excluded),
+                decay_discrete: pick(3, &decay_excluded),
                 excluded,
+                decay_excluded,
             }
         })
         .collect()
 }
 
-/// Each mode's exact phase speed |Re ω|/|k| along n at the longest curve
-/// sample (NaN where it does not move).
-pub fn long_wave_speeds(f: &Frequencies, n: &[f64]) -> Vec<f64> {
+/// Each mode's exact phase speed Re ω/|k| and decay rate −Im ω/|k|² along n
+/// at the longest curve sample (NaN where it does not move or is not damped).
+pub fn long_wave_rates(f: &Frequencies, n: &[f64]) -> Vec<(f64, f64)> {
     let spacing = &f.problem().spacing;
     let p = curves::curve_ppw()[0];
     let theta = curves::theta_at(n, spacing, p);
     let kappa = 2.0 * PI / (p * curves::cell_along(n, spacing));
     let (_, exact) = f.matched(&theta);
     let scale = curves::frequency_scale(&exact);
+    let or_nan = |x: f64, v: f64| if x.abs() <= 1e-9 * scale { f64::NAN } else { v };
     exact
         .iter()
         .map(|w| {
-            if w.re.abs() <= 1e-9 * scale {
-                f64::NAN
-            } else {
-                w.re / kappa
-            }
+            (
+                or_nan(w.re, w.re / kappa),
+                or_nan(w.im, -w.im / (kappa * kappa)),
+            )
         })
         .collect()
 }
@@ -254,13 +291,13 @@ pub fn resolve(
     par: crate::Par,
 ) -> Vec<Resolution> {
     use rayon::prelude::*;
-    let per_direction: Vec<(DirectionCrossings, Vec<f64>)> = par.run(|| {
+    let per_direction: Vec<(DirectionCrossings, Vec<(f64, f64)>)> = par.run(|| {
         dirs.par_iter()
             .zip(curves_)
             .enumerate()
-            .map(|(k, (n, c))| (crossings(f, k, n, c, dt, tol), long_wave_speeds(f, n)))
+            .map(|(k, (n, c))| (crossings(f, k, n, c, dt, tol), long_wave_rates(f, n)))
             .collect()
     });
-    let (all, speeds): (Vec<_>, Vec<_>) = per_direction.into_iter().unzip();
-    combine(&all, &speeds, m)
+    let (all, rates): (Vec<_>, Vec<_>) = per_direction.into_iter().unzip();
+    combine(&all, &rates, m)
 }

@@ -7,7 +7,7 @@
 //! that sets the resolution of the grid. Left panel: c_num/c_exact, the
 //! semi-discrete ratio solid and the fully discrete one dashed in the same
 //! colour; right panel: the semi-discrete group-speed ratio along the exact
-//! group velocity. Both share a logarithmic axis of 2π/(|k| h_min), fine
+//! group velocity. Both share a logarithmic axis of 2π/max_d |θ_d|, fine
 //! resolution on the left, the grid limit on the right. The ratio 1 is a thin
 //! line inside the lightly shaded band 1 ± tolerance, and the required points
 //! per wavelength (worst direction) a vertical crimson line.
@@ -19,7 +19,9 @@
 //! coincides with it still shows on top. NaN (the mode does not propagate there) leaves gaps;
 //! ratios beyond the axis (phase outside [0, 1.5], group outside [−1, 1.5])
 //! are drawn at its edge and counted in a note. A case without a propagating
-//! mode (pure diffusion) gets a note instead of the panels.
+//! mode but with a damped one (pure diffusion) gets one wide panel of the
+//! decay-rate ratio Im ω_num / Im ω_exact instead, headed "diffusion"; a case
+//! with neither gets a note.
 
 use super::heatmap::{legend_entry, Key};
 use super::{style, title_band, Area, Res, SIZE, TITLE_BAND};
@@ -492,14 +494,25 @@ fn flow(root: &Area, pieces: &[String], sep: &str, size: f64) -> Res<Vec<String>
     Ok(lines)
 }
 
-/// The requirement of every mode, for the note: a heading and one piece per mode.
-fn requirements(d: &DispersionResult) -> Vec<String> {
+/// The requirement of every mode, for the note: a heading and one piece per
+/// mode (the decay-rate requirements when `decay`).
+fn requirements(d: &DispersionResult, decay: bool) -> Vec<String> {
+    let quantity = if decay { "decay-rate" } else { "phase" };
     let mut parts = vec![format!(
-        "points per wavelength for {} phase error, semi-discrete / fully discrete, worst direction:",
+        "points per wavelength for {} {quantity} error, semi-discrete / fully discrete, worst direction:",
         percent(d.tolerance)
     )];
     parts.extend(d.names.iter().zip(&d.resolution).map(|(name, res)| {
-        match (res.semi_ppw(), res.discrete_ppw()) {
+        let (semi, disc) = if decay {
+            let ppw = |q: &Option<crate::analysis::dispersion::resolution::Requirement>| {
+                q.as_ref().map(|q| q.ppw())
+            };
+            (ppw(&res.decay), ppw(&res.decay_discrete))
+        } else {
+            (res.semi_ppw(), res.discrete_ppw())
+        };
+        match (semi, disc) {
+            (None, None) if decay => format!("{name} is not damped"),
             (None, None) => format!("{name} does not propagate"),
             (semi, disc) => format!("{name} {} / {}", ppw_text(semi), ppw_text(disc)),
         }
@@ -508,8 +521,8 @@ fn requirements(d: &DispersionResult) -> Vec<String> {
 }
 
 /// The requirement note as lines.
-fn requirement_lines(root: &Area, d: &DispersionResult) -> Res<Vec<(String, bool)>> {
-    let heading_and_modes = requirements(d);
+fn requirement_lines(root: &Area, d: &DispersionResult, decay: bool) -> Res<Vec<(String, bool)>> {
+    let heading_and_modes = requirements(d, decay);
     let mut pieces = vec![format!(
         "{} {}",
         heading_and_modes[0],
@@ -523,25 +536,107 @@ fn requirement_lines(root: &Area, d: &DispersionResult) -> Res<Vec<(String, bool
 }
 
 /// Draws the picture.
+/// What the panels show: phase and group speed of the mode that sets the
+/// resolution, or, when no mode propagates, the decay rate of the damped mode
+/// that needs the most points per wavelength (diffusion accuracy).
+struct View<'d> {
+    mode: usize,
+    semi_need: Option<f64>,
+    disc_need: Option<f64>,
+    worst: usize,
+    curves: &'d [Vec<Vec<f64>>],
+    curves_discrete: &'d [Vec<Vec<f64>>],
+    /// The group-speed curves of the right panel (None: one wide panel).
+    group: Option<&'d [Vec<Vec<f64>>]>,
+    /// "phase" or "decay-rate".
+    quantity: &'static str,
+    title: &'static str,
+    y_label: &'static str,
+}
+
+/// The damped mode with the largest finite semi-discrete decay requirement
+/// (else the largest fully discrete one).
+fn decay_mode(d: &DispersionResult) -> Option<usize> {
+    let best = |semi: bool| {
+        d.resolution
+            .iter()
+            .enumerate()
+            .filter_map(|(j, r)| {
+                let q = if semi { &r.decay } else { &r.decay_discrete };
+                q.as_ref()
+                    .map(|q| q.ppw())
+                    .filter(|v| v.is_finite())
+                    .map(|v| (j, v))
+            })
+            .max_by(|a, b| a.1.total_cmp(&b.1))
+            .map(|(j, _)| j)
+    };
+    best(true).or_else(|| best(false))
+}
+
+fn view(d: &DispersionResult) -> Option<View<'_>> {
+    if let Some(mode) = shown_mode(d) {
+        let res = &d.resolution[mode];
+        return Some(View {
+            mode,
+            semi_need: res.semi_ppw(),
+            disc_need: res.discrete_ppw(),
+            worst: res.worst_direction(),
+            curves: &d.phase_curves,
+            curves_discrete: &d.phase_curves_discrete,
+            group: Some(&d.group_curves),
+            quantity: "phase",
+            title: "phase speed, c_num / c_exact",
+            y_label: "phase-speed ratio",
+        });
+    }
+    let mode = decay_mode(d)?;
+    let res = &d.resolution[mode];
+    let ppw = |q: &Option<crate::analysis::dispersion::resolution::Requirement>| {
+        q.as_ref().map(|q| q.ppw())
+    };
+    Some(View {
+        mode,
+        semi_need: ppw(&res.decay),
+        disc_need: ppw(&res.decay_discrete),
+        worst: res
+            .decay
+            .as_ref()
+            .or(res.decay_discrete.as_ref())
+            .map_or(0, |q| q.worst.direction),
+        curves: &d.decay_curves,
+        curves_discrete: &d.decay_curves_discrete,
+        group: None,
+        quantity: "decay-rate",
+        title: "decay rate, numerical / exact (Im ω_num / Im ω_exact)",
+        y_label: "decay-rate ratio",
+    })
+}
+
+/// Draws the picture.
 pub fn draw(root: &Area, problem: &Problem, r: &Results, d: &DispersionResult) -> Res {
-    title_band(root, problem, "dispersion: phase and group speed", r.dt)?;
-    let Some(mode) = shown_mode(d) else {
+    let Some(v) = view(d) else {
+        title_band(root, problem, "dispersion: phase and group speed", r.dt)?;
         let mut lines = vec![(
             "no propagating mode: the exact phase speed is zero for every mode and direction,"
                 .to_string(),
             true,
         )];
         lines.push((
-            "so there is no phase or group speed ratio to draw (a purely diffusive or static system)"
+            "and no mode is damped: there is no phase, group speed or decay-rate ratio to draw (a static system)"
                 .to_string(),
             true,
         ));
-        lines.extend(requirement_lines(root, d)?);
+        lines.extend(requirement_lines(root, d, false)?);
         note_lines(root, &lines, SIZE.1 as i32 / 2 - 50)?;
         return Ok(());
     };
-    let res = &d.resolution[mode];
-    let (semi_need, disc_need, worst) = (res.semi_ppw(), res.discrete_ppw(), res.worst_direction());
+    let heading = match v.group {
+        Some(_) => "dispersion: phase and group speed",
+        None => "diffusion: decay rate (no propagating mode)",
+    };
+    title_band(root, problem, heading, r.dt)?;
+    let (mode, semi_need, disc_need, worst) = (v.mode, v.semi_need, v.disc_need, v.worst);
     let name = &d.names[mode];
     let picks = picks(d, worst);
     let pct = percent(d.tolerance);
@@ -567,23 +662,25 @@ pub fn draw(root: &Area, problem: &Problem, r: &Results, d: &DispersionResult) -
         }
         let width = if pick.colour == style::WORST { 4 } else { 2 };
         phase.push(Series {
-            points: column(&d.phase_curves[pick.index], &ppw),
+            points: column(&v.curves[pick.index], &ppw),
             colour: pick.colour,
             dashed: false,
             width,
         });
         phase.push(Series {
-            points: column(&d.phase_curves_discrete[pick.index], &ppw),
+            points: column(&v.curves_discrete[pick.index], &ppw),
             colour: pick.colour,
             dashed: true,
             width,
         });
-        group.push(Series {
-            points: column(&d.group_curves[pick.index], &ppw),
-            colour: pick.colour,
-            dashed: false,
-            width,
-        });
+        if let Some(g) = v.group {
+            group.push(Series {
+                points: column(&g[pick.index], &ppw),
+                colour: pick.colour,
+                dashed: false,
+                width,
+            });
+        }
     }
     // the fine end at 256 points per wavelength, the coarse end at the grid
     // limit of the drawn directions (at least 2 points per wavelength)
@@ -599,15 +696,16 @@ pub fn draw(root: &Area, problem: &Problem, r: &Results, d: &DispersionResult) -
     // the notes above the panels
     let worst_label = direction_label(&d.directions[worst]);
     let headline = format!(
-        "mode shown: {name} — {} points per wavelength for {pct} phase error ({} fully discrete), worst direction {worst_label}",
+        "mode shown: {name} — {} points per wavelength for {pct} {} error ({} fully discrete), worst direction {worst_label}",
         ppw_text(semi_need),
+        v.quantity,
         ppw_text(disc_need)
     );
     let mut lines: Vec<(String, bool)> = flow(root, &[headline], " ", 16.0)?
         .into_iter()
         .map(|l| (l, true))
         .collect();
-    lines.extend(requirement_lines(root, d)?);
+    lines.extend(requirement_lines(root, d, v.group.is_none())?);
     let outside = |s: &[Series], y: &YRange| -> usize {
         s.iter()
             .flat_map(|s| s.points.iter())
@@ -618,7 +716,11 @@ pub fn draw(root: &Area, problem: &Problem, r: &Results, d: &DispersionResult) -
     let (cp, cg) = (outside(&phase, &y_phase), outside(&group, &y_group));
     let samples = |n: usize| if n == 1 { "sample" } else { "samples" };
     if cp > 0 {
-        clip.push(format!("{cp} phase {} outside [0, 1.5]", samples(cp)));
+        clip.push(format!(
+            "{cp} {} {} outside [0, 1.5]",
+            v.quantity,
+            samples(cp)
+        ));
     }
     if cg > 0 {
         clip.push(format!("{cg} group {} outside [−1, 1.5]", samples(cg)));
@@ -638,8 +740,9 @@ pub fn draw(root: &Area, problem: &Problem, r: &Results, d: &DispersionResult) -
             colour: style::WORST,
             dashed: false,
             label: Some(format!(
-                "{} ppw for {pct} phase error",
-                style::trimmed(n, 3)
+                "{} ppw for {pct} {} error",
+                style::trimmed(n, 3),
+                v.quantity
             )),
         });
     }
@@ -667,14 +770,17 @@ pub fn draw(root: &Area, problem: &Problem, r: &Results, d: &DispersionResult) -
     let legend_top = SIZE.1 as i32 - 70;
     let panel_top = top + 14;
     let height = (legend_top - 10 - panel_top).max(200) as u32;
-    let half = (SIZE.0 - 40) / 2;
+    let half = match v.group {
+        Some(_) => (SIZE.0 - 40) / 2,
+        None => SIZE.0 - 40,
+    };
     panel(
         root,
         &Panel {
             origin: (14, panel_top),
             size: (half - 10, height),
-            title: "phase speed, c_num / c_exact",
-            y_label: "phase-speed ratio",
+            title: v.title,
+            y_label: v.y_label,
             x_range,
             y: y_phase,
             tol: d.tolerance,
@@ -682,20 +788,22 @@ pub fn draw(root: &Area, problem: &Problem, r: &Results, d: &DispersionResult) -
             markers: &markers,
         },
     )?;
-    panel(
-        root,
-        &Panel {
-            origin: (14 + half as i32 + 10, panel_top),
-            size: (half - 10, height),
-            title: "group speed, semi-discrete / exact",
-            y_label: "group-speed ratio",
-            x_range,
-            y: y_group,
-            tol: d.tolerance,
-            series: group,
-            markers: &group_markers,
-        },
-    )?;
+    if v.group.is_some() {
+        panel(
+            root,
+            &Panel {
+                origin: (14 + half as i32 + 10, panel_top),
+                size: (half - 10, height),
+                title: "group speed, semi-discrete / exact",
+                y_label: "group-speed ratio",
+                x_range,
+                y: y_group,
+                tol: d.tolerance,
+                series: group,
+                markers: &group_markers,
+            },
+        )?;
+    }
 
     // the legend: directions, then the line styles
     let mut x = 30;
@@ -712,10 +820,7 @@ pub fn draw(root: &Area, problem: &Problem, r: &Results, d: &DispersionResult) -
     }
     let entries = [
         (Key::Line(style::INK), "semi-discrete".to_string()),
-        (
-            Key::Dashed(style::INK),
-            "fully discrete (phase)".to_string(),
-        ),
+        (Key::Dashed(style::INK), "fully discrete".to_string()),
         (Key::Swatch(BAND), format!("1 ± {pct}")),
         (
             Key::Line(style::WORST),

@@ -72,7 +72,7 @@ impl Section for Dispersion {
             .with("labels", json!(labels)),
         );
         let dm = &d.maps;
-        let maps: [(&str, &'a [f64], &'static str); 10] = [
+        let maps: [(&str, &'a [f64], &'static str); 12] = [
             ("phase_speed_ratio", &dm.phase_speed_ratio, "semi-discrete phase speed over exact phase speed"),
             ("phase_speed_ratio_discrete", &dm.phase_speed_ratio_discrete, "fully discrete phase speed over exact phase speed"),
             ("group_speed_ratio", &dm.group_speed_ratio, "semi-discrete group velocity along the exact one, over the exact group speed"),
@@ -83,6 +83,8 @@ impl Section for Dispersion {
             ("amplitude_per_period_discrete", &dm.amplitude_per_period_discrete, "fully discrete amplitude factor over one period of the exact wave"),
             ("amplitude_per_unit_travel", &dm.amplitude_per_unit_travel, "semi-discrete amplitude factor over one unit of length travelled at the exact group speed"),
             ("amplitude_per_unit_travel_discrete", &dm.amplitude_per_unit_travel_discrete, "fully discrete amplitude factor over one unit of length travelled at the exact group speed"),
+            ("decay_rate_ratio", &dm.decay_rate_ratio, "semi-discrete decay rate over the exact decay rate, Im omega_num / Im omega_exact (NaN where the exact mode is not damped)"),
+            ("decay_rate_ratio_discrete", &dm.decay_rate_ratio_discrete, "fully discrete decay rate over the exact decay rate (NaN where the exact mode is not damped)"),
         ];
         for (name, data, long_name) in maps {
             let units = if name.starts_with("group_angle_error") {
@@ -159,6 +161,16 @@ impl Section for Dispersion {
                 &d.group_curves,
                 "semi-discrete group speed ratio along each direction",
             ),
+            (
+                "decay_rate_ratio_by_direction",
+                &d.decay_curves,
+                "semi-discrete decay rate ratio along each direction",
+            ),
+            (
+                "decay_rate_ratio_by_direction_discrete",
+                &d.decay_curves_discrete,
+                "fully discrete decay rate ratio along each direction",
+            ),
         ] {
             let data: Vec<f64> = src
                 .iter()
@@ -213,6 +225,11 @@ impl Section for Dispersion {
                     "semi_discrete": requirement(&res.semi),
                     "fully_discrete": requirement(&res.discrete),
                     "slow_directions_excluded": res.excluded.len(),
+                    "decay_ppw_required": res.decay.as_ref().map(|q| num(q.ppw())),
+                    "decay_ppw_required_discrete": res.decay_discrete.as_ref().map(|q| num(q.ppw())),
+                    "decay": requirement(&res.decay),
+                    "decay_discrete": requirement(&res.decay_discrete),
+                    "weakly_damped_directions_excluded": res.decay_excluded.len(),
                     "parasitic_fraction": parasitic,
                 })
             })
@@ -230,6 +247,9 @@ impl Section for Dispersion {
                 "shortest_wavelength": "the shortest wavelength (units of grid.spacing) kept within phase_tolerance in every included direction: the longest of the per-direction threshold wavelengths",
                 "cells_per_wavelength_by_axis": "shortest_wavelength / spacing_d: how many cells along each axis that wavelength spans",
                 "slow_directions_excluded": "curve directions left out because the mode's exact long-wave phase speed there is below 10 % of its fastest (a wave crossing a mean flow almost at right angles hardly moves, and its relative phase error is ill-conditioned)",
+                "decay_ppw_required": "points per wavelength (as for ppw_required) above which the decay-rate error |Im omega_num / Im omega_exact - 1| <= phase_tolerance in every physical curve direction where the mode is damped (diffusion accuracy); null when the exact mode is not damped",
+                "decay_ppw_required_discrete": "the same for the fully discrete decay rate (with the time method at the case's dt)",
+                "weakly_damped_directions_excluded": "curve directions left out of the decay requirement because the mode's exact long-wave decay rate over |k|^2 there is below 10 % of its largest",
                 "parasitic_fraction": "share of grid wavevectors where the numerical group velocity opposes the exact one",
                 "computational_modes": "fully discrete eigenvalues with no semi-discrete partner (extra roots of multistep methods)",
             },
@@ -265,6 +285,28 @@ impl Section for Dispersion {
                     "points per wavelength (along the least-resolved axis) for {:.1}% phase error: {}",
                     100.0 * d.tolerance,
                     parts.join(", ")
+                ),
+            ));
+        }
+        let decay: Vec<String> = d
+            .names
+            .iter()
+            .zip(&d.resolution)
+            .filter_map(|(n, res)| {
+                let ppw = |q: &Option<Requirement>| q.as_ref().map(Requirement::ppw);
+                ppw(&res.decay).map(|a| match ppw(&res.decay_discrete) {
+                    Some(b) => format!("{n} {} ({} with time stepping)", sig3(a), sig3(b)),
+                    None => format!("{n} {}", sig3(a)),
+                })
+            })
+            .collect();
+        if !decay.is_empty() {
+            rows.push((
+                "diffusion".into(),
+                format!(
+                    "points per wavelength (along the least-resolved axis) for {:.1}% decay-rate error: {}",
+                    100.0 * d.tolerance,
+                    decay.join(", ")
                 ),
             ));
         }
