@@ -686,3 +686,21 @@ fn a_flat_radius_map_marks_no_worst_wavevector() {
         "the marker of a non-flat map: {ring} crimson pixels"
     );
 }
+
+#[test]
+fn a_nearly_neutral_radius_map_is_drawn_as_its_damping() {
+    // RK4 + C4 at ν = 0.2: ρ within 1e-5 of 1 everywhere, 1 − ρ spanning
+    // decades; the picture shows log10(1 − ρ) with the least damped node marked
+    let text = "name = \"pic-nearly-neutral\"\n[grid]\nspacing = [1.0, 1.0]\n[model]\nkind = \"advection\"\nvelocity = [1.0, 0.5]\n[space]\nfirst = \"central4\"\n[time]\nmethod = \"rk4\"\ncourant = 0.2\n[scan]\npoints = [33, 33]\nanalyses = [\"radius\"]\n";
+    let c = case(text);
+    let r = results(&c);
+    let rad = r.radius.as_ref().expect("radius");
+    assert!(kgain::report::plot::radius::damping_view(&rad.map).is_some());
+    let tmp = tempfile::tempdir().expect("temp dir");
+    let files = write_pictures(tmp.path(), &c.problem, &r).expect("pictures drawn");
+    assert_looks_like_a_picture(&files[0]);
+    assert!(
+        count_colour(&decode(&files[0]), CRIMSON) > 50,
+        "the least damped node is marked"
+    );
+}

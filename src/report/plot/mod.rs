@@ -30,7 +30,7 @@ mod heatmap;
 mod limit;
 mod nonnormal;
 mod polar;
-mod radius;
+pub mod radius;
 mod style;
 
 use super::ReportError;
