@@ -3,19 +3,34 @@
 //! [re, im]). Its reference speed is computed from the flux matrices.
 
 use super::params::Reader;
-use super::{ModelKind, System};
+use super::{symmetriser, ModelKind, System};
 use crate::error::InputError;
 use nalgebra::DMatrix;
 use num_complex::Complex64 as C64;
 
-/// A user system with given matrices.
+/// A user system with given matrices. Its growth norm is the automatic diagonal
+/// symmetriser of the flux matrices where one exists ([`symmetriser`]), else
+/// the identity, with the flux's eigenvector condition number kept for the
+/// caution.
 pub fn linear(
     variables: Vec<String>,
     flux: Vec<DMatrix<C64>>,
     diffusion: Vec<DMatrix<C64>>,
     source: DMatrix<C64>,
 ) -> System {
-    System::from_parts(ModelKind::Linear, variables, flux, diffusion, source, None)
+    let mut s = System::from_parts(ModelKind::Linear, variables, flux, diffusion, source, None);
+    match symmetriser::diagonal_symmetriser(&s.flux) {
+        Some(w) => {
+            s.norm_matrix = DMatrix::from_diagonal(&nalgebra::DVector::from_vec(w));
+            s.norm_origin = symmetriser::NormOrigin::AutomaticDiagonal;
+        }
+        None => {
+            s.norm_origin = symmetriser::NormOrigin::Identity {
+                flux_condition: symmetriser::flux_condition(&s.flux),
+            };
+        }
+    }
+    s
 }
 
 pub(super) fn linear_from(r: &mut Reader, dims: usize) -> Result<System, InputError> {

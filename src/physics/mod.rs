@@ -17,6 +17,7 @@ mod linear;
 mod maxwell;
 pub mod params;
 mod speed;
+pub mod symmetriser;
 
 pub use catalogue::ModelKind;
 pub use fluids::{acoustics, advection, euler, shallow_water};
@@ -49,6 +50,8 @@ pub struct System {
     /// entropy p′/(ρc) − cρ′/ρ, u, p′/(ρc); shallow water h√(g/H)); identity
     /// otherwise.
     pub norm_matrix: DMatrix<f64>,
+    /// Where `norm_matrix` comes from.
+    pub norm_origin: symmetriser::NormOrigin,
     /// Names of the physical wave families, in ascending order of frequency at
     /// long wavelengths along a direction (ties in the model's own order).
     pub mode_names: Vec<String>,
@@ -112,6 +115,7 @@ impl System {
             reference_speed: 0.0,
             diffusivity_max: (diffusivity_max > 0.0).then_some(diffusivity_max),
             norm_matrix: DMatrix::identity(m, m),
+            norm_origin: symmetriser::NormOrigin::Model,
             mode_names: (0..m).map(|k| format!("mode{}", k + 1)).collect(),
         };
         s.reference_speed = reference_speed.unwrap_or_else(|| speed::max_speed(&s));

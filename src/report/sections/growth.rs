@@ -51,7 +51,7 @@ impl Section for Growth {
         ));
     }
 
-    fn summary(&self, _p: &Problem, r: &Results, s: &mut Map<String, Value>) {
+    fn summary(&self, p: &Problem, r: &Results, s: &mut Map<String, Value>) {
         let Some(g) = &r.growth else {
             return;
         };
@@ -78,18 +78,26 @@ impl Section for Growth {
                 },
                 "pseudospectral_radius": { "epsilon": g.pseudospectral.0, "radius": num(g.pseudospectral.1), "wavevector": vec_num(pt) },
                 "norm_matrix": g.norm_matrix,
-                "norm": "||W u||_2 with W = norm_matrix (diag(scan.weights), or the model's symmetrising default), repeated over time levels",
+                "norm": "||W u||_2 with W = norm_matrix (diag(scan.weights), or the model's symmetrising default, or for a user system the automatic diagonal symmetriser of its flux matrices where one exists), repeated over time levels",
+                "norm_origin": norm_origin(p, r),
+                "state": state_note(p),
                 "class": g.class.as_str(),
                 "verdict": g.verdict,
             }),
         );
     }
 
-    fn rows(&self, _p: &Problem, r: &Results, rows: &mut Vec<(String, String)>) {
+    fn rows(&self, p: &Problem, r: &Results, rows: &mut Vec<(String, String)>) {
         let Some(g) = &r.growth else {
             return;
         };
         rows.push(("growth".into(), g.verdict.clone()));
+        if let Some(c) = norm_caution(p, r) {
+            rows.push(("caution".into(), c));
+        }
+        if p.method.levels() > 1 {
+            rows.push(("norm".into(), state_note(p)));
+        }
         if let Some(k) = &g.kreiss {
             rows.push((
                 "kreiss".into(),
@@ -99,5 +107,63 @@ impl Section for Growth {
                 ),
             ));
         }
+    }
+}
+
+/// Whether growth was measured in a norm the user chose (scan.weights).
+fn user_weights(r: &Results) -> bool {
+    r.plan.growth.as_ref().is_some_and(|g| g.weights.is_some())
+}
+
+/// Where the norm of the growth measures comes from, for summary.json.
+fn norm_origin(p: &Problem, r: &Results) -> Value {
+    use crate::physics::symmetriser::NormOrigin;
+    if user_weights(r) {
+        return json!({"kind": "scan.weights"});
+    }
+    match &p.system.norm_origin {
+        NormOrigin::Model => json!({"kind": "model symmetriser"}),
+        NormOrigin::AutomaticDiagonal => json!({
+            "kind": "automatic diagonal symmetriser",
+            "meaning": "W = diag(w) with W^2 A_d symmetric for every flux matrix A_d: an energy norm of the hyperbolic part",
+        }),
+        NormOrigin::Identity { flux_condition } => json!({
+            "kind": "identity",
+            "flux_eigenvector_condition": num(*flux_condition),
+            "caution": norm_caution(p, r),
+        }),
+    }
+}
+
+/// The caution of a user system measured in the identity norm although its
+/// waves are not orthogonal in it.
+fn norm_caution(p: &Problem, r: &Results) -> Option<String> {
+    use crate::physics::symmetriser::NormOrigin;
+    if user_weights(r) {
+        return None;
+    }
+    let NormOrigin::Identity { flux_condition } = p.system.norm_origin else {
+        return None;
+    };
+    (flux_condition > 1.0 + 1e-9).then(|| {
+        let k = if flux_condition.is_finite() {
+            format!("{flux_condition:.3e}")
+        } else {
+            "infinite (a flux matrix is not diagonalisable with real speeds)".to_string()
+        };
+        format!(
+            "growth is measured in the identity norm of the variables as given: the flux matrices have no diagonal symmetriser, and the condition number of their eigenvectors is {k}, so growth in a characteristic (energy) norm can differ from these figures by up to that factor; set scan.weights to per-variable energy weights to measure growth in your own physical norm"
+        )
+    })
+}
+
+/// What the state of the growth measures is: one time level, or all of a
+/// multistep method's levels stacked.
+fn state_note(p: &Problem) -> String {
+    match p.method.levels() {
+        1 => "one time level: ||G^n|| is the growth of the solution over n steps".to_string(),
+        k => format!(
+            "stacked state of all {k} time levels of the method: ||G^n|| measures the whole stacked state, so it can exceed 1 at n = 1 by the stacking alone (e.g. sqrt(2) for leapfrog with independent starting levels), not by growth of the solution"
+        ),
     }
 }
