@@ -149,7 +149,51 @@ fn yee_courant_limit_with_unequal_spacing_2d_and_3d() {
             v.stable_below && !v.moved_down,
             "scan below the limit finds no earlier loss"
         );
+        // every direction, the lattice ones (axes, face and body diagonals)
+        // among them in 3-D, has a bounded limit no smaller than the overall
+        // one: a direction whose long-wave samples turn untrusted at the large
+        // steps long waves allow is floored by the certified long-wave bound,
+        // not reported as unstable at every dt
+        let bd = &l.by_direction;
+        for (k, d) in bd.dt.iter().enumerate() {
+            assert!(
+                *d >= dt && d.is_finite(),
+                "{spacing:?}: direction {:?} has {d}",
+                bd.directions[k]
+            );
+        }
     }
+}
+
+#[test]
+fn every_direction_of_the_yee_cavity_has_a_bounded_limit() {
+    // The bundled 3-D cavity (1 mm x 1 mm x 0.4 mm): with the 26 lattice
+    // directions first, one Fibonacci direction's long-wave extrapolation was
+    // inconclusive and made that direction, and the overall limit, "none".
+    // Taflove & Hagness: c dt <= 1/sqrt(sum_d 1/h_d^2).
+    let text = std::fs::read_to_string(concat!(
+        env!("CARGO_MANIFEST_DIR"),
+        "/cases/cavity-yee3d.toml"
+    ))
+    .unwrap()
+    .replace("points = [17, 17, 17]", "points = [9, 9, 9]");
+    let c = case(&text);
+    let r = analyse(&c);
+    let l = r.limit.unwrap();
+    let want = 1.0
+        / (2.998e8
+            * [1.0e-3f64, 1.0e-3, 0.4e-3]
+                .iter()
+                .map(|h| 1.0 / (h * h))
+                .sum::<f64>()
+                .sqrt());
+    assert_safe(l.dt_max, want, 2e-6, "Yee cavity limit");
+    assert!(l
+        .by_direction
+        .dt
+        .iter()
+        .all(|d| *d >= l.dt_max && d.is_finite()));
+    assert_eq!(l.by_direction.directions.len(), 120);
 }
 
 #[test]

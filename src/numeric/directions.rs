@@ -47,10 +47,8 @@ pub fn lattice_3d() -> Vec<[f64; 3]> {
 
 /// Unit vectors for a dimension: ±x in 1-D; in 2-D `count` angles rounded up
 /// to a multiple of 8, so that the axes and diagonals are in the set; in 3-D
-/// `count` Fibonacci points. (Starting the 3-D set with the 26 lattice
-/// directions is not done yet: on the Yee cavity one of the resulting
-/// directions gets a long-wave extrapolation with no confident value, which
-/// reports that direction, and through it the overall limit, as "none".)
+/// the 26 lattice directions (axes, face and body diagonals; the first `count`
+/// of them when fewer are asked for) followed by `count − 26` Fibonacci points.
 pub fn unit_vectors(dims: usize, count: usize) -> Vec<Vec<f64>> {
     match dims {
         1 => vec![vec![1.0], vec![-1.0]],
@@ -58,7 +56,13 @@ pub fn unit_vectors(dims: usize, count: usize) -> Vec<Vec<f64>> {
             .into_iter()
             .map(|a| vec![a.cos(), a.sin()])
             .collect(),
-        _ => sphere(count).into_iter().map(|v| v.to_vec()).collect(),
+        _ => {
+            let mut v: Vec<Vec<f64>> = lattice_3d().into_iter().map(|v| v.to_vec()).collect();
+            v.truncate(count);
+            let rest = count.saturating_sub(v.len());
+            v.extend(sphere(rest).into_iter().map(|p| p.to_vec()));
+            v
+        }
     }
 }
 
@@ -96,6 +100,11 @@ mod tests {
         for v in [[0.0, 0.0, 1.0], [h, 0.0, -h], [0.0, -h, h], [t, -t, t]] {
             assert!(has(&lattice, &v), "{v:?} missing");
         }
+        // 3-D sets begin with the lattice directions, then Fibonacci points
+        let set = unit_vectors(3, 400);
+        assert_eq!(set.len(), 400);
+        assert!(lattice.iter().all(|v| has(&set, v)));
+        assert_eq!(unit_vectors(3, 6).len(), 6);
     }
 
     #[test]

@@ -56,6 +56,11 @@ impl Evidence {
             hi = hi.min(above);
         }
         let hi = hi.max(lo);
+        let long_wave_floor = self
+            .approached
+            .iter()
+            .map(|lw| (lw.limit - lw.uncertainty).max(0.0))
+            .fold(f64::INFINITY, f64::min);
         let kind = if lo == 0.0 {
             LimitKind::None
         } else if lo.is_infinite() {
@@ -67,6 +72,7 @@ impl Evidence {
             kind,
             dt_max: lo,
             wavevector: theta.iter().map(|x| wrap(*x)).collect(),
+            long_wave_floor,
         };
         let bracket = (kind == LimitKind::Bounded).then_some((lo, hi));
         (limit, bracket)

@@ -60,6 +60,7 @@ pub fn overall(
             kind: LimitKind::Unconditional,
             dt_max: f64::INFINITY,
             wavevector: vec![0.0; dims],
+            long_wave_floor: f64::INFINITY,
         };
         return (limit, None, verification);
     };

@@ -296,7 +296,7 @@ pub fn overall(f: &dyn FirstLoss, origin: &[f64]) -> LongWave {
 
 /// Whether a long-wave result says something: a limit known to better than its
 /// own size (or 0 or ∞).
-fn informative(l: &LongWave) -> bool {
+pub fn informative(l: &LongWave) -> bool {
     !(l.limit > 0.0 && l.limit.is_finite() && l.uncertainty >= l.limit)
 }
 

@@ -67,6 +67,12 @@ pub struct Limit {
     pub dt_max: f64,
     /// The wavevector that sets it, wrapped into [−π, π]^d.
     pub wavevector: Vec<f64>,
+    /// A certified lower bound of the first loss of stability near the points
+    /// where limits are approached but not attained (θ = 0, corners, faces),
+    /// over every direction: the smallest long-wave limit less its uncertainty
+    /// (∞ when no such point needed one). The floor of a ray whose own
+    /// long-wave extrapolation is inconclusive.
+    pub long_wave_floor: f64,
 }
 
 /// How a limit was found.
@@ -184,11 +190,12 @@ pub(super) fn by_first_exit(
         .run(|| overall::overall(op, exits, tol, &ctx.grid, screen));
     let dirs = limit_directions(ctx.problem.dims(), count);
     let per_ray = (ctx.grid.points.iter().max().copied().unwrap_or(2) / 2).max(32);
+    let certified = certified_floor(&overall);
     let res = along_rays(ctx, &dirs, |n| {
         if let Some(theta) = abscissa::unstable_on_ray(op, tol, n, per_ray) {
             return (0.0, theta);
         }
-        rays::ray_limit(&loss::Exact::new(op, exits, tol), n, per_ray)
+        rays::ray_limit(&loss::Exact::new(op, exits, tol), n, per_ray, certified)
     });
     finish(ctx, overall, bracket, dirs, res, FoundBy::FirstExit, None)
 }
@@ -204,6 +211,7 @@ pub(super) fn by_search(ctx: &Context, ev: &CompositeEval, count: usize) -> Limi
         LimitKind::Bounded => 0.5 * overall.dt_max,
         _ => ev.scale(),
     };
+    let certified = certified_floor(&overall);
     let res = along_rays(ctx, &dirs, |n| {
         if overall.kind == LimitKind::None && overall.wavevector.iter().all(|x| *x == 0.0) {
             return (0.0, vec![0.0; n.len()]);
@@ -211,7 +219,7 @@ pub(super) fn by_search(ctx: &Context, ev: &CompositeEval, count: usize) -> Limi
         if let Some(theta) = abscissa::unstable_on_ray(&ctx.op, ctx.plan.tolerance, n, per_ray) {
             return (0.0, theta);
         }
-        rays::ray_limit(&search::PerTheta::new(ev, floor), n, per_ray)
+        rays::ray_limit(&search::PerTheta::new(ev, floor), n, per_ray, certified)
     });
     finish(
         ctx,
@@ -222,6 +230,17 @@ pub(super) fn by_search(ctx: &Context, ev: &CompositeEval, count: usize) -> Limi
         FoundBy::Search,
         Some(verification),
     )
+}
+
+/// The floor of the long-wave part of a ray whose own extrapolation is
+/// inconclusive: the overall long-wave floor (certified over all directions),
+/// never below the overall limit itself (stable up to it at every wavevector;
+/// 0 when there is no limit).
+fn certified_floor(overall: &Limit) -> f64 {
+    match overall.kind {
+        LimitKind::None => 0.0,
+        _ => overall.long_wave_floor.max(overall.dt_max),
+    }
 }
 
 /// `ray` over every direction in parallel, each direction whose opposite came

@@ -5,7 +5,11 @@
 //! θ = 0 is seen by every ray), every local minimum of the samples is refined by
 //! golden-section search, and the long-wave limit along n ([`super::longwave`])
 //! covers s → 0. A direction is reported stable up to a Δt only if every part of
-//! its ray is.
+//! its ray is. Where the long-wave samples of a ray stop being trusted after the
+//! first (rounding in G at the large Δt that long waves allow, as for the Yee
+//! scheme along some directions) the ray's own extrapolation says nothing; its
+//! long-wave part is then bounded below by the certified overall limit
+//! (`fallback`), which holds at every wavevector, instead of by 0.
 
 use super::longwave;
 use super::loss::FirstLoss;
@@ -16,8 +20,9 @@ use crate::sample::ray_length;
 const REFINED: usize = 6;
 
 /// (Δt, the wavevector that sets it) along the unit vector `n`, from `samples`
-/// uniform samples.
-pub fn ray_limit(f: &dyn FirstLoss, n: &[f64], samples: usize) -> (f64, Vec<f64>) {
+/// uniform samples; `fallback` is the certified overall limit, the floor of a
+/// ray whose long-wave extrapolation is uninformative.
+pub fn ray_limit(f: &dyn FirstLoss, n: &[f64], samples: usize, fallback: f64) -> (f64, Vec<f64>) {
     let smax = ray_length(n);
     let at = |s: f64| -> Vec<f64> { n.iter().map(|x| x * s).collect() };
     let s_of = |k: usize| smax * k as f64 / samples as f64;
@@ -55,7 +60,11 @@ pub fn ray_limit(f: &dyn FirstLoss, n: &[f64], samples: usize) -> (f64, Vec<f64>
     if lw.sample.0 < best.0 {
         best = lw.sample.clone();
     }
-    let floor = (lw.limit - lw.uncertainty).max(0.0);
+    let floor = if longwave::informative(&lw) {
+        (lw.limit - lw.uncertainty).max(0.0)
+    } else {
+        fallback.max(0.0)
+    };
     if floor < best.0 {
         best = (floor, at(longwave::S0 * 1e-6));
     }
