@@ -808,8 +808,8 @@ pub fn draw(root: &Area, problem: &Problem, r: &Results, d: &DispersionResult) -
     // the legend: directions, then the line styles
     let mut x = 30;
     let t = style::text(14.0, style::MUTED).pos(style::anchor(HPos::Left, VPos::Center));
-    root.draw(&Text::new("direction:", (x, legend_top + 12), t))?;
-    x += 80;
+    root.draw(&Text::new("physical direction:", (x, legend_top + 12), t))?;
+    x += 140;
     for pick in &picks {
         x += legend_entry(
             root,

@@ -24,6 +24,8 @@ use plotters::style::text_anchor::{HPos, VPos};
 const GROWTH: f64 = 1e-6;
 
 const Y_LABEL: &str = "max over wavevectors of ||G^n||_2 (weighted norm)";
+/// The y label of a multistep method, whose state stacks its time levels.
+const Y_LABEL_STACKED: &str = "max over wavevectors of ||G^n||_2 (weighted, stacked time levels)";
 
 /// How many values are NaN, clipped at the top, clipped at the bottom.
 fn clipped_counts(values: &[f64], axis: &YAxis) -> (usize, usize, usize) {
@@ -152,7 +154,11 @@ pub fn draw(root: &Area, problem: &Problem, r: &Results, g: &GrowthResult) -> Re
         chart
             .configure_mesh()
             .x_desc("time step n")
-            .y_desc(Y_LABEL)
+            .y_desc(if problem.method.levels() > 1 {
+                Y_LABEL_STACKED
+            } else {
+                Y_LABEL
+            })
             .x_label_formatter(&fmt_x)
             .y_label_formatter(&fmt_y),
     )
