@@ -206,8 +206,9 @@ fn manifest_pictures(out: &Path) -> Vec<String> {
 }
 
 /// Every picture of a case that runs all analyses, in the order written.
-const ALL: [&str; 6] = [
+const ALL: [&str; 7] = [
     "radius.png",
+    "footprint.png",
     "limit_polar.png",
     "growth.png",
     "departure.png",
@@ -263,7 +264,7 @@ fn unstable_map_draws_the_stability_contour_in_black_and_white() {
 fn pictures_without_data_are_skipped() {
     let text = format!("{ADVECTION_2D}analyses = [\"radius\"]\n");
     let (_tmp, out) = run(&text);
-    assert_eq!(manifest_pictures(&out), ["radius.png"]);
+    assert_eq!(manifest_pictures(&out), ["radius.png", "footprint.png"]);
     assert!(!out.join("limit_polar.png").exists());
 }
 
@@ -329,7 +330,13 @@ fn unstable_scheme_gets_a_growth_curve_and_non_normality_maps() {
     let listed = manifest_pictures(&out);
     assert_eq!(
         listed,
-        ["radius.png", "growth.png", "departure.png", "norm.png"]
+        [
+            "radius.png",
+            "footprint.png",
+            "growth.png",
+            "departure.png",
+            "norm.png"
+        ]
     );
     for name in &listed {
         assert_looks_like_a_picture(&out.join(name));
@@ -703,4 +710,46 @@ fn a_nearly_neutral_radius_map_is_drawn_as_its_damping() {
         count_colour(&decode(&files[0]), CRIMSON) > 50,
         "the least damped node is marked"
     );
+}
+
+#[test]
+fn the_fourier_footprint_is_drawn_for_one_step_and_multistep_methods_only() {
+    // C2 advection, a = 1, h = 1: Δt·μ = −i ν sin θ (common practice); RK4 at
+    // ν = 0.5 and AB3 at ν = 0.2 get footprint.png; a composite scheme
+    // (forward–backward on the C-grid) has no footprint (G is not a function of
+    // Δt·L) and no picture.
+    for (method, courant) in [("rk4", 0.5), ("ab3", 0.2)] {
+        let text = format!("name = \"pic-footprint\"\n[grid]\nspacing = [1.0]\n[model]\nkind = \"advection\"\nvelocity = [1.0]\n[space]\nfirst = \"central2\"\n[time]\nmethod = \"{method}\"\ncourant = {courant}\n[scan]\npoints = [33]\nanalyses = [\"radius\", \"limit\"]\n");
+        let c = case(&text);
+        let r = results(&c);
+        let f = r.footprint.as_ref().expect("a footprint");
+        assert_eq!(f.theta_norm.len(), 33);
+        for (k, &flat) in f.index.iter().enumerate() {
+            let th = r.grid.coords[0][flat];
+            let want = num_complex::Complex64::new(0.0, -courant * th.sin());
+            assert!(
+                (f.z[k] - want).norm() <= 1e-14,
+                "{method} at {th}: {}",
+                f.z[k]
+            );
+            assert!((f.theta_norm[k] - th.abs()).abs() <= 1e-15);
+        }
+        let tmp = tempfile::tempdir().expect("temp dir");
+        let files = write_pictures(tmp.path(), &c.problem, &r).expect("pictures drawn");
+        let fp = files
+            .iter()
+            .find(|p| p.ends_with("footprint.png"))
+            .expect("footprint.png");
+        assert_looks_like_a_picture(fp);
+        // the stability region's fill (light green) covers a good part of the plot
+        let region = count_colour(&decode(fp), [0xdc, 0xef, 0xe1]);
+        assert!(region > 20_000, "{method}: {region} region pixels");
+    }
+    let basin = "name = \"pic-fb\"\n[grid]\nspacing = [1000.0, 1000.0]\n[model]\nkind = \"shallow-water\"\ndepth = 10.0\ngravity = 9.81\n[space]\narrangement = \"c\"\n[time]\nmethod = \"forward-backward\"\nsequence = [\"h\", \"u\", \"v\"]\ncourant = 0.5\n[scan]\npoints = [9, 9]\nanalyses = [\"radius\"]\n";
+    let c = case(basin);
+    let r = results(&c);
+    assert!(r.footprint.is_none());
+    let tmp = tempfile::tempdir().expect("temp dir");
+    let files = write_pictures(tmp.path(), &c.problem, &r).expect("pictures drawn");
+    assert!(files.iter().all(|p| !p.ends_with("footprint.png")));
 }

@@ -22,6 +22,7 @@ pub mod cautions;
 pub mod context;
 pub mod dispersion;
 pub mod footprint;
+pub mod fourier_footprint;
 pub mod growth;
 pub mod limit;
 pub mod modes;
@@ -253,6 +254,9 @@ pub struct Results {
     pub modes: Vec<Mode>,
     /// Sampled matrices, if asked.
     pub samples: Option<Samples>,
+    /// Δt·eig L(θ) at sampled wavevectors (with the radius map; one-step and
+    /// multistep methods only).
+    pub footprint: Option<fourier_footprint::FourierFootprint>,
     /// Nodes where the eigenvalue kernel failed (their values are NaN).
     pub failures: usize,
     /// Quantities that came out NaN at some wavevectors (a failure, not a result).
@@ -316,6 +320,10 @@ pub fn analyse(
         };
     let radius = radius_map.map(|map| radius::result(map, &ctx.grid, tol));
     let samples = (plan.matrices > 0).then(|| samples::sample(&ctx, plan.matrices));
+    let footprint = plan
+        .radius
+        .as_ref()
+        .and_then(|_| fourier_footprint::footprint(&ctx));
     let growth = plan.growth.as_ref().map(|p| growth::analyse(&ctx, p));
     let dispersion = plan
         .dispersion
@@ -338,6 +346,7 @@ pub fn analyse(
         dispersion,
         modes: Vec::new(),
         samples,
+        footprint,
         failures,
         non_finite: Vec::new(),
         verdict: if unstable {

@@ -3,6 +3,9 @@
 //! The pictures only consume what the analyses produced (the same numbers that
 //! go into the NPY files): `radius.png` shows the spectral-radius map with its
 //! |λ| = 1 + tolerance contour and the worst wavevector ([`radius`]),
+//! `footprint.png` the Fourier footprint Δt·eig L(θ) over the time method's
+//! stability region (one-step and multistep methods, with the radius map;
+//! [`footprint`]),
 //! `limit_polar.png` the largest stable Courant number (or Δt) per wave
 //! direction ([`limit`]), `growth.png` the transient-growth envelope
 //! max_θ ‖Gⁿ‖₂ against n ([`growth`]), `departure.png` and `norm.png` the
@@ -25,6 +28,7 @@ mod colormap;
 mod contour;
 mod dispersion;
 mod field;
+mod footprint;
 mod growth;
 mod heatmap;
 mod limit;
@@ -91,6 +95,14 @@ pub fn write_pictures(
         let path = dir.join("radius.png");
         render(&path, font, |root| {
             radius::draw(root, problem, results, rad)
+        })
+        .map_err(|e| fail(&path, e.to_string()))?;
+        written.push(path);
+    }
+    if let Some(fp) = &results.footprint {
+        let path = dir.join("footprint.png");
+        render(&path, font, |root| {
+            footprint::draw(root, problem, results, fp)
         })
         .map_err(|e| fail(&path, e.to_string()))?;
         written.push(path);

@@ -7,6 +7,7 @@
 //! entry in [`ALL`].
 
 mod dispersion;
+mod footprint;
 mod grid;
 mod growth;
 mod limit;
@@ -33,6 +34,7 @@ pub trait Section: Sync {
 pub const ALL: &[&dyn Section] = &[
     &grid::Grid,
     &radius::Radius,
+    &footprint::Footprint,
     &limit::Limit,
     &growth::Growth,
     &dispersion::Dispersion,

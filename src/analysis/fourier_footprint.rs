@@ -1,0 +1,63 @@
+//! The Fourier footprint: Δt times the eigenvalues of the spatial operator
+//! L(θ) at (a sample of) the grid wavevectors, the points a one-step or
+//! multistep method must keep inside its stability region. Drawn over that
+//! region in `footprint.png`, it is the picture used to choose an integrator:
+//! how far the spectrum is from the region's boundary, and which wavenumbers
+//! (coloured by |θ|) get there first. Composite schemes (IMEX, splitting,
+//! forward–backward, staggered leapfrog) have no footprint: their G is not a
+//! function of Δt·L alone.
+
+use super::context::Context;
+use crate::linalg::EigSolver;
+use num_complex::Complex64 as C64;
+
+/// At most this many wavevectors are sampled (evenly strided over the grid).
+pub const MAX_NODES: usize = 8192;
+
+/// Δt·eig L(θ) at sampled wavevectors.
+#[derive(Debug, Clone)]
+pub struct FourierFootprint {
+    /// Δt μ at the case's Δt, `nodes × m`, node-major (eigenvalues unordered).
+    pub z: Vec<C64>,
+    /// |θ|₂ of each sampled wavevector.
+    pub theta_norm: Vec<f64>,
+    /// Flat C-order grid index of each sampled wavevector.
+    pub index: Vec<usize>,
+    /// Eigenvalues per wavevector (m).
+    pub m: usize,
+    /// The case's Δt.
+    pub dt: f64,
+}
+
+/// The footprint of a one-step or multistep method (None for composite schemes).
+pub fn footprint(ctx: &Context) -> Option<FourierFootprint> {
+    if ctx.problem.method.composite().is_some() {
+        return None;
+    }
+    let (grid, op, dt) = (&ctx.grid, &ctx.op, ctx.dt);
+    let m = op.m;
+    let total = grid.len();
+    let stride = total.div_ceil(MAX_NODES).max(1);
+    let mut solver = EigSolver::new(m);
+    let mut eig = vec![C64::new(0.0, 0.0); m];
+    let mut idx = vec![0usize; grid.points.len()];
+    let mut out = FourierFootprint {
+        z: Vec::with_capacity(m * total.div_ceil(stride)),
+        theta_norm: Vec::new(),
+        index: Vec::new(),
+        m,
+        dt,
+    };
+    for flat in (0..total).step_by(stride) {
+        grid.unravel(flat, &mut idx);
+        let theta = grid.theta(&idx);
+        if solver.eigenvalues(&op.symbol(&theta), &mut eig).is_err() {
+            continue;
+        }
+        out.z.extend(eig.iter().map(|mu| mu * dt));
+        out.theta_norm
+            .push(theta.iter().map(|t| t * t).sum::<f64>().sqrt());
+        out.index.push(flat);
+    }
+    Some(out)
+}
