@@ -90,28 +90,25 @@ pub fn write_pictures(
         message,
     };
     let font = font().map_err(|m| fail(dir, m))?;
-    let mut written = Vec::new();
+    type Job<'r> = Box<dyn Fn(&Area) -> Res + Sync + 'r>;
+    let mut jobs: Vec<(&str, Job)> = Vec::new();
     if let Some(rad) = &results.radius {
-        let path = dir.join("radius.png");
-        render(&path, font, |root| {
-            radius::draw(root, problem, results, rad)
-        })
-        .map_err(|e| fail(&path, e.to_string()))?;
-        written.push(path);
+        jobs.push((
+            "radius.png",
+            Box::new(move |root| radius::draw(root, problem, results, rad)),
+        ));
     }
     if let Some(fp) = &results.footprint {
-        let path = dir.join("footprint.png");
-        render(&path, font, |root| {
-            footprint::draw(root, problem, results, fp)
-        })
-        .map_err(|e| fail(&path, e.to_string()))?;
-        written.push(path);
+        jobs.push((
+            "footprint.png",
+            Box::new(move |root| footprint::draw(root, problem, results, fp)),
+        ));
     }
     if let Some(dl) = results.limit.as_ref().map(|l| &l.by_direction) {
-        let path = dir.join("limit_polar.png");
-        render(&path, font, |root| limit::draw(root, problem, results, dl))
-            .map_err(|e| fail(&path, e.to_string()))?;
-        written.push(path);
+        jobs.push((
+            "limit_polar.png",
+            Box::new(move |root| limit::draw(root, problem, results, dl)),
+        ));
     }
     if let Some(g) = &results.growth {
         type Draw = fn(&Area, &Problem, &Results, &crate::analysis::growth::GrowthResult) -> Res;
@@ -121,21 +118,26 @@ pub fn write_pictures(
             ("norm.png", nonnormal::norm),
         ];
         for (name, draw) in pictures {
-            let path = dir.join(name);
-            render(&path, font, |root| draw(root, problem, results, g))
-                .map_err(|e| fail(&path, e.to_string()))?;
-            written.push(path);
+            jobs.push((name, Box::new(move |root| draw(root, problem, results, g))));
         }
     }
     if let Some(d) = &results.dispersion {
-        let path = dir.join("dispersion.png");
-        render(&path, font, |root| {
-            dispersion::draw(root, problem, results, d)
-        })
-        .map_err(|e| fail(&path, e.to_string()))?;
-        written.push(path);
+        jobs.push((
+            "dispersion.png",
+            Box::new(move |root| dispersion::draw(root, problem, results, d)),
+        ));
     }
-    Ok(written)
+    // each picture draws into its own buffer and encodes on its own: in parallel
+    // with each other (and, through the caller, with the NPY files)
+    use rayon::prelude::*;
+    jobs.par_iter()
+        .map(|(name, draw)| {
+            let path = dir.join(name);
+            render(&path, font, |root| draw(root))
+                .map_err(|e| fail(&path, e.to_string()))
+                .map(|_| path)
+        })
+        .collect()
 }
 
 /// One picture: a white canvas of [`SIZE`], drawn by `f` into an RGB buffer and
