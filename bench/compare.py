@@ -23,9 +23,14 @@ and getrusage(RUSAGE_CHILDREN).ru_maxrss is a maximum over all children, not a s
 Wall times are taken around the wrapped command, so both sides carry GNU time's own start-up
 (about a millisecond); the peer's include the Python start and the numpy import, as a user sees.
 
+  whole   every analysis of kgain on N x N against the peer's radius-only map on the same grid
+          (the headline target); radius maps compared to 1e-9.
+  matrix  kgain alone: radius, limit, growth, dispersion and all four on N x N, 1 and 2 threads,
+          median wall time, peak RSS and the size of the arrays written (no peer).
+
 Usage: python3 bench/compare.py [--runs 5] [--points 513] [--limit-points 129]
                                 [--growth-points 257] [--steps 100] [--threads 0]
-                                [--only radius,limit,growth|all]
+                                [--only radius,limit,growth,whole,matrix|all]
 Needs target/release/kgain (cargo build --release) and numpy; nothing outside the repository.
 Exits 1 when any agreement check fails.
 """
@@ -44,7 +49,7 @@ ROOT = os.path.dirname(os.path.dirname(os.path.abspath(__file__)))
 KGAIN = os.path.join(ROOT, "target", "release", "kgain")
 PEER = os.path.join(ROOT, "bench", "numpy_peer.py")
 CASE = os.path.join(ROOT, "bench", "peer-euler2d.toml")
-TASKS = ("radius", "limit", "growth")
+TASKS = ("radius", "limit", "growth", "whole", "matrix")
 
 # The case's physics, restated here so the closed forms do not depend on the peer's code.
 VELOCITY = np.array([0.5, 0.2])
@@ -181,6 +186,42 @@ def task_growth(a, tmp):
             [(ok, f"envelopes agree (rel 1e-9): max rel diff {rel:.1e}, peak {ours.max():.6f}")])
 
 
+def task_whole(a, tmp):
+    """The issue's headline target: every analysis of kgain on N x N against the peer's radius-only
+    map on the same grid (both whole processes)."""
+    n = a.points
+    k = kgain_cmd(os.path.join(tmp, "wk"), a.threads, f"scan.points=[{n},{n}]")
+    p = peer_cmd("radius", "--points", str(n), "--out", os.path.join(tmp, "wp"))
+    rows, _ = alternate(k, p, a.runs)
+    ours = np.load(os.path.join(tmp, "wk", "radius.npy"))
+    peer = np.load(os.path.join(tmp, "wp", "radius.npy"))
+    ok = ours.shape == peer.shape and np.allclose(ours, peer, rtol=0, atol=1e-9)
+    return f"all four analyses {n}x{n} vs peer radius", rows, [(ok, "radius maps of the two runs agree (atol 1e-9)")]
+
+
+def analysis_matrix(a, tmp):
+    """kgain alone: each analysis and all four on N x N, 1 and 2 threads; median wall time and
+    peak RSS of `runs` runs, plus the size of the arrays written."""
+    n = a.points
+    print(f"\nkgain alone on the {n}x{n} peer case: median of {a.runs} runs, peak RSS (GNU time %M)")
+    head = f"{'analyses':<12} {'1 thread s':>11} {'2 threads s':>12} {'speed-up':>9} {'RSS MiB (2 thr)':>16} {'arrays MiB':>11}"
+    print(head)
+    print("-" * len(head))
+    for name in ("radius", "limit", "growth", "dispersion", "all"):
+        sets = [f"scan.points=[{n},{n}]"]
+        if name != "all":
+            sets.append(f'scan.analyses=["{name}"]')
+        med = {}
+        out = os.path.join(tmp, f"m-{name}")
+        for threads in (1, 2):
+            runs = [timed(kgain_cmd(out, threads, *sets)) for _ in range(a.runs)]
+            med[threads] = (statistics.median(r[0] for r in runs), max(r[1] or 0 for r in runs))
+        arrays = sum(os.path.getsize(os.path.join(out, f)) for f in os.listdir(out) if f.endswith(".npy"))
+        print(f"{name:<12} {med[1][0]:11.3f} {med[2][0]:12.3f} {med[1][0] / med[2][0]:8.2f}x"
+              f" {med[2][1]:16.1f} {arrays / 2**20:11.1f}")
+    return []
+
+
 def mib(peaks):
     return "n/a" if None in peaks else f"{max(peaks):.1f}"
 
@@ -220,7 +261,8 @@ def parse():
     ap.add_argument("--growth-points", type=int, default=257, help="growth envelope grid per axis (default 257)")
     ap.add_argument("--steps", type=int, default=100, help="growth envelope horizon (default 100)")
     ap.add_argument("--threads", type=int, default=0, help="kgain threads (0: all cores)")
-    ap.add_argument("--only", default="all", help="comma-separated subset of radius,limit,growth, or all")
+    ap.add_argument("--only", default="all",
+                    help="comma-separated subset of radius,limit,growth,whole,matrix, or all")
     a = ap.parse_args()
     chosen = TASKS if a.only == "all" else tuple(t.strip() for t in a.only.split(",") if t.strip())
     unknown = [t for t in chosen if t not in TASKS]
@@ -236,13 +278,18 @@ def main():
     a = parse()
     if not os.path.exists(KGAIN):
         sys.exit(f"build kgain first: {KGAIN} not found (cargo build --release)")
-    run = {"radius": task_radius, "limit": task_limit, "growth": task_growth}
+    run = {"radius": task_radius, "limit": task_limit, "growth": task_growth, "whole": task_whole}
     with tempfile.TemporaryDirectory() as tmp:
         results = []
         for t in a.tasks:
+            if t == "matrix":
+                continue
             print(f"running {t} ...", file=sys.stderr, flush=True)
             results.append(run[t](a, tmp))
-    sys.exit(1 if report(results, a.runs) else 0)
+        failed = report(results, a.runs)
+        if "matrix" in a.tasks:
+            analysis_matrix(a, tmp)
+    sys.exit(1 if failed else 0)
 
 
 if __name__ == "__main__":
