@@ -20,9 +20,12 @@ use crate::problem::Problem;
 /// small run: the measured peak of radius-only runs on small 1-D to 3-D grids
 /// less the other terms, about 6 MiB.
 const PROCESS: u128 = 6 << 20;
-/// One picture's RGB buffer (1000 × 800 × 3) plus the PNG encoder's buffers;
-/// pictures are drawn one at a time.
-const PICTURE: u128 = 1000 * 800 * 3 + (512 << 10);
+/// One picture's RGB buffer (1000 × 800 × 3) plus the PNG encoder's and the
+/// text renderer's buffers (measured: about 1.5 MiB); pictures are drawn in
+/// parallel, one per worker thread at most (seven pictures at most).
+const PICTURE: u128 = 1000 * 800 * 3 + (1536 << 10);
+/// Most pictures one run draws.
+const PICTURES_MAX: u128 = 7;
 /// Touched stack and per-worker workspace of one worker thread.
 const PER_THREAD: u128 = 256 << 10;
 /// Wavevectors per slab of the main sweep (as in `sweep.rs`).
@@ -175,6 +178,9 @@ impl Plan {
             resident += dispersion_curves(&s, curves.len() as u128);
         }
         resident += matrices(&s, self.matrices as u128);
-        PROCESS + PICTURE + threads * per_thread + resident.max(transient)
+        PROCESS
+            + PICTURE * threads.min(PICTURES_MAX)
+            + threads * per_thread
+            + resident.max(transient)
     }
 }
