@@ -41,7 +41,13 @@ pub struct CompositeEval<'a> {
     problem: &'a Problem,
     op: &'a Operator,
     scheme: &'a Composite,
+    /// A number no other evaluator has: the key of the per-thread cache of
+    /// θ-only quantities.
+    id: usize,
 }
+
+/// Source of [`CompositeEval`] ids (0 is never handed out).
+static NEXT_ID: AtomicUsize = AtomicUsize::new(1);
 
 impl<'a> CompositeEval<'a> {
     /// For a problem whose method is composite.
@@ -50,6 +56,7 @@ impl<'a> CompositeEval<'a> {
             problem,
             op,
             scheme,
+            id: NEXT_ID.fetch_add(1, Ordering::Relaxed),
         }
     }
 
@@ -87,7 +94,7 @@ impl<'a> CompositeEval<'a> {
             // implicit solves with I − ΔtL carry rounding relative to its
             // condition, about max(1, Δt‖L‖)
             let (growth, noise) = growth_of_increment(&e);
-            let operand = dt * linalg::dense::frobenius(&self.op.symbol_matrix(theta));
+            let operand = dt * self.symbol_frobenius(theta);
             return (growth, noise * operand.max(1.0));
         }
         let cnab2 = matches!(self.scheme, Composite::Imex(composite::Imex::Cnab2));
@@ -102,6 +109,26 @@ impl<'a> CompositeEval<'a> {
         let size = linalg::dense::frobenius(&g).max(1.0);
         let rho = linalg::spectral_radius(&linalg::from_matrix(&g), g.nrows()).unwrap_or(f64::NAN);
         (rho - 1.0, 64.0 * f64::EPSILON * size)
+    }
+
+    /// ‖L(θ)‖_F, which depends on θ only: the searches on Δt call
+    /// [`CompositeEval::growth_and_noise`] many times at one θ, so the last value
+    /// of each thread is kept (keyed by this evaluator's id and θ; the same
+    /// number as computing it afresh).
+    fn symbol_frobenius(&self, theta: &[f64]) -> f64 {
+        use std::cell::RefCell;
+        thread_local! {
+            static LAST: RefCell<(usize, Vec<f64>, f64)> = const { RefCell::new((0, Vec::new(), 0.0)) };
+        }
+        let key = self.id;
+        LAST.with(|last| {
+            let mut last = last.borrow_mut();
+            if last.0 != key || last.1.as_slice() != theta {
+                let f = linalg::dense::frobenius(&self.op.symbol_matrix(theta));
+                *last = (key, theta.to_vec(), f);
+            }
+            last.2
+        })
     }
 
     /// |1 + e| − 1 of a scalar increment e, and its rounding: e carries no
