@@ -90,6 +90,16 @@ impl Resolution {
         self.discrete.as_ref().map(Requirement::ppw)
     }
 
+    /// Semi-discrete decay-rate points per wavelength.
+    pub fn decay_ppw(&self) -> Option<f64> {
+        self.decay.as_ref().map(Requirement::ppw)
+    }
+
+    /// Fully discrete decay-rate points per wavelength.
+    pub fn decay_discrete_ppw(&self) -> Option<f64> {
+        self.decay_discrete.as_ref().map(Requirement::ppw)
+    }
+
     /// Index of the semi-discrete worst direction (0 when there is none).
     pub fn worst_direction(&self) -> usize {
         self.semi.as_ref().map_or(0, |r| r.worst.direction)

@@ -25,6 +25,7 @@
 
 use super::heatmap::{legend_entry, Key};
 use super::{style, title_band, Area, Res, SIZE, TITLE_BAND};
+use crate::analysis::dispersion::resolution::Resolution;
 use crate::analysis::dispersion::DispersionResult;
 use crate::analysis::Results;
 use crate::problem::Problem;
@@ -52,18 +53,25 @@ const X_LABEL: &str = "points per wavelength 2π/max|θ_d|";
 /// The mode the picture shows: the largest finite semi-discrete resolution
 /// requirement, or, when no mode has one, the largest fully discrete one.
 pub fn shown_mode(d: &DispersionResult) -> Option<usize> {
-    let best = |semi: bool| {
+    largest_need(d, Resolution::semi_ppw, Resolution::discrete_ppw)
+}
+
+/// The mode with the largest finite `semi` requirement, else the largest
+/// finite `discrete` one.
+fn largest_need(
+    d: &DispersionResult,
+    semi: fn(&Resolution) -> Option<f64>,
+    discrete: fn(&Resolution) -> Option<f64>,
+) -> Option<usize> {
+    let best = |need: fn(&Resolution) -> Option<f64>| {
         d.resolution
             .iter()
             .enumerate()
-            .filter_map(|(j, r)| {
-                let v = if semi { r.semi_ppw() } else { r.discrete_ppw() };
-                v.filter(|v| v.is_finite()).map(|v| (j, v))
-            })
+            .filter_map(|(j, r)| need(r).filter(|v| v.is_finite()).map(|v| (j, v)))
             .max_by(|a, b| a.1.total_cmp(&b.1))
             .map(|(j, _)| j)
     };
-    best(true).or_else(|| best(false))
+    best(semi).or_else(|| best(discrete))
 }
 
 /// One direction drawn: its index, legend label and colour.
@@ -504,10 +512,7 @@ fn requirements(d: &DispersionResult, decay: bool) -> Vec<String> {
     )];
     parts.extend(d.names.iter().zip(&d.resolution).map(|(name, res)| {
         let (semi, disc) = if decay {
-            let ppw = |q: &Option<crate::analysis::dispersion::resolution::Requirement>| {
-                q.as_ref().map(|q| q.ppw())
-            };
-            (ppw(&res.decay), ppw(&res.decay_discrete))
+            (res.decay_ppw(), res.decay_discrete_ppw())
         } else {
             (res.semi_ppw(), res.discrete_ppw())
         };
@@ -554,26 +559,6 @@ struct View<'d> {
     y_label: &'static str,
 }
 
-/// The damped mode with the largest finite semi-discrete decay requirement
-/// (else the largest fully discrete one).
-fn decay_mode(d: &DispersionResult) -> Option<usize> {
-    let best = |semi: bool| {
-        d.resolution
-            .iter()
-            .enumerate()
-            .filter_map(|(j, r)| {
-                let q = if semi { &r.decay } else { &r.decay_discrete };
-                q.as_ref()
-                    .map(|q| q.ppw())
-                    .filter(|v| v.is_finite())
-                    .map(|v| (j, v))
-            })
-            .max_by(|a, b| a.1.total_cmp(&b.1))
-            .map(|(j, _)| j)
-    };
-    best(true).or_else(|| best(false))
-}
-
 fn view(d: &DispersionResult) -> Option<View<'_>> {
     if let Some(mode) = shown_mode(d) {
         let res = &d.resolution[mode];
@@ -590,15 +575,13 @@ fn view(d: &DispersionResult) -> Option<View<'_>> {
             y_label: "phase-speed ratio",
         });
     }
-    let mode = decay_mode(d)?;
+    // the damped mode that needs the most points per wavelength
+    let mode = largest_need(d, Resolution::decay_ppw, Resolution::decay_discrete_ppw)?;
     let res = &d.resolution[mode];
-    let ppw = |q: &Option<crate::analysis::dispersion::resolution::Requirement>| {
-        q.as_ref().map(|q| q.ppw())
-    };
     Some(View {
         mode,
-        semi_need: ppw(&res.decay),
-        disc_need: ppw(&res.decay_discrete),
+        semi_need: res.decay_ppw(),
+        disc_need: res.decay_discrete_ppw(),
         worst: res
             .decay
             .as_ref()

@@ -4,7 +4,7 @@
 
 use super::grid::grid_dims;
 use super::Section;
-use crate::analysis::dispersion::resolution::{Requirement, SLOW_FRACTION};
+use crate::analysis::dispersion::resolution::{Requirement, Resolution, SLOW_FRACTION};
 use crate::analysis::Results;
 use crate::problem::Problem;
 use crate::report::format::{direction_deg, num, sig3, vec_num};
@@ -225,8 +225,8 @@ impl Section for Dispersion {
                     "semi_discrete": requirement(&res.semi),
                     "fully_discrete": requirement(&res.discrete),
                     "slow_directions_excluded": res.excluded.len(),
-                    "decay_ppw_required": res.decay.as_ref().map(|q| num(q.ppw())),
-                    "decay_ppw_required_discrete": res.decay_discrete.as_ref().map(|q| num(q.ppw())),
+                    "decay_ppw_required": res.decay_ppw().map(num),
+                    "decay_ppw_required_discrete": res.decay_discrete_ppw().map(num),
                     "decay": requirement(&res.decay),
                     "decay_discrete": requirement(&res.decay_discrete),
                     "weakly_damped_directions_excluded": res.decay_excluded.len(),
@@ -267,48 +267,43 @@ impl Section for Dispersion {
         let Some(d) = &r.dispersion else {
             return;
         };
-        let parts: Vec<String> = d
-            .names
-            .iter()
-            .zip(&d.resolution)
-            .filter_map(|(n, res)| {
-                res.semi_ppw().map(|a| match res.discrete_ppw() {
-                    Some(b) => format!("{n} {} ({} with time stepping)", sig3(a), sig3(b)),
-                    None => format!("{n} {}", sig3(a)),
+        type Need = fn(&Resolution) -> Option<f64>;
+        let rows_of: [(&str, &str, Need, Need); 2] = [
+            (
+                "resolution",
+                "phase",
+                Resolution::semi_ppw,
+                Resolution::discrete_ppw,
+            ),
+            (
+                "diffusion",
+                "decay-rate",
+                Resolution::decay_ppw,
+                Resolution::decay_discrete_ppw,
+            ),
+        ];
+        for (label, quantity, semi, discrete) in rows_of {
+            let parts: Vec<String> = d
+                .names
+                .iter()
+                .zip(&d.resolution)
+                .filter_map(|(n, res)| {
+                    semi(res).map(|a| match discrete(res) {
+                        Some(b) => format!("{n} {} ({} with time stepping)", sig3(a), sig3(b)),
+                        None => format!("{n} {}", sig3(a)),
+                    })
                 })
-            })
-            .collect();
-        if !parts.is_empty() {
-            rows.push((
-                "resolution".into(),
-                format!(
-                    "points per wavelength (along the least-resolved axis) for {:.1}% phase error: {}",
-                    100.0 * d.tolerance,
-                    parts.join(", ")
-                ),
-            ));
-        }
-        let decay: Vec<String> = d
-            .names
-            .iter()
-            .zip(&d.resolution)
-            .filter_map(|(n, res)| {
-                let ppw = |q: &Option<Requirement>| q.as_ref().map(Requirement::ppw);
-                ppw(&res.decay).map(|a| match ppw(&res.decay_discrete) {
-                    Some(b) => format!("{n} {} ({} with time stepping)", sig3(a), sig3(b)),
-                    None => format!("{n} {}", sig3(a)),
-                })
-            })
-            .collect();
-        if !decay.is_empty() {
-            rows.push((
-                "diffusion".into(),
-                format!(
-                    "points per wavelength (along the least-resolved axis) for {:.1}% decay-rate error: {}",
-                    100.0 * d.tolerance,
-                    decay.join(", ")
-                ),
-            ));
+                .collect();
+            if !parts.is_empty() {
+                rows.push((
+                    label.into(),
+                    format!(
+                        "points per wavelength (along the least-resolved axis) for {:.1}% {quantity} error: {}",
+                        100.0 * d.tolerance,
+                        parts.join(", ")
+                    ),
+                ));
+            }
         }
         // the longest of the modes' shortest well-resolved wavelengths, with time stepping
         let longest = d
