@@ -59,3 +59,16 @@ out="$work/duct-acoustics-courant1.6"
     --set time.courant=1.6 --set 'scan.analyses=["radius"]'
 cp "$out/radius.png" docs/img/duct-acoustics-courant1.6-radius.png
 echo "docs/img: 1 picture of duct-acoustics at Courant 1.6"
+
+# filters (tutorial section 7): the duct with a compact filter once per step,
+# and the rotating lake's leapfrog with a Robert-Asselin time filter
+out="$work/duct-acoustics-filtered"
+"$kgain" run cases/duct-acoustics.toml --out "$out" --force --quiet \
+    --set 'space.filter={kind="compact", order=10, alpha=0.47}' \
+    --set 'scan.analyses=["radius", "limit"]'
+cp "$out/radius.png" docs/img/duct-acoustics-filtered-radius.png
+out="$work/lake-rotating-waves-ra"
+"$kgain" run cases/lake-rotating-waves.toml --out "$out" --force --quiet \
+    --set time.filter=robert-asselin --set time.filter_strength=0.1 \
+    --set 'scan.analyses=["radius", "limit"]'
+cp "$out/footprint.png" docs/img/lake-rotating-waves-ra-footprint.png

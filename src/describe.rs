@@ -279,5 +279,37 @@ pub fn list_methods() -> String {
     ] {
         let _ = writeln!(s, "  {n:<18}{d}");
     }
+    s.push_str(&list_filters());
+    s
+}
+
+/// The filters section of `kgain list methods`, with the leapfrog limits the
+/// time filters give on the imaginary axis at a typical strength.
+fn list_filters() -> String {
+    let mut s = String::from("filters (G = F(theta) G_step for a spatial filter; a time filter turns leapfrog into a two-step method)\n");
+    s.push_str("  [space.filter] kind = \"explicit\", order = 2..10 (even), strength = sigma in (0, 1]: T = 1 - sigma sin^order(theta/2)\n");
+    s.push_str("  [space.filter] kind = \"compact\", order = 2..10 (even), alpha = alpha_f in (-0.5, 0.5): Gaitonde & Visbal 2000\n");
+    for (tag, f) in [
+        (
+            "robert-asselin",
+            time::time_filter::TimeFilter::robert_asselin(0.1),
+        ),
+        ("raw", time::time_filter::TimeFilter::raw(0.1, 0.53)),
+    ] {
+        let Ok(f) = f else { continue };
+        let m = time::Method {
+            name: tag.into(),
+            order: 0,
+            explicit: true,
+            scheme: time::Scheme::Multistep(f.filtered_leapfrog()),
+        };
+        let _ = writeln!(
+            s,
+            "  time.filter = \"{tag}\" (leapfrog only), filter_strength = 0.1{}: order {}, imaginary-axis limit {}",
+            if tag == "raw" { ", filter_alpha = 0.53" } else { "" },
+            f.filtered_leapfrog().order(),
+            limit_text(m.imaginary_limit())
+        );
+    }
     s
 }

@@ -7,7 +7,9 @@ use super::raw::{OneOrMany, RawCase, RawScan};
 use crate::analysis::{DispersionParams, GrowthParams, LimitParams, Plan};
 use crate::error::{positive, InputError};
 use crate::physics::params::{Params, Value};
-use crate::problem::{ProblemBuilder, StencilChoice, TableauSpec, UserStencil};
+use crate::problem::{
+    FilterSpec, ProblemBuilder, StencilChoice, TableauSpec, TimeFilterSpec, UserStencil,
+};
 use std::path::Path;
 
 const ANALYSES: [&str; 4] = ["radius", "limit", "growth", "dispersion"];
@@ -65,6 +67,14 @@ pub(super) fn builder(raw: &RawCase, path: &Path) -> Result<ProblemBuilder, Inpu
     if let Some(a) = &sp.arrangement {
         b = b.arrangement(a);
     }
+    if let Some(f) = &sp.filter {
+        b = b.spatial_filter(FilterSpec {
+            kind: f.kind.clone(),
+            order: f.order,
+            strength: f.strength,
+            alpha: f.alpha,
+        });
+    }
     let t = &raw.time;
     b = b.method(&t.method);
     if let Some(th) = t.theta {
@@ -91,6 +101,13 @@ pub(super) fn builder(raw: &RawCase, path: &Path) -> Result<ProblemBuilder, Inpu
     }
     if let Some(s) = &t.splitting {
         b = b.splitting(s);
+    }
+    if t.filter.is_some() || t.filter_strength.is_some() || t.filter_alpha.is_some() {
+        b = b.time_filter(TimeFilterSpec {
+            kind: t.filter.clone(),
+            strength: t.filter_strength,
+            alpha: t.filter_alpha,
+        });
     }
     if let Some(dt) = t.dt {
         b = b.dt(dt);

@@ -53,6 +53,17 @@ pub struct RawSpace {
     pub arrangement: Option<String>,
     #[serde(default)]
     pub stencils: BTreeMap<String, RawStencil>,
+    pub filter: Option<RawFilter>,
+}
+
+/// `[space.filter]`: a spatial filter applied once per time step.
+#[derive(Debug, Clone, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct RawFilter {
+    pub kind: String,
+    pub order: i64,
+    pub strength: Option<f64>,
+    pub alpha: Option<f64>,
 }
 
 #[derive(Debug, Clone, Deserialize)]
@@ -84,6 +95,9 @@ pub struct RawTime {
     pub first: Option<Vec<String>>,
     pub sequence: Option<Vec<String>>,
     pub splitting: Option<String>,
+    pub filter: Option<String>,
+    pub filter_strength: Option<f64>,
+    pub filter_alpha: Option<f64>,
 }
 
 #[derive(Debug, Clone, Deserialize)]

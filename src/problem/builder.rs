@@ -6,7 +6,9 @@
 //! time method, the time step and finally that the operator can be assembled;
 //! the first failure is returned as an [`InputError`] naming its key.
 
-use super::spec::{MethodSpec, ModelChoice, StencilChoice, TableauSpec, UserStencil};
+use super::spec::{
+    FilterSpec, MethodSpec, ModelChoice, StencilChoice, TableauSpec, TimeFilterSpec, UserStencil,
+};
 use super::{method, space, Problem, Step};
 use crate::error::{positive, InputError};
 use crate::operator::{Arrangement, Operator, OperatorError};
@@ -150,6 +152,18 @@ impl ProblemBuilder {
     /// Dimension splitting: "none", "lie" or "strang".
     pub fn splitting(mut self, name: &str) -> Self {
         self.method.splitting = Some(name.to_string());
+        self
+    }
+
+    /// A spatial filter applied once per time step (`[space.filter]`).
+    pub fn spatial_filter(mut self, filter: FilterSpec) -> Self {
+        self.method.filter = Some(filter);
+        self
+    }
+
+    /// A time filter for leapfrog (`time.filter`).
+    pub fn time_filter(mut self, filter: TimeFilterSpec) -> Self {
+        self.method.time_filter = Some(filter);
         self
     }
 

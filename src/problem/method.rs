@@ -1,13 +1,16 @@
 //! The time method from its name and options: built-in one-step and multistep
 //! methods, θ-methods, Butcher tableaux, the composite schemes (forward–backward,
 //! IMEX, Lax–Wendroff, Lax–Friedrichs) and dimension splitting of a one-step
-//! method.
+//! method; then the filters: a time filter turns leapfrog into its filtered
+//! multistep equivalent, a spatial filter wraps a one-level scheme.
 
-use super::spec::MethodSpec;
+use super::spec::{FilterSpec, MethodSpec, TimeFilterSpec};
 use crate::error::InputError;
 use crate::operator::Space;
 use crate::physics::System;
+use crate::stencil::filter::SpatialFilter;
 use crate::time::composite::{Composite, Imex, Splitting};
+use crate::time::time_filter::TimeFilter;
 use crate::time::{self, Method, Scheme};
 
 const COMPOSITE_METHODS: [&str; 5] = [
@@ -22,8 +25,151 @@ fn only_with(key: &str, method: &str) -> InputError {
     InputError::new(key, format!("is only used with method = \"{method}\""))
 }
 
-/// Resolves the method of `spec` for a system and spatial scheme.
+/// Resolves the method of `spec` for a system and spatial scheme, filters
+/// included.
 pub(super) fn method(spec: &MethodSpec, sys: &System, space: &Space) -> Result<Method, InputError> {
+    let mut m = unfiltered(spec, sys, space)?;
+    if let Some(tf) = &spec.time_filter {
+        m = time_filtered(m, tf)?;
+    }
+    if let Some(f) = &spec.filter {
+        m = spatially_filtered(m, f)?;
+    }
+    Ok(m)
+}
+
+/// Leapfrog with a Robert–Asselin or RAW filter, as its multistep equivalent.
+fn time_filtered(base: Method, spec: &TimeFilterSpec) -> Result<Method, InputError> {
+    let kinds = ["robert-asselin", "raw"];
+    let Some(kind) = spec.kind.as_deref() else {
+        return Err(InputError::new(
+            "time.filter",
+            "is required when time.filter_strength or time.filter_alpha is given",
+        )
+        .hint("filter = \"robert-asselin\" or \"raw\""));
+    };
+    if !kinds.contains(&kind) {
+        return Err(InputError::unknown(
+            "time.filter",
+            "time filter",
+            kind,
+            &kinds,
+        ));
+    }
+    if base.name != "leapfrog" {
+        return Err(InputError::new(
+            "time.filter",
+            format!(
+                "time filters act on leapfrog's computational mode; method '{}' has none",
+                base.name
+            ),
+        )
+        .hint("use method = \"leapfrog\", or a spatial filter ([space.filter])"));
+    }
+    let strength = spec.strength.ok_or_else(|| {
+        InputError::new("time.filter_strength", "is required with time.filter")
+            .hint("e.g. filter_strength = 0.1")
+    })?;
+    let filter = if kind == "raw" {
+        TimeFilter::raw(strength, spec.alpha.unwrap_or(0.53))
+    } else {
+        if spec.alpha.is_some() {
+            return Err(only_with(
+                "time.filter_alpha",
+                "leapfrog\" and filter = \"raw",
+            ));
+        }
+        TimeFilter::robert_asselin(strength)
+    }
+    .map_err(|e| {
+        let key = match e {
+            time::time_filter::TimeFilterError::Alpha(_) => "time.filter_alpha",
+            time::time_filter::TimeFilterError::Strength(_) => "time.filter_strength",
+        };
+        InputError::new(key, e.to_string())
+    })?;
+    let ms = filter.filtered_leapfrog();
+    Ok(Method {
+        name: format!("{}+{}", base.name, filter.tag_with_parameters()),
+        order: ms.order(),
+        explicit: true,
+        scheme: Scheme::Multistep(ms),
+    })
+}
+
+/// A one-level scheme followed by a spatial filter once per step.
+fn spatially_filtered(base: Method, spec: &FilterSpec) -> Result<Method, InputError> {
+    let kinds = ["explicit", "compact"];
+    let filter = match spec.kind.as_str() {
+        "explicit" => {
+            if spec.alpha.is_some() {
+                return Err(InputError::new(
+                    "space.filter.alpha",
+                    "is only used with kind = \"compact\"",
+                ));
+            }
+            let s = spec.strength.ok_or_else(|| {
+                InputError::new(
+                    "space.filter.strength",
+                    "is required with kind = \"explicit\"",
+                )
+                .hint("e.g. strength = 0.2 (1 removes the two-cell wave each step)")
+            })?;
+            SpatialFilter::explicit(spec.order, s)
+        }
+        "compact" => {
+            if spec.strength.is_some() {
+                return Err(InputError::new(
+                    "space.filter.strength",
+                    "is only used with kind = \"explicit\"",
+                ));
+            }
+            let a = spec.alpha.ok_or_else(|| {
+                InputError::new("space.filter.alpha", "is required with kind = \"compact\"")
+                    .hint("e.g. alpha = 0.45")
+            })?;
+            SpatialFilter::compact(spec.order, a)
+        }
+        other => {
+            return Err(InputError::unknown(
+                "space.filter.kind",
+                "filter kind",
+                other,
+                &kinds,
+            ))
+        }
+    }
+    .map_err(|e| {
+        let key = match e {
+            crate::stencil::filter::FilterError::Order(_) => "space.filter.order",
+            crate::stencil::filter::FilterError::Strength(_) => "space.filter.strength",
+            crate::stencil::filter::FilterError::Alpha(_) => "space.filter.alpha",
+        };
+        InputError::new(key, e.to_string())
+    })?;
+    if base.levels() > 1 {
+        return Err(InputError::new(
+            "space.filter",
+            format!(
+                "a spatial filter is applied after one-level steps; '{}' carries {} time levels",
+                base.name,
+                base.levels()
+            ),
+        )
+        .hint("use a Runge-Kutta or theta method, or a time filter for leapfrog (time.filter)"));
+    }
+    Ok(Method {
+        name: format!("{}+filter", base.name),
+        order: base.order,
+        explicit: base.explicit,
+        scheme: Scheme::Composite(Composite::Filtered {
+            filter,
+            inner: Box::new(base),
+        }),
+    })
+}
+
+fn unfiltered(spec: &MethodSpec, sys: &System, space: &Space) -> Result<Method, InputError> {
     let name = spec.name.as_deref().ok_or_else(|| {
         InputError::new("time.method", "is required").hint("e.g. method = \"rk4\"")
     })?;

@@ -30,7 +30,7 @@ mod spec;
 
 pub use crate::error::InputError;
 pub use builder::ProblemBuilder;
-pub use spec::{ModelChoice, StencilChoice, TableauSpec, UserStencil};
+pub use spec::{FilterSpec, ModelChoice, StencilChoice, TableauSpec, TimeFilterSpec, UserStencil};
 
 use crate::operator::{Operator, Space};
 use crate::physics::System;

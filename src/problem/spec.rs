@@ -52,10 +52,37 @@ pub struct TableauSpec {
     pub c: Option<Vec<f64>>,
 }
 
+/// A spatial filter as given (`[space.filter]`).
+#[derive(Debug, Clone)]
+pub struct FilterSpec {
+    /// "explicit" or "compact".
+    pub kind: String,
+    /// Even order 2..10.
+    pub order: i64,
+    /// σ of the explicit filter.
+    pub strength: Option<f64>,
+    /// α_f of the compact filter.
+    pub alpha: Option<f64>,
+}
+
+/// A leapfrog time filter as given (`time.filter`, `time.filter_strength`,
+/// `time.filter_alpha`).
+#[derive(Debug, Clone, Default)]
+pub struct TimeFilterSpec {
+    /// "robert-asselin" or "raw".
+    pub kind: Option<String>,
+    /// The displacement strength γ.
+    pub strength: Option<f64>,
+    /// The RAW weight a.
+    pub alpha: Option<f64>,
+}
+
 /// The time method as given.
 #[derive(Debug, Clone, Default)]
 pub(super) struct MethodSpec {
     pub name: Option<String>,
+    pub filter: Option<FilterSpec>,
+    pub time_filter: Option<TimeFilterSpec>,
     pub theta: Option<f64>,
     pub tableau: Option<TableauSpec>,
     pub first: Option<Vec<String>>,

@@ -24,6 +24,7 @@ pub fn summary_json(problem: &Problem, r: &Results) -> Value {
         "variables": problem.system.variables,
         "model": problem.system.kind.name(),
         "method": problem.method.name,
+        "spatial_filter": problem.method.spatial_filter().map(|f| f.label()),
         "stencils": {
             "first": problem.space.first.iter().map(|s| s.name.clone()).collect::<Vec<_>>(),
             "second": problem.space.second.iter().map(|s| s.name.clone()).collect::<Vec<_>>(),

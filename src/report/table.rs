@@ -27,9 +27,14 @@ pub fn human_summary(problem: &Problem, r: &Results, out: Option<&std::path::Pat
     let mut rows: Vec<(String, String)> = vec![(
         "scheme".into(),
         format!(
-            "{} in space, {} in time",
+            "{} in space, {} in time{}",
             names.join("/"),
-            problem.method.name
+            problem.method.name,
+            problem
+                .method
+                .spatial_filter()
+                .map(|f| format!(", {} once per step", f.label()))
+                .unwrap_or_default()
         ),
     )];
     let courant = r

@@ -12,6 +12,7 @@
 //! left; the order is the first n where they differ, minus d.
 
 pub mod catalogue;
+pub mod filter;
 
 use num_complex::Complex64 as C64;
 

@@ -20,10 +20,14 @@
 //!   products of central differences for the cross derivatives). Diffusion and
 //!   source terms, if any, are added explicitly (forward Euler) with the case's
 //!   second-derivative stencil.
+//! * a spatial filter applied once per step after a one-level scheme (a one-step
+//!   method or any of the above but CNAB2): G = F(θ)·G_step with the filter's
+//!   scalar transfer function F(θ) = Π_d T(θ_d) ([`crate::stencil::filter`]).
 
 use super::Method;
 use crate::operator::Operator;
 use crate::physics::System;
+use crate::stencil::filter::SpatialFilter;
 use nalgebra::DMatrix;
 use num_complex::Complex64 as C64;
 
@@ -66,6 +70,13 @@ pub enum Composite {
     LaxWendroff,
     /// Lax–Friedrichs.
     LaxFriedrichs,
+    /// A one-level scheme followed by a spatial filter.
+    Filtered {
+        /// The filter applied after each step.
+        filter: SpatialFilter,
+        /// The step (a one-step method or a one-level composite scheme).
+        inner: Box<Method>,
+    },
 }
 
 impl Composite {
@@ -94,6 +105,13 @@ impl Composite {
             Composite::Imex(Imex::Cnab2) => "IMEX Crank-Nicolson/Adams-Bashforth 2".into(),
             Composite::LaxWendroff => "Lax-Wendroff (two-level, unsplit)".into(),
             Composite::LaxFriedrichs => "Lax-Friedrichs (two-level)".into(),
+            Composite::Filtered { filter, inner } => {
+                let step = match inner.composite() {
+                    Some(c) => c.description(),
+                    None => inner.name.clone(),
+                };
+                format!("{step}, then a {} once per step", filter.label())
+            }
         }
     }
 }

@@ -9,6 +9,8 @@
 //! * IMEX Euler: (I − ΔtL_I)⁻¹ Δt(L_E + L_I);
 //! * Lax–Friedrichs: the mean of cos θ_d minus 1 is −(2/d) Σ sin²(θ_d/2);
 //! * Lax–Wendroff: the Taylor terms without the leading I.
+//! * a filtered step F·(I + E) with F = 1 − s: F(I + E) − I = E − s(I + E), with
+//!   the damping s = 1 − F(θ) formed directly by the filter.
 //!
 //! CNAB2 carries two time levels; its companion matrix is [`cnab2`]. Its
 //! eigenvalues are 1 + e with e²x = A₀x + eA₁x, A₀ = P⁻¹ΔtL (small) and
@@ -124,6 +126,14 @@ pub fn increment(
             solve(&id - &li * dtc, &(&l * dtc))
         }
         Composite::Imex(Imex::Cnab2) => return None,
+        Composite::Filtered { filter, inner } => {
+            let e = match inner.composite() {
+                Some(ic) => increment(ic, sys, op, h, theta, dt)?,
+                None => one_step_increment(inner, &(op.symbol_matrix(theta) * dtc)),
+            };
+            let s = filter.damping_nd(theta);
+            &e - (&id + &e) * C64::new(s, 0.0)
+        }
         Composite::LaxWendroff | Composite::LaxFriedrichs => {
             let dims = h.len();
             let a: Vec<DMatrix<C64>> = (0..dims)

@@ -19,6 +19,7 @@ pub mod lowstorage;
 pub mod methods;
 pub mod order;
 pub mod presets;
+pub mod time_filter;
 
 use nalgebra::DMatrix;
 use num_complex::Complex64 as C64;
@@ -74,6 +75,14 @@ impl Method {
             Scheme::OneStep(_) => 1,
             Scheme::Multistep(ms) => ms.alpha.len() - 1,
             Scheme::Composite(c) => c.levels(),
+        }
+    }
+
+    /// The spatial filter applied once per step, if any.
+    pub fn spatial_filter(&self) -> Option<&crate::stencil::filter::SpatialFilter> {
+        match &self.scheme {
+            Scheme::Composite(composite::Composite::Filtered { filter, .. }) => Some(filter),
+            _ => None,
         }
     }
 
@@ -212,6 +221,30 @@ impl OneStep {
 }
 
 impl Multistep {
+    /// Order of accuracy from the error constants C_q = Σ α_j j^q/q! −
+    /// Σ β_j j^{q−1}/(q−1)!: the largest p with C_0 = … = C_p = 0 (to 1e-12
+    /// relative to the coefficients), up to 10.
+    pub fn order(&self) -> u32 {
+        let scale: f64 = self.alpha.iter().chain(&self.beta).map(|c| c.abs()).sum();
+        let constant = |q: i32| {
+            let fact = |n: i32| (1..=n).fold(1.0, |a, k| a * f64::from(k));
+            let mut c = 0.0;
+            for (j, (a, b)) in self.alpha.iter().zip(&self.beta).enumerate() {
+                let j = j as f64;
+                c += a * j.powi(q) / fact(q);
+                if q >= 1 {
+                    c -= b * j.powi(q - 1) / fact(q - 1);
+                }
+            }
+            c
+        };
+        let zero = |q: i32| constant(q).abs() <= 1e-12 * scale.max(1.0);
+        if !zero(0) {
+            return 0;
+        }
+        (1..=10).take_while(|q| zero(*q)).count() as u32
+    }
+
     /// Coefficients of the characteristic polynomial Σ_j (α_j − z β_j) ζ^j.
     pub fn characteristic(&self, z: C64) -> Vec<C64> {
         self.alpha

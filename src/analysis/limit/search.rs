@@ -62,12 +62,13 @@ impl<'a> CompositeEval<'a> {
 
     /// Whether G(θ, Δt) = I + ΔtL(θ) + O(Δt²) with the case's L (every composite
     /// scheme but Lax–Wendroff and Lax–Friedrichs, which build G from the flux
-    /// matrices with their own differences): then an eigenvalue of L with a
-    /// positive real part is unstable at every small Δt.
+    /// matrices with their own differences, and a filtered step, whose G tends to
+    /// F(θ)·I): then an eigenvalue of L with a positive real part is unstable at
+    /// every small Δt.
     pub fn tends_to_identity(&self) -> bool {
         !matches!(
             self.scheme,
-            Composite::LaxWendroff | Composite::LaxFriedrichs
+            Composite::LaxWendroff | Composite::LaxFriedrichs | Composite::Filtered { .. }
         )
     }
 

@@ -176,6 +176,9 @@ fn scheme_line(problem: &Problem, dt: f64) -> String {
         format!("{} in time", problem.method.name),
         format!("{} in space", names.join(" / ")),
     ];
+    if let Some(f) = problem.method.spatial_filter() {
+        parts.push(f.label());
+    }
     if let Some(d) = &problem.space.dissipation {
         parts.push(format!(
             "dissipation p = {}, σ = {}",
