@@ -140,10 +140,65 @@ pub fn euler(density: f64, velocity: &[f64], pressure: f64, gamma: f64) -> Syste
 
 pub(super) fn euler_from(r: &mut Reader, dims: usize) -> Result<System, InputError> {
     let rho = r.positive("density")?;
-    let u = r.per_axis("velocity", dims)?.unwrap_or(vec![0.0; dims]);
+    let velocity = r.per_axis("velocity", dims)?;
     let p = r.positive("pressure")?;
     let g = r.positive_or("gamma", 1.4)?;
+    let mach = r.number("mach")?;
+    let angle = r.number("flow_angle_deg")?;
+    let u = match (velocity, mach) {
+        (Some(_), Some(_)) => {
+            return Err(r
+                .error("mach", "give model.velocity or model.mach, not both")
+                .hint("mach (with flow_angle_deg) sets the velocity from the sound speed"))
+        }
+        (Some(u), None) => {
+            if angle.is_some() {
+                return Err(r.error("flow_angle_deg", "is only used with model.mach"));
+            }
+            u
+        }
+        (None, Some(m)) => mach_velocity(m, angle.unwrap_or(0.0), (g * p / rho).sqrt(), dims)
+            .map_err(|(key, why)| r.error(key, why))?,
+        (None, None) => {
+            if angle.is_some() {
+                return Err(r.error("flow_angle_deg", "is only used with model.mach"));
+            }
+            vec![0.0; dims]
+        }
+    };
     Ok(euler(rho, &u, p, g))
+}
+
+/// The mean velocity of Mach number `mach` at `angle_deg` from the x axis
+/// (towards y; 1-D: along x, angle 0 or 180), sound speed `c`.
+fn mach_velocity(
+    mach: f64,
+    angle_deg: f64,
+    c: f64,
+    dims: usize,
+) -> Result<Vec<f64>, (&'static str, String)> {
+    if !(mach.is_finite() && mach >= 0.0) {
+        return Err(("mach", format!("must be a finite number >= 0, got {mach}")));
+    }
+    if !angle_deg.is_finite() {
+        return Err(("flow_angle_deg", "must be a finite number of degrees".into()));
+    }
+    let a = angle_deg.to_radians();
+    let mut u = vec![0.0; dims];
+    if dims == 1 {
+        let (s, c1) = a.sin_cos();
+        if s.abs() > 1e-12 {
+            return Err((
+                "flow_angle_deg",
+                "a 1-D flow runs along x: give 0 or 180".into(),
+            ));
+        }
+        u[0] = mach * c * c1.signum();
+    } else {
+        u[0] = mach * c * a.cos();
+        u[1] = mach * c * a.sin();
+    }
+    Ok(u)
 }
 
 /// Linear shallow water about depth H and mean flow U with Coriolis parameter f:

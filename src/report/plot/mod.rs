@@ -36,6 +36,7 @@ mod nonnormal;
 mod polar;
 pub mod radius;
 mod style;
+pub mod sweep_chart;
 
 use super::ReportError;
 use crate::analysis::Results;
