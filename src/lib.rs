@@ -47,6 +47,7 @@ pub mod problem;
 pub mod report;
 pub mod sample;
 pub mod stencil;
+pub mod study;
 pub mod time;
 
 pub use analysis::{analyse, LimitParams, Plan, Results};

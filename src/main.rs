@@ -67,6 +67,53 @@ enum Command {
         #[arg(long = "set", value_name = "KEY=VALUE")]
         set: Vec<String>,
     },
+    /// Sweep case keys over values (a Cartesian product) and record summary
+    /// figures per combination as NPY arrays, a CSV table and charts.
+    Sweep {
+        /// The case file (TOML).
+        case: PathBuf,
+        /// A varied key: KEY=v1,v2,... or KEY=start:stop:count; KEY may end in [i]
+        /// for element i of an array (repeatable; the product of all is run).
+        #[arg(long, value_name = "KEY=VALUES", required = true)]
+        vary: Vec<String>,
+        /// Summary keys recorded per combination, comma separated (default:
+        /// limit.courant_max,limit.dt_max,radius.max,growth.max_norm,limit.physical_direction_deg).
+        #[arg(long, value_name = "KEYS")]
+        figures: Option<String>,
+        /// Override a key for every combination (repeatable).
+        #[arg(long = "set", value_name = "KEY=VALUE")]
+        set: Vec<String>,
+        /// Run only the I-th of N slices and write a shard folder for `kgain merge`.
+        #[arg(long, value_name = "I/N")]
+        shard: Option<String>,
+        /// Output folder.
+        #[arg(long)]
+        out: PathBuf,
+        /// Worker threads (default: one per core).
+        #[arg(long)]
+        threads: Option<usize>,
+        /// Print nothing on success, show no progress.
+        #[arg(long)]
+        quiet: bool,
+        /// Replace a kgain output folder of another case.
+        #[arg(long)]
+        force: bool,
+    },
+    /// Merge the shard folders of one sweep into the whole sweep's output.
+    Merge {
+        /// The shard folders (every shard of the sweep, any order).
+        #[arg(required = true)]
+        shards: Vec<PathBuf>,
+        /// Output folder.
+        #[arg(long)]
+        out: PathBuf,
+        /// Print nothing on success.
+        #[arg(long)]
+        quiet: bool,
+        /// Replace a kgain output folder of another case.
+        #[arg(long)]
+        force: bool,
+    },
     /// List built-in models, stencils and time methods.
     List {
         /// What to list (default: everything).
@@ -132,6 +179,14 @@ fn destination(e: DestinationError) -> Failure {
     }
 }
 
+fn failed(f: cli::sweep::Failed) -> Failure {
+    if f.input {
+        Failure::Input(f.message)
+    } else {
+        Failure::Other(f.message)
+    }
+}
+
 /// Writes to stdout; a closed pipe is a normal end.
 fn emit(text: &str) {
     let mut out = std::io::stdout().lock();
@@ -154,6 +209,56 @@ fn run(cli: Cli) -> Result<(), Failure> {
                 ),
             };
             emit(&text);
+            Ok(())
+        }
+        Command::Sweep {
+            case,
+            vary,
+            figures,
+            set,
+            shard,
+            out,
+            threads,
+            quiet,
+            force,
+        } => {
+            let threads = match threads {
+                Some(0) => return Err(Failure::Input("--threads must be at least 1".into())),
+                Some(n) if n > MAX_THREADS => {
+                    return Err(Failure::Input(format!(
+                        "--threads {n}: at most {MAX_THREADS} worker threads"
+                    )))
+                }
+                Some(n) => n,
+                None => 0,
+            };
+            let text = cli::sweep::sweep(cli::sweep::SweepArgs {
+                case,
+                vary,
+                figures,
+                set,
+                shard,
+                out,
+                threads,
+                quiet,
+                force,
+            })
+            .map_err(failed)?;
+            if !quiet {
+                emit(&text);
+            }
+            Ok(())
+        }
+        Command::Merge {
+            shards,
+            out,
+            quiet,
+            force,
+        } => {
+            let text = cli::sweep::merge(&shards, &out, force).map_err(failed)?;
+            if !quiet {
+                emit(&text);
+            }
             Ok(())
         }
         Command::Check { case, set } => {

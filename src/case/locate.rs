@@ -149,6 +149,28 @@ pub fn apply_overrides(text: &str, file: &str, overrides: &[String]) -> Result<S
         let table = item
             .as_table_like_mut()
             .ok_or_else(|| bad("the parent of the key is not a table"))?;
+        if let Some((name, index)) = element(last) {
+            // KEY[i]=VALUE: element i of an existing array
+            let index = index.ok_or_else(|| {
+                bad("the index in KEY[i] must be a number, e.g. model.velocity[0]")
+            })?;
+            let array = table
+                .get_mut(name)
+                .and_then(|i| i.as_array_mut())
+                .ok_or_else(|| {
+                    bad(&format!(
+                        "`{name}` is not an array in the case file, so it has no element {index}"
+                    ))
+                })?;
+            if index >= array.len() {
+                return Err(bad(&format!(
+                    "`{name}` has {} element(s); indices start at 0",
+                    array.len()
+                )));
+            }
+            array.replace(index, value);
+            continue;
+        }
         table.insert(last, Item::Value(value));
         if parts.len() == 2 && parts[0] == "time" {
             let other = match last {
@@ -162,6 +184,13 @@ pub fn apply_overrides(text: &str, file: &str, overrides: &[String]) -> Result<S
         }
     }
     Ok(doc.to_string())
+}
+
+/// `name[i]`: the array name and the index (None when it is not a number).
+fn element(part: &str) -> Option<(&str, Option<usize>)> {
+    let (name, rest) = part.split_once('[')?;
+    let index = rest.strip_suffix(']').and_then(|i| i.trim().parse().ok());
+    Some((name, index))
 }
 
 #[cfg(test)]
@@ -189,6 +218,20 @@ mod tests {
             key_at(t, t.find("1.2").unwrap()).as_deref(),
             Some("time.courant")
         );
+    }
+
+    #[test]
+    fn override_sets_one_array_element() {
+        let t = "[model]\nvelocity = [1.0, 2.0]\n";
+        let out = apply_overrides(t, "f", &["model.velocity[1]=0.5".into()]).unwrap();
+        assert!(out.contains("velocity = [1.0, 0.5]"), "{out}");
+        for bad in [
+            "model.velocity[2]=1",
+            "model.velocity[x]=1",
+            "model.speed[0]=1",
+        ] {
+            assert!(apply_overrides(t, "f", &[bad.into()]).is_err(), "{bad}");
+        }
     }
 
     #[test]

@@ -14,6 +14,9 @@ mod rational;
 mod raw;
 mod read;
 
+pub use locate::apply_overrides;
+pub use read::case_text;
+
 pub use read::MAX_BYTES;
 
 use crate::analysis::Plan;

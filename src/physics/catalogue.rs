@@ -57,7 +57,14 @@ const ENTRIES: &[Entry] = &[
         kind: ModelKind::Euler,
         name: "euler",
         summary: "linearised Euler equations, primitive variables (rho, u[, v, w], p)",
-        keys: &["density", "velocity", "pressure", "gamma", "mach", "flow_angle_deg"],
+        keys: &[
+            "density",
+            "velocity",
+            "pressure",
+            "gamma",
+            "mach",
+            "flow_angle_deg",
+        ],
         build: super::fluids::euler_from,
     },
     Entry {

@@ -181,7 +181,10 @@ fn mach_velocity(
         return Err(("mach", format!("must be a finite number >= 0, got {mach}")));
     }
     if !angle_deg.is_finite() {
-        return Err(("flow_angle_deg", "must be a finite number of degrees".into()));
+        return Err((
+            "flow_angle_deg",
+            "must be a finite number of degrees".into(),
+        ));
     }
     let a = angle_deg.to_radians();
     let mut u = vec![0.0; dims];

@@ -163,8 +163,27 @@ fn render(path: &Path, font: &'static FontRef<'static>, f: impl FnOnce(&Area) ->
     Ok(())
 }
 
+/// The scheme in words without the time step (model, method, stencils,
+/// filter, dissipation): the subtitle of sweep charts, whose Δt varies.
+pub fn scheme_subtitle(problem: &Problem) -> String {
+    scheme_parts(problem).join("  ·  ")
+}
+
 /// The scheme in words, for the second title line.
 fn scheme_line(problem: &Problem, dt: f64) -> String {
+    let mut parts = scheme_parts(problem);
+    let mut step = format!("Δt = {}", style::num(dt, 4));
+    if let Some(nu) = problem.courant_of(dt) {
+        step.push_str(&format!(", ν = {}", style::num(nu, 4)));
+    }
+    if let Some(r) = problem.diffusion_number_of(dt) {
+        step.push_str(&format!(", r = {}", style::num(r, 4)));
+    }
+    parts.push(step);
+    parts.join("  ·  ")
+}
+
+fn scheme_parts(problem: &Problem) -> Vec<String> {
     let mut names: Vec<&str> = problem
         .space
         .first
@@ -187,15 +206,7 @@ fn scheme_line(problem: &Problem, dt: f64) -> String {
             style::num(d.strength, 3)
         ));
     }
-    let mut step = format!("Δt = {}", style::num(dt, 4));
-    if let Some(nu) = problem.courant_of(dt) {
-        step.push_str(&format!(", ν = {}", style::num(nu, 4)));
-    }
-    if let Some(r) = problem.diffusion_number_of(dt) {
-        step.push_str(&format!(", r = {}", style::num(r, 4)));
-    }
-    parts.push(step);
-    parts.join("  ·  ")
+    parts
 }
 
 /// The title band: the case name and what the picture shows, then the scheme.
