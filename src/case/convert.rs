@@ -92,6 +92,12 @@ pub(super) fn builder(raw: &RawCase, path: &Path) -> Result<ProblemBuilder, Inpu
     if let Some(s) = &t.splitting {
         b = b.splitting(s);
     }
+    if let Some(beta) = t.beta {
+        b = b.newmark_beta(beta);
+    }
+    if let Some(gamma) = t.gamma {
+        b = b.newmark_gamma(gamma);
+    }
     if let Some(dt) = t.dt {
         b = b.dt(dt);
     }

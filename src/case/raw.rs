@@ -84,6 +84,8 @@ pub struct RawTime {
     pub first: Option<Vec<String>>,
     pub sequence: Option<Vec<String>>,
     pub splitting: Option<String>,
+    pub beta: Option<f64>,
+    pub gamma: Option<f64>,
 }
 
 #[derive(Debug, Clone, Deserialize)]
