@@ -22,6 +22,17 @@ fn limit_text(x: f64) -> String {
     }
 }
 
+/// The stable stretch of the negative real axis of z = dt^2 mu, in words.
+fn real_axis_text(x: f64) -> String {
+    if x.is_infinite() {
+        "stable for every dt^2 mu <= 0 (the whole negative real axis)".into()
+    } else if x == 0.0 {
+        "unstable on the negative real axis".into()
+    } else {
+        format!("stable for dt^2 mu in [-{x:.10}, 0]")
+    }
+}
+
 /// The assembled problem of a case, as `kgain check` prints it.
 pub fn check(c: &Case) -> String {
     let case = &c.problem;
@@ -49,7 +60,9 @@ pub fn check(c: &Case) -> String {
         let _ = writeln!(s, "diffusivity   D_max = {d:.6e}");
     }
     let _ = writeln!(s, "stencils");
-    for (d, st) in case.space.first.iter().enumerate() {
+    let wave = case.system.kind == crate::physics::ModelKind::Wave;
+    // the wave model has no first-derivative term (K_d = c_d^2 on the second)
+    for (d, st) in case.space.first.iter().enumerate().filter(|_| !wave) {
         let kind = if st.is_central() {
             "central"
         } else {
@@ -61,7 +74,8 @@ pub fn check(c: &Case) -> String {
             st.name, st.order, st.offsets
         );
     }
-    if case.system.diffusivity_max.is_some() {
+    if case.system.diffusivity_max.is_some() || case.system.kind == crate::physics::ModelKind::Wave
+    {
         for (d, st) in case.space.second.iter().enumerate() {
             let _ = writeln!(s, "  second axis {d}: {} (order {})", st.name, st.order);
         }
@@ -82,6 +96,16 @@ pub fn check(c: &Case) -> String {
             c.description(),
             m.order,
             m.levels()
+        );
+    } else if m.is_second_order() {
+        let _ = writeln!(
+            s,
+            "time method   {} (order {}, {}, second order in time, {} levels (u^n, u^(n-1)); {})",
+            m.name,
+            m.order,
+            if m.explicit { "explicit" } else { "implicit" },
+            m.levels(),
+            real_axis_text(m.real_limit())
         );
     } else {
         let _ = writeln!(
@@ -124,7 +148,14 @@ pub fn check(c: &Case) -> String {
     let ev: Vec<String> = eig.iter().map(|z| fmt_c(*z)).collect();
     let _ = writeln!(s, "  eigenvalues: {}", ev.join(", "));
     let (directions, tol) = settings(&c.plan);
-    let _ = writeln!(s, "{}", resolution_line(case, &op, directions, tol));
+    if case.method.is_second_order() {
+        let _ = writeln!(
+            s,
+            "resolution    not computed: the dispersion analysis does not cover second-order-in-time methods"
+        );
+    } else {
+        let _ = writeln!(s, "{}", resolution_line(case, &op, directions, tol));
+    }
     let _ = writeln!(
         s,
         "scan          points {:?}, {} directions, tolerance {:e}",
@@ -268,6 +299,7 @@ pub fn list_methods() -> String {
     }
     s.push_str("  tableau: any Butcher tableau (time.tableau = { a = [[..]], b = [..] }; entries may be fractions in quotes, \"1/6\")\n");
     s.push_str("  low-storage: any 2N scheme by its coefficients (time.low_storage = { a = [..], b = [..] })\n");
+    s.push_str(&second_order_methods());
     s.push_str("composite schemes (limit by a verified search on dt)\n");
     for (n, d) in [
         ("forward-backward", "variables updated in order (time.first or time.sequence), each with the newest values; the Yee leapfrog"),
@@ -309,6 +341,41 @@ fn list_filters() -> String {
             if tag == "raw" { ", filter_alpha = 0.53" } else { "" },
             f.filtered_leapfrog().order(),
             limit_text(m.imaginary_limit())
+        );
+    }
+    s
+}
+
+/// The second-order-in-time methods of `kgain list methods`, with their limit
+/// on the negative real axis of z = dt^2 mu, computed from each region.
+fn second_order_methods() -> String {
+    let mut s = String::from(
+        "second-order-in-time methods (u_tt = L u, model wave only; limit in z = dt^2 mu on the negative real axis)\n",
+    );
+    for (label, m, note) in [
+        (
+            "central-difference",
+            time::second_order::central_difference(),
+            "u^(n+1) - 2u^n + u^(n-1) = dt^2 L u^n",
+        ),
+        (
+            "newmark",
+            time::second_order::newmark(
+                time::second_order::DEFAULT_BETA,
+                time::second_order::DEFAULT_GAMMA,
+            )
+            .expect("the default Newmark parameters are valid"),
+            "Newmark family, time.beta (default 1/4) and time.gamma (default 1/2); shown at the defaults",
+        ),
+    ] {
+        let _ = writeln!(
+            s,
+            "  {:<20}order {}, {:<9} {}; {}",
+            label,
+            m.order,
+            if m.explicit { "explicit," } else { "implicit," },
+            real_axis_text(m.real_limit()),
+            note
         );
     }
     s

@@ -33,6 +33,9 @@ pub(super) fn cautions(problem: &Problem, r: &Results) -> Vec<String> {
             }
         }
     }
+    if problem.method.is_second_order() {
+        c.extend(second_order_cautions(problem, r));
+    }
     if let Some(rad) = &r.radius {
         if !rad.stable {
             c.push(format!(
@@ -40,6 +43,18 @@ pub(super) fn cautions(problem: &Problem, r: &Results) -> Vec<String> {
                 rad.max
             ));
         }
+    }
+    c
+}
+
+/// What the analyses mean for a second-order-in-time method (u_tt = L u).
+fn second_order_cautions(problem: &Problem, r: &Results) -> Vec<String> {
+    let mut c = vec![format!(
+        "second order in time: the {} method is analysed as a two-step recurrence in z = dt^2 mu; dispersion is not computed for it",
+        problem.method.name
+    )];
+    if r.growth.is_some() {
+        c.push("growth of a second-order-in-time method is measured on the stacked levels (u^n, u^(n-1)); at theta = 0 (L = 0) the equation u_tt = 0 itself has the solution a + b t, so ||G^n|| grows linearly in n there for every dt, as the exact solution does: a 'weakly unstable' growth verdict set at theta = 0 is that mode, not a defect of the scheme".to_string());
     }
     c
 }

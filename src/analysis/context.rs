@@ -63,7 +63,8 @@ impl<'a> Context<'a> {
     }
 }
 
-/// G(θ, Δt) of a problem's method, given its operator.
+/// G(θ, Δt) of a problem's method, given its operator (for second-order-in-time
+/// methods the companion matrix of Z = Δt²·L on the stacked levels (u^n, u^{n−1})).
 pub fn amplification_at(problem: &Problem, op: &Operator, theta: &[f64], dt: f64) -> DMatrix<C64> {
     match problem.method.composite() {
         Some(c) => crate::time::composite::amplification(
@@ -74,8 +75,8 @@ pub fn amplification_at(problem: &Problem, op: &Operator, theta: &[f64], dt: f64
             theta,
             dt,
         ),
-        None => problem
-            .method
-            .amplification_matrix(&(op.symbol_matrix(theta) * C64::new(dt, 0.0))),
+        None => problem.method.amplification_matrix(
+            &(op.symbol_matrix(theta) * C64::new(problem.method.step_variable(dt), 0.0)),
+        ),
     }
 }

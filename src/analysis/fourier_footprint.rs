@@ -5,7 +5,8 @@
 //! how far the spectrum is from the region's boundary, and which wavenumbers
 //! (coloured by |θ|) get there first. Composite schemes (IMEX, splitting,
 //! forward–backward, staggered leapfrog) have no footprint: their G is not a
-//! function of Δt·L alone.
+//! function of Δt·L alone. Second-order-in-time methods have theirs in their
+//! own variable z = Δt²·μ ([`crate::time::Method::step_variable`]).
 
 use super::context::Context;
 use crate::linalg::EigSolver;
@@ -17,7 +18,8 @@ pub const MAX_NODES: usize = 8192;
 /// Δt·eig L(θ) at sampled wavevectors.
 #[derive(Debug, Clone)]
 pub struct FourierFootprint {
-    /// Δt μ at the case's Δt, `nodes × m`, node-major (eigenvalues unordered).
+    /// z = Δt μ (Δt² μ for second-order-in-time methods) at the case's Δt,
+    /// `nodes × m`, node-major (eigenvalues unordered).
     pub z: Vec<C64>,
     /// |θ|₂ of each sampled wavevector.
     pub theta_norm: Vec<f64>,
@@ -35,6 +37,7 @@ pub fn footprint(ctx: &Context) -> Option<FourierFootprint> {
         return None;
     }
     let (grid, op, dt) = (&ctx.grid, &ctx.op, ctx.dt);
+    let step = ctx.problem.method.step_variable(dt);
     let m = op.m;
     let total = grid.len();
     let stride = total.div_ceil(MAX_NODES).max(1);
@@ -54,7 +57,7 @@ pub fn footprint(ctx: &Context) -> Option<FourierFootprint> {
         if solver.eigenvalues(&op.symbol(&theta), &mut eig).is_err() {
             continue;
         }
-        out.z.extend(eig.iter().map(|mu| mu * dt));
+        out.z.extend(eig.iter().map(|mu| mu * step));
         out.theta_norm
             .push(theta.iter().map(|t| t * t).sum::<f64>().sqrt());
         out.index.push(flat);

@@ -214,6 +214,16 @@ impl Plan {
         }
         if let Some(d) = &self.dispersion {
             d.check()?;
+            if problem.method.is_second_order() {
+                return Err(InputError::new(
+                    "scan.analyses",
+                    format!(
+                        "the dispersion analysis is not available for the second-order-in-time method '{}' (its frequencies come in +-omega pairs from z = dt^2 mu, which the first-order dispersion analysis does not model)",
+                        problem.method.name
+                    ),
+                )
+                .hint("list the other analyses, e.g. analyses = [\"radius\", \"limit\", \"growth\"]"));
+            }
         }
         Ok(())
     }

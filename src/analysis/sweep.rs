@@ -37,6 +37,8 @@ pub(super) fn spectral(
 ) -> Swept {
     let (grid, op, dt) = (&ctx.grid, &ctx.op, ctx.dt);
     let method = &ctx.problem.method;
+    // z = s(Δt)·μ: Δt·μ, or Δt²·μ for second-order-in-time methods
+    let step = method.step_variable(dt);
     ctx.progress.start(Stage::Sweep, grid.len() as u64);
     let symmetry = ctx.symmetry();
     let row = grid.points[grid.points.len() - 1];
@@ -64,7 +66,7 @@ pub(super) fn spectral(
                 Ok(eig) => {
                     let radius = if want_radius {
                         eig.iter()
-                            .map(|mu| method.amplification_radius(*mu * dt))
+                            .map(|mu| method.amplification_radius(*mu * step))
                             .fold(0.0, f64::max)
                     } else {
                         0.0

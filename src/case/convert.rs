@@ -109,6 +109,12 @@ pub(super) fn builder(raw: &RawCase, path: &Path) -> Result<ProblemBuilder, Inpu
             alpha: t.filter_alpha,
         });
     }
+    if let Some(beta) = t.beta {
+        b = b.newmark_beta(beta);
+    }
+    if let Some(gamma) = t.gamma {
+        b = b.newmark_gamma(gamma);
+    }
     if let Some(dt) = t.dt {
         b = b.dt(dt);
     }

@@ -98,6 +98,8 @@ pub struct RawTime {
     pub filter: Option<String>,
     pub filter_strength: Option<f64>,
     pub filter_alpha: Option<f64>,
+    pub beta: Option<f64>,
+    pub gamma: Option<f64>,
 }
 
 #[derive(Debug, Clone, Deserialize)]

@@ -23,6 +23,8 @@ pub enum ModelKind {
     Maxwell,
     /// A user's own matrices.
     Linear,
+    /// The scalar wave equation, second order in time.
+    Wave,
 }
 
 /// One catalogue entry.
@@ -87,6 +89,13 @@ const ENTRIES: &[Entry] = &[
         summary: "your own system: variables, flux per axis, optional diffusion and source",
         keys: &["variables", "flux", "diffusion", "source"],
         build: super::linear::linear_from,
+    },
+    Entry {
+        kind: ModelKind::Wave,
+        name: "wave",
+        summary: "scalar wave equation u_tt = sum c_d^2 u_dd (variable u); methods central-difference, newmark",
+        keys: &["speed"],
+        build: super::wave::wave_from,
     },
 ];
 

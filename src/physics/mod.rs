@@ -9,7 +9,9 @@
 //!
 //! Each built-in model is a constructor in its own file and one entry of the
 //! [`catalogue`] (its name, keys and parameter reader); a user's own matrices are
-//! the `linear` model. Linearisations are the textbook ones (common practice).
+//! the `linear` model. The `wave` model (u_tt = Σ c_d² u_dd) is second order in
+//! time: it keeps c_d² in the diffusion matrices, so that L is assembled as for
+//! diffusion, and is advanced only by second-order-in-time methods. Linearisations are the textbook ones (common practice).
 
 pub mod catalogue;
 mod fluids;
@@ -18,11 +20,13 @@ mod maxwell;
 pub mod params;
 mod speed;
 pub mod symmetriser;
+mod wave;
 
 pub use catalogue::ModelKind;
 pub use fluids::{acoustics, advection, euler, shallow_water};
 pub use linear::linear;
 pub use maxwell::maxwell;
+pub use wave::wave;
 
 use nalgebra::DMatrix;
 use num_complex::Complex64 as C64;

@@ -149,6 +149,18 @@ impl ProblemBuilder {
         self
     }
 
+    /// Newmark's β (`time.beta`, default 1/4).
+    pub fn newmark_beta(mut self, beta: f64) -> Self {
+        self.method.beta = Some(beta);
+        self
+    }
+
+    /// Newmark's γ (`time.gamma`, default 1/2).
+    pub fn newmark_gamma(mut self, gamma: f64) -> Self {
+        self.method.gamma = Some(gamma);
+        self
+    }
+
     /// Dimension splitting: "none", "lie" or "strang".
     pub fn splitting(mut self, name: &str) -> Self {
         self.method.splitting = Some(name.to_string());

@@ -1,13 +1,15 @@
 //! The time method from its name and options: built-in one-step and multistep
 //! methods, θ-methods, Butcher tableaux, the composite schemes (forward–backward,
-//! IMEX, Lax–Wendroff, Lax–Friedrichs) and dimension splitting of a one-step
-//! method; then the filters: a time filter turns leapfrog into its filtered
-//! multistep equivalent, a spatial filter wraps a one-level scheme.
+//! IMEX, Lax–Wendroff, Lax–Friedrichs), dimension splitting of a one-step
+//! method, and the second-order-in-time methods of the `wave` model
+//! (`central-difference`, `newmark` with `time.beta`, `time.gamma`), which
+//! pair only with it; then the filters: a time filter turns leapfrog into its
+//! filtered multistep equivalent, a spatial filter wraps a one-level scheme.
 
 use super::spec::{FilterSpec, MethodSpec, TimeFilterSpec};
 use crate::error::InputError;
 use crate::operator::Space;
-use crate::physics::System;
+use crate::physics::{ModelKind, System};
 use crate::stencil::filter::SpatialFilter;
 use crate::time::composite::{Composite, Imex, Splitting};
 use crate::time::time_filter::TimeFilter;
@@ -175,6 +177,14 @@ fn unfiltered(spec: &MethodSpec, sys: &System, space: &Space) -> Result<Method, 
     })?;
     let mut valid = time::method_names();
     valid.extend(COMPOSITE_METHODS);
+    valid.extend(time::second_order::names());
+    if name != "newmark" && spec.beta.is_some() {
+        return Err(only_with("time.beta", "newmark"));
+    }
+    if name != "newmark" && spec.gamma.is_some() {
+        return Err(only_with("time.gamma", "newmark"));
+    }
+    pairing(name, sys)?;
     let uses_order = name == "forward-backward";
     if !uses_order && spec.first.is_some() {
         return Err(only_with("time.first", "forward-backward"));
@@ -207,6 +217,33 @@ fn unfiltered(spec: &MethodSpec, sys: &System, space: &Space) -> Result<Method, 
         explicit: !matches!(c, Composite::Imex(_)),
         scheme: Scheme::Composite(c),
     };
+    let second = time::second_order::by_name(
+        name,
+        spec.beta.unwrap_or(time::second_order::DEFAULT_BETA),
+        spec.gamma.unwrap_or(time::second_order::DEFAULT_GAMMA),
+    );
+    if let Some(m) = second {
+        if splitting.is_some() {
+            return Err(InputError::new(
+                "time.splitting",
+                format!("method '{name}' is a second-order-in-time recurrence and cannot be split"),
+            ));
+        }
+        if space.dissipation.is_some() {
+            return Err(InputError::new(
+                "space.dissipation",
+                "added dissipation is a damping term of first-order-in-time systems; in u_tt = L u it would act as extra stiffness, not damping",
+            )
+            .hint("remove space.dissipation; newmark with time.gamma > 1/2 adds numerical damping"));
+        }
+        return m.map_err(|e| {
+            let key = match e {
+                time::MethodError::NewmarkGamma(_) => "time.gamma",
+                _ => "time.beta",
+            };
+            InputError::new(key, e.to_string())
+        });
+    }
     let base = match name {
         "forward-backward" => {
             let rank = update_ranks(spec, sys)?;
@@ -292,6 +329,39 @@ fn unfiltered(spec: &MethodSpec, sys: &System, space: &Space) -> Result<Method, 
             inner: Box::new(base),
         }),
     })
+}
+
+/// The `wave` model (second order in time) takes only the second-order
+/// methods, and they take only it.
+fn pairing(name: &str, sys: &System) -> Result<(), InputError> {
+    let second = time::second_order::names().contains(&name);
+    let wave = sys.kind == ModelKind::Wave;
+    if second && !wave {
+        return Err(InputError::new(
+            "time.method",
+            format!(
+                "method '{name}' advances second-order-in-time equations u_tt = L u, and model '{}' is first order in time",
+                sys.kind.name()
+            ),
+        )
+        .hint("use it with model.kind = \"wave\", or choose a method for first-order systems (kgain list methods)"));
+    }
+    if wave
+        && !second
+        && time::method_names()
+            .iter()
+            .chain(&COMPOSITE_METHODS)
+            .any(|n| *n == name)
+    {
+        return Err(InputError::new(
+            "time.method",
+            format!(
+                "model 'wave' is second order in time (u_tt = L u), and method '{name}' advances first-order systems"
+            ),
+        )
+        .hint("use method = \"central-difference\" or \"newmark\" (time.beta, time.gamma)"));
+    }
+    Ok(())
 }
 
 fn no_split(splitting: Option<Splitting>, name: &str) -> Result<(), InputError> {

@@ -88,4 +88,6 @@ pub(super) struct MethodSpec {
     pub first: Option<Vec<String>>,
     pub sequence: Option<Vec<String>>,
     pub splitting: Option<String>,
+    pub beta: Option<f64>,
+    pub gamma: Option<f64>,
 }

@@ -233,7 +233,7 @@ fn roots_inside(ms: &Multistep, z: C64) -> bool {
 }
 
 /// Coefficients of p(1 + e) from those of p(ζ), by repeated synthetic division.
-fn taylor_shift(p: &[f64]) -> Vec<f64> {
+pub(super) fn taylor_shift(p: &[f64]) -> Vec<f64> {
     let mut c = p.to_vec();
     let n = c.len();
     for i in 0..n {

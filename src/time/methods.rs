@@ -22,6 +22,12 @@ pub enum MethodError {
     /// θ outside [0, 1].
     #[error("theta must lie in [0, 1], got {0}")]
     Theta(f64),
+    /// Newmark β negative.
+    #[error("beta must be at least 0 (0 is the explicit central-difference member), got {0}")]
+    NewmarkBeta(f64),
+    /// Newmark γ below 1/2.
+    #[error("gamma must be at least 1/2, got {0}: below 1/2 the numerical damping is negative and every mode grows, whatever dt")]
+    NewmarkGamma(f64),
 }
 
 /// Names accepted by [`builtin`], the parametrised `theta` and `tableau`, and

@@ -8,6 +8,12 @@
 //!   block companion matrix of size m·s; the eigenvalues of G are the roots ζ of
 //!   Σ_j (α_j − Δt μ β_j) ζ^j.
 //!
+//! * Second-order-in-time methods for u_tt = L u (central difference, Newmark)
+//!   are two-step recurrences Σ_j ρ_j u^{n+j} = Δt² L Σ_j σ_j u^{n+j}: the
+//!   algebra of a multistep method in the variable z = Δt² μ
+//!   ([`Method::step_variable`]), with roots taken in ζ − 1
+//!   ([`shifted_roots`]); see [`second_order`].
+//!
 //! `exit` computes the first-exit radius r*(φ) of each region along a ray, the
 //! quantity behind the stability limit (README: The largest stable time step).
 
@@ -20,6 +26,8 @@ pub mod methods;
 pub mod order;
 pub mod presets;
 pub mod time_filter;
+pub mod second_order;
+pub mod shifted_roots;
 
 use nalgebra::DMatrix;
 use num_complex::Complex64 as C64;
@@ -53,6 +61,9 @@ pub enum Scheme {
     Multistep(Multistep),
     /// Built from pieces of the symbol (see [`composite`]).
     Composite(composite::Composite),
+    /// A second-order-in-time recurrence for u_tt = L u, whose coefficients
+    /// (α = ρ, β = σ) act on z = Δt² μ (see [`second_order`]).
+    SecondOrder(Multistep),
 }
 
 /// A named time integrator.
@@ -73,7 +84,7 @@ impl Method {
     pub fn levels(&self) -> usize {
         match &self.scheme {
             Scheme::OneStep(_) => 1,
-            Scheme::Multistep(ms) => ms.alpha.len() - 1,
+            Scheme::Multistep(ms) | Scheme::SecondOrder(ms) => ms.alpha.len() - 1,
             Scheme::Composite(c) => c.levels(),
         }
     }
@@ -83,6 +94,31 @@ impl Method {
         match &self.scheme {
             Scheme::Composite(composite::Composite::Filtered { filter, .. }) => Some(filter),
             _ => None,
+        }
+    }
+
+    /// Whether the method advances u_tt = L u (second order in time).
+    pub fn is_second_order(&self) -> bool {
+        matches!(self.scheme, Scheme::SecondOrder(_))
+    }
+
+    /// The factor s(Δt) in the method's variable z = s(Δt)·μ: Δt for methods
+    /// of first-order-in-time systems, Δt² for second-order-in-time ones. Every
+    /// analysis forms z (and Z = s(Δt)·L) through it.
+    pub fn step_variable(&self, dt: f64) -> f64 {
+        match self.scheme {
+            Scheme::SecondOrder(_) => dt * dt,
+            _ => dt,
+        }
+    }
+
+    /// The inverse of [`Method::step_variable`] at an eigenvalue of modulus
+    /// `mu_norm`: the Δt at which z = s(Δt)·μ has modulus `r` (r/|μ|, or
+    /// √(r/|μ|) for second-order-in-time methods); ∞ stays ∞ and 0 stays 0.
+    pub fn dt_of_radius(&self, r: f64, mu_norm: f64) -> f64 {
+        match self.scheme {
+            Scheme::SecondOrder(_) => (r / mu_norm).sqrt(),
+            _ => r / mu_norm,
         }
     }
 
@@ -111,6 +147,7 @@ impl Method {
                 crate::linalg::poly::max_root_modulus(&ms.characteristic(z)).unwrap_or(f64::NAN)
             }
             Scheme::Composite(_) => f64::NAN,
+            Scheme::SecondOrder(ms) => shifted_roots::max_modulus(ms, z),
         }
     }
 
@@ -127,11 +164,14 @@ impl Method {
                 r
             }
             Scheme::Composite(_) => vec![C64::new(f64::NAN, f64::NAN)],
+            Scheme::SecondOrder(ms) => shifted_roots::roots(ms, z),
         }
     }
 
-    /// The amplification matrix G for Z = Δt·L (size m·levels). Built from the
-    /// matrices themselves, independently of any eigenvalue computation.
+    /// The amplification matrix G for Z = Δt·L (Z = Δt²·L for second-order
+    /// methods; size m·levels). Built from the matrices themselves,
+    /// independently of any eigenvalue computation. Multistep and second-order
+    /// methods act on the stacked levels (u^n, u^{n−1}, …).
     pub fn amplification_matrix(&self, z: &DMatrix<C64>) -> DMatrix<C64> {
         let m = z.nrows();
         let id = DMatrix::<C64>::identity(m, m);
@@ -154,7 +194,7 @@ impl Method {
                     .solve(&p)
                     .unwrap_or_else(|| DMatrix::from_element(m, m, C64::new(f64::NAN, f64::NAN)))
             }
-            Scheme::Multistep(ms) => {
+            Scheme::Multistep(ms) | Scheme::SecondOrder(ms) => {
                 let s = ms.alpha.len() - 1;
                 let lead = &id * C64::new(ms.alpha[s], 0.0) - z * C64::new(ms.beta[s], 0.0);
                 let lu = lead.lu();
@@ -176,14 +216,15 @@ impl Method {
         }
     }
 
-    /// First-exit radius of the stability region along the ray t·w, w a unit
+    /// First-exit radius of the stability region (in z = s(Δt)·μ, see
+    /// [`Method::step_variable`]) along the ray t·w, w a unit
     /// complex number: the largest r such that every point t·w, 0 < t < r, is
     /// stable. `f64::INFINITY` when the whole ray is stable, 0 when points
     /// arbitrarily close to the origin are unstable.
     pub fn exit_radius(&self, w: C64) -> f64 {
         match &self.scheme {
             Scheme::OneStep(os) => exit::one_step(os, w),
-            Scheme::Multistep(ms) => exit::multistep(ms, w),
+            Scheme::Multistep(ms) | Scheme::SecondOrder(ms) => exit::multistep(ms, w),
             Scheme::Composite(_) => f64::NAN,
         }
     }

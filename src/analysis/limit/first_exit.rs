@@ -1,5 +1,7 @@
 //! First-exit times t*(μ) = r*(arg μ)/|μ| of the operator's eigenvalues from the
-//! time method's stability region (README: The largest stable time step).
+//! time method's stability region (README: The largest stable time step); for
+//! second-order-in-time methods, whose variable is z = Δt²μ, t* = √(r*/|μ|)
+//! ([`Method::dt_of_radius`]).
 //!
 //! The eigenvalues come from [`crate::operator::Spectrum`], which puts them on the
 //! imaginary axis only where L has no real part by construction (so that
@@ -68,13 +70,18 @@ impl<'m> ExitTimes<'m> {
         })
     }
 
+    /// The Δt at which s(Δt)·μ reaches radius r.
+    fn time(&self, r: f64, mu: C64) -> f64 {
+        self.method.dt_of_radius(r, mu.norm())
+    }
+
     /// Exact first-exit time of μ.
     pub fn exact(&self, mu: C64) -> f64 {
         match self.dir(mu) {
             Dir::Zero => f64::INFINITY,
-            Dir::Up => self.up / mu.norm(),
-            Dir::Down => self.down / mu.norm(),
-            Dir::General(w) => self.method.exit_radius(w) / mu.norm(),
+            Dir::Up => self.time(self.up, mu),
+            Dir::Down => self.time(self.down, mu),
+            Dir::General(w) => self.time(self.method.exit_radius(w), mu),
         }
     }
 
@@ -83,12 +90,12 @@ impl<'m> ExitTimes<'m> {
     pub fn estimate(&self, mu: C64) -> f64 {
         match self.dir(mu) {
             Dir::Zero => f64::INFINITY,
-            Dir::Up => self.up / mu.norm(),
-            Dir::Down => self.down / mu.norm(),
+            Dir::Up => self.time(self.up, mu),
+            Dir::Down => self.time(self.down, mu),
             Dir::General(w) => {
                 let x = (w.arg() + PI) / (2.0 * PI) * TABLE as f64;
                 let i = (x.floor() as usize).min(TABLE - 1);
-                self.table_at(i).min(self.table_at(i + 1)) / mu.norm()
+                self.time(self.table_at(i).min(self.table_at(i + 1)), mu)
             }
         }
     }

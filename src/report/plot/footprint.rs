@@ -80,13 +80,21 @@ fn view(f: &FourierFootprint, limit_scale: Option<f64>, problem: &Problem) -> (f
 
 /// Draws the picture.
 pub fn draw(root: &Area, problem: &Problem, r: &Results, f: &FourierFootprint) -> Res {
+    // the method's variable z = s(Δt)·μ: Δt·μ, or Δt²·μ for second-order-in-time methods
+    let second = problem.method.is_second_order();
+    let zname = if second {
+        "Δt²·eig L(θ)"
+    } else {
+        "Δt·eig L(θ)"
+    };
     title_band(
         root,
         problem,
-        "Fourier footprint: Δt·eig L(θ) over the stability region",
+        &format!("Fourier footprint: {zname} over the stability region"),
         r.dt,
     )?;
-    let limit_scale = dt_max(r).map(|d| d / f.dt);
+    let method = &problem.method;
+    let limit_scale = dt_max(r).map(|d| method.step_variable(d) / method.step_variable(f.dt));
     let (mut x0, mut x1, mut y0, mut y1) = view(f, limit_scale, problem);
     // the plot square: equal scales on both axes
     let (left, top, side_w, side_h) = (110i32, TITLE_BAND as i32 + 40, 640i32, 560i32);
@@ -116,15 +124,14 @@ pub fn draw(root: &Area, problem: &Problem, r: &Results, f: &FourierFootprint) -
     style::house_mesh(
         chart
             .configure_mesh()
-            .x_desc("Re(Δt μ)")
-            .y_desc("Im(Δt μ)")
+            .x_desc(if second { "Re(Δt² μ)" } else { "Re(Δt μ)" })
+            .y_desc(if second { "Im(Δt² μ)" } else { "Im(Δt μ)" })
             .x_label_formatter(&fx)
             .y_label_formatter(&fy),
     )
     .draw()?;
 
     // the stability region on a grid of cells, and its edge
-    let method = &problem.method;
     let ny = (CELLS as f64 * (y1 - y0) / (x1 - x0)).round().max(2.0) as usize;
     let cell = (x1 - x0) / CELLS as f64;
     let stable = |i: usize, j: usize| {
@@ -157,6 +164,16 @@ pub fn draw(root: &Area, problem: &Problem, r: &Results, f: &FourierFootprint) -
     // the axes of the z plane
     for (p, q) in [((x0, 0.0), (x1, 0.0)), ((0.0, y0), (0.0, y1))] {
         plot.draw(&PathElement::new(vec![p, q], style::MUTED.stroke_width(1)))?;
+    }
+    // a second-order-in-time method's region has no area where the footprint
+    // lies (central difference: the segment [−4, 0]); its stable stretch of
+    // the negative real axis is drawn as a band on the axis
+    if second {
+        let reach = method.real_limit().min(-x0);
+        plot.draw(&PathElement::new(
+            vec![(-reach, 0.0), (0.0, 0.0)],
+            EDGE.stroke_width(6),
+        ))?;
     }
 
     // the footprint at the limit (grey), then at the case's Δt (by |θ|)
@@ -209,14 +226,14 @@ pub fn draw(root: &Area, problem: &Problem, r: &Results, f: &FourierFootprint) -
         root,
         (x, y),
         &Key::Dot(style::INK),
-        &format!("Δt·eig L(θ) at the case's Δt = {}", style::num(f.dt, 4)),
+        &format!("{zname} at the case's Δt = {}", style::num(f.dt, 4)),
     )? + 24;
-    if let Some(s) = limit_scale {
+    if let Some(d) = dt_max(r) {
         legend_entry(
             root,
             (x, y),
             &Key::Dot(AT_LIMIT),
-            &format!("at dt_max = {}", style::num(s * f.dt, 6)),
+            &format!("at dt_max = {}", style::num(d, 6)),
         )?;
     }
     Ok(())

@@ -24,6 +24,9 @@ use plotters::style::text_anchor::{HPos, VPos};
 const GROWTH: f64 = 1e-6;
 
 const Y_LABEL: &str = "max over wavevectors of ||G^n||_2 (weighted norm)";
+/// The y label of a second-order-in-time method, whose state is (u^n, u^{n−1}).
+const Y_LABEL_SECOND: &str =
+    "max over wavevectors of ||G^n||_2 of the stacked levels (u^n, u^(n-1))";
 /// The y label of a multistep method, whose state stacks its time levels.
 const Y_LABEL_STACKED: &str = "max over wavevectors of ||G^n||_2 (weighted, stacked time levels)";
 
@@ -154,7 +157,9 @@ pub fn draw(root: &Area, problem: &Problem, r: &Results, g: &GrowthResult) -> Re
         chart
             .configure_mesh()
             .x_desc("time step n")
-            .y_desc(if problem.method.levels() > 1 {
+            .y_desc(if problem.method.is_second_order() {
+                Y_LABEL_SECOND
+            } else if problem.method.levels() > 1 {
                 Y_LABEL_STACKED
             } else {
                 Y_LABEL

@@ -43,9 +43,14 @@ impl Section for Footprint {
         ));
     }
 
-    fn summary(&self, _p: &Problem, r: &Results, s: &mut Map<String, Value>) {
+    fn summary(&self, p: &Problem, r: &Results, s: &mut Map<String, Value>) {
         let Some(f) = &r.footprint else {
             return;
+        };
+        let meaning = if p.method.is_second_order() {
+            "z = dt^2 * mu for every eigenvalue mu of L(theta) at evenly strided grid wavevectors (all of them up to 8192): the variable of a second-order-in-time method (u_tt = L u); the scheme is stable at dt when every z lies in the time method's stability region, drawn with them in footprint.png"
+        } else {
+            "z = dt * mu for every eigenvalue mu of L(theta) at evenly strided grid wavevectors (all of them up to 8192); the scheme is stable at dt when every z lies in the time method's stability region, drawn with them in footprint.png"
         };
         s.insert(
             "footprint".into(),
@@ -53,7 +58,7 @@ impl Section for Footprint {
                 "wavevectors": f.theta_norm.len(),
                 "eigenvalues_per_wavevector": f.m,
                 "dt": f.dt,
-                "meaning": "z = dt * mu for every eigenvalue mu of L(theta) at evenly strided grid wavevectors (all of them up to 8192); the scheme is stable at dt when every z lies in the time method's stability region, drawn with them in footprint.png",
+                "meaning": meaning,
             }),
         );
     }

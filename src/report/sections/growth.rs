@@ -160,6 +160,9 @@ fn norm_caution(p: &Problem, r: &Results) -> Option<String> {
 /// What the state of the growth measures is: one time level, or all of a
 /// multistep method's levels stacked.
 fn state_note(p: &Problem) -> String {
+    if p.method.is_second_order() {
+        return "stacked levels (u^n, u^(n-1)) of the two-step recurrence for u_tt = L u: ||G^n|| is the norm of the stacked levels, which also carries the discrete velocity (u^n - u^(n-1))/dt".to_string();
+    }
     match p.method.levels() {
         1 => "one time level: ||G^n|| is the growth of the solution over n steps".to_string(),
         k => format!(
