@@ -8,6 +8,7 @@
 
 mod cli;
 mod companion;
+mod growth;
 mod limits;
 mod radius;
 

@@ -6,6 +6,7 @@
 //! Norms are ‖W u‖₂ ([`super::norm`]). [`measures`] holds the per-wavevector
 //! work, [`resolvent`] the measures of one matrix.
 
+mod energy;
 pub mod measures;
 pub mod powers;
 pub mod resolvent;
@@ -14,6 +15,8 @@ use super::context::Context;
 use super::norm::NormTransform;
 use crate::sample::{self, Stage};
 use measures::{Envelope, NodeMeasures, NodeWorkspace};
+use nalgebra::DMatrix;
+use num_complex::Complex64 as C64;
 
 pub use measures::power_norms;
 pub use resolvent::{kreiss_lower_bound, optimal_perturbation, pseudospectral_radius};
@@ -138,8 +141,24 @@ pub(super) fn analyse(ctx: &Context, p: &GrowthParams) -> GrowthResult {
     let size = ctx.problem.system.size() * ctx.problem.method.levels();
     // The long-wave node first: there G ≈ I, so the envelope starts near 1 and
     // the other nodes' powers can stop as soon as they provably stay below it.
+    // Second-order-in-time methods: growth in the discrete wave energy, and
+    // the secular node(s) where L = 0 kept out of the envelope ([`energy`]).
+    let second = ctx.problem.method.is_second_order();
+    let matrix = |th: &[f64]| -> (DMatrix<C64>, bool) {
+        let g = w.weighted(ctx.amplification(th, dt));
+        if !second {
+            return (g, false);
+        }
+        let l = ctx.op.symbol_matrix(th);
+        let rho = crate::linalg::spectral_radius(&crate::linalg::from_matrix(&l), l.nrows())
+            .unwrap_or(f64::NAN);
+        let c = energy::frequency_scale(rho, dt);
+        (energy::to_energy(&g, c), energy::is_secular(&l))
+    };
     let origin: Vec<f64> = grid.coords.iter().map(|c| nearest_to_zero(c)).collect();
-    NodeWorkspace::new(size).node(&w.weighted(ctx.amplification(&origin, dt)), steps, &env);
+    if !second {
+        NodeWorkspace::new(size).node(&matrix(&origin).0, steps, &env);
+    }
     ctx.progress.start(Stage::Growth, grid.len() as u64);
     let nodes: Vec<(NodeMeasures, (f64, usize))> = sample::map_with(
         grid,
@@ -147,7 +166,18 @@ pub(super) fn analyse(ctx: &Context, p: &GrowthParams) -> GrowthResult {
         ctx.symmetry(),
         ctx.progress,
         || NodeWorkspace::new(size),
-        |ws, th| ws.node(&w.weighted(ctx.amplification(th, dt)), steps, &env),
+        |ws, th| {
+            let (g, secular) = matrix(th);
+            if !secular {
+                return ws.node(&g, steps, &env);
+            }
+            let (m, _) = ws.node(&g, steps, &Envelope::new(steps));
+            let kept_out = NodeMeasures {
+                defective: f64::NAN,
+                ..m
+            };
+            (kept_out, (f64::NAN, 0))
+        },
     );
     ctx.progress.finish();
     let envelope = env.values();
@@ -166,7 +196,7 @@ pub(super) fn analyse(ctx: &Context, p: &GrowthParams) -> GrowthResult {
     let mut idx = vec![0usize; grid.points.len()];
     grid.unravel(ipk, &mut idx);
     let peak_theta = grid.theta(&idx);
-    let g_peak = w.weighted(ctx.amplification(&peak_theta, dt));
+    let g_peak = matrix(&peak_theta).0;
     let rho_max = nodes
         .iter()
         .map(|n| n.0.radius)

@@ -24,9 +24,10 @@ use plotters::style::text_anchor::{HPos, VPos};
 const GROWTH: f64 = 1e-6;
 
 const Y_LABEL: &str = "max over wavevectors of ||G^n||_2 (weighted norm)";
-/// The y label of a second-order-in-time method, whose state is (u^n, u^{n−1}).
+/// The y label of a second-order-in-time method, measured in the discrete
+/// wave energy of (u^n, u^{n−1}).
 const Y_LABEL_SECOND: &str =
-    "max over wavevectors of ||G^n||_2 of the stacked levels (u^n, u^(n-1))";
+    "max over wavevectors of ||G^n||_2 in the discrete wave energy";
 /// The y label of a multistep method, whose state stacks its time levels.
 const Y_LABEL_STACKED: &str = "max over wavevectors of ||G^n||_2 (weighted, stacked time levels)";
 

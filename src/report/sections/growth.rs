@@ -161,7 +161,7 @@ fn norm_caution(p: &Problem, r: &Results) -> Option<String> {
 /// multistep method's levels stacked.
 fn state_note(p: &Problem) -> String {
     if p.method.is_second_order() {
-        return "stacked levels (u^n, u^(n-1)) of the two-step recurrence for u_tt = L u: ||G^n|| is the norm of the stacked levels, which also carries the discrete velocity (u^n - u^(n-1))/dt".to_string();
+        return "discrete wave energy of the two-step recurrence for u_tt = L u: the state (u^n - u^(n-1), c (u^n + u^(n-1))/2) with c = dt sqrt(rho(-L(theta))), dt times (velocity, omega x displacement); central differences conserve (1 - c^2/4)|d|^2 + c^2|s|^2 exactly, so ||G^n|| <= 1/sqrt(1 - c^2/4) for them".to_string();
     }
     match p.method.levels() {
         1 => "one time level: ||G^n|| is the growth of the solution over n steps".to_string(),
