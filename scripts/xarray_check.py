@@ -3,7 +3,8 @@
 
 The loader is the Python block after the `<!-- xarray-loader -->` marker in README.md, extracted
 and executed as written, so the README cannot drift from what works. For each case (2-D, 3-D,
-multistep with its computational modes, a linear user system, and sampled L and G matrices) it
+multistep with its computational modes, a linear user system, sampled L and G matrices, and a
+`kgain sweep` folder over a numeric and a text key) it
 runs kgain into a temporary folder, loads the folder into one xarray Dataset and checks that:
 every array of the manifest is in the Dataset with its shape and dims; every dimension has a 1-D
 coordinate of its own length; each dimension name stands for one length; units and long_name are
@@ -44,11 +45,16 @@ def loader():
     return scope["load"]
 
 
-def check(case, sets, load, tmp):
-    out = os.path.join(tmp, case.removesuffix(".toml"))
-    cmd = [str(KGAIN), "run", str(ROOT / "cases" / case), "--out", out, "--quiet"]
+# a sweep folder too: its arrays have the varied keys as dims, their values as coords
+SWEEP = ("tunnel-euler-mach.toml", ["--vary", "model.mach=0:0.9:3", "--vary", "time.method=rk4,ssprk3",
+                                    "--set", "scan.points=[17,17]"])
+
+
+def check(case, sets, load, tmp, command="run"):
+    out = os.path.join(tmp, case.removesuffix(".toml") + "-" + command)
+    cmd = [str(KGAIN), command, str(ROOT / "cases" / case), "--out", out, "--quiet"]
     for s in sets:
-        cmd += ["--set", s]
+        cmd += [s] if command == "sweep" else ["--set", s]
     subprocess.run(cmd, check=True)
     arrays = json.loads(pathlib.Path(out, "manifest.json").read_text())["arrays"]
     ds = load(out)
@@ -76,6 +82,11 @@ def main():
             except AssertionError as e:
                 print(f"xarray_check: FAILED: {e}", file=sys.stderr)
                 return 1
+        try:
+            check(*SWEEP, load, tmp, command="sweep")
+        except AssertionError as e:
+            print(f"xarray_check: FAILED (sweep): {e}", file=sys.stderr)
+            return 1
     print("xarray_check: every folder loads as one labelled Dataset")
     return 0
 
