@@ -62,8 +62,16 @@ impl YAxis {
                 powers,
             };
         }
-        let (lo, hi) = finite
+        YAxis::linear(&finite)
+    }
+
+    /// A linear axis over these values (non-finite ones are clipped, not
+    /// used for the range), padded by 6 % and at least a tenth of the level
+    /// high; 0..2 without any finite value.
+    pub fn linear(values: &[f64]) -> YAxis {
+        let (lo, hi) = values
             .iter()
+            .filter(|v| v.is_finite())
             .fold((f64::INFINITY, f64::NEG_INFINITY), |(a, b), v| {
                 (a.min(*v), b.max(*v))
             });

@@ -13,7 +13,9 @@
 //! `dispersion.png` the phase- and group-speed ratios of the mode that needs
 //! the finest resolution against points per wavelength ([`dispersion`]). The maps
 //! share one layout per dimension ([`field`]). A picture whose data the case
-//! did not ask for is skipped.
+//! did not ask for is skipped. A parameter sweep's figure over one or two
+//! varied keys is drawn by [`sweep_chart::write_chart`] (a line chart or a
+//! heat map).
 //!
 //! Text uses DejaVu Sans, embedded in the binary (`assets/fonts/`, licence in
 //! `assets/fonts/LICENSE-DejaVu.txt`) and registered with plotters' ab_glyph
@@ -37,6 +39,9 @@ mod polar;
 pub mod radius;
 mod style;
 pub mod sweep_chart;
+mod sweep_lines;
+mod sweep_map;
+mod sweep_marks;
 
 use super::ReportError;
 use crate::analysis::Results;
@@ -211,14 +216,24 @@ fn scheme_parts(problem: &Problem) -> Vec<String> {
 
 /// The title band: the case name and what the picture shows, then the scheme.
 fn title_band(root: &Area, problem: &Problem, what: &str, dt: f64) -> Res {
+    band(
+        root,
+        &format!("{} — {what}", problem.name),
+        &scheme_line(problem, dt),
+    )
+}
+
+/// The title band of any picture: a title line, a muted second line, a rule
+/// under both and the version tag in the bottom right corner.
+fn band(root: &Area, title: &str, subtitle: &str) -> Res {
     let (w, _) = root.dim_in_pixel();
     root.draw(&Text::new(
-        format!("{} — {what}", problem.name),
+        title.to_string(),
         (26, 16),
         style::text(23.0, style::INK),
     ))?;
     root.draw(&Text::new(
-        scheme_line(problem, dt),
+        subtitle.to_string(),
         (26, 48),
         style::text(15.0, style::MUTED),
     ))?;
