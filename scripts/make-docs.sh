@@ -72,3 +72,14 @@ out="$work/lake-rotating-waves-ra"
     --set time.filter=robert-asselin --set time.filter_strength=0.1 \
     --set 'scan.analyses=["radius", "limit"]'
 cp "$out/footprint.png" docs/img/lake-rotating-waves-ra-footprint.png
+
+# the sweep demo (README: Parameter sweeps): the largest stable Courant number of
+# the tunnel case against Mach number and flow angle, run as four shards of the
+# Slurm array script (with a stand-in for sbatch) and merged
+for i in 1 2 3 4; do
+    SLURM_ARRAY_TASK_ID=$i SLURM_ARRAY_TASK_COUNT=4 KGAIN="$kgain" SHARDS="$work/shards" \
+        sh docs/sweep/slurm-sweep.sh
+done
+"$kgain" merge "$work"/shards/* --out "$work/tunnel-sweep" --quiet
+cp "$work/tunnel-sweep/chart_limit_courant_max.png" docs/img/tunnel-euler-mach-sweep.png
+cp "$work/tunnel-sweep/sweep.csv" docs/sweep/tunnel-euler-mach-sweep.csv

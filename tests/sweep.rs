@@ -58,12 +58,22 @@ fn merged_shards_equal_the_unsharded_sweep_byte_for_byte() {
     let tmp = tempfile::tempdir().unwrap();
     let whole = tmp.path().join("whole");
     let r = sweep(&whole, &[]);
-    assert_eq!(r.status.code(), Some(0), "{}", String::from_utf8_lossy(&r.stderr));
+    assert_eq!(
+        r.status.code(),
+        Some(0),
+        "{}",
+        String::from_utf8_lossy(&r.stderr)
+    );
     let mut shards = Vec::new();
     for i in [3, 1, 2] {
         let dir = tmp.path().join(format!("shard{i}"));
         let r = sweep(&dir, &["--shard", &format!("{i}/3"), "--threads", "1"]);
-        assert_eq!(r.status.code(), Some(0), "{}", String::from_utf8_lossy(&r.stderr));
+        assert_eq!(
+            r.status.code(),
+            Some(0),
+            "{}",
+            String::from_utf8_lossy(&r.stderr)
+        );
         shards.push(dir.display().to_string());
     }
     // a re-run shard gives identical bytes, also with more threads than its
@@ -80,13 +90,26 @@ fn merged_shards_equal_the_unsharded_sweep_byte_for_byte() {
     let m = merged.display().to_string();
     args.extend(["--out", m.as_str(), "--quiet"]);
     let r = kgain(&args);
-    assert_eq!(r.status.code(), Some(0), "{}", String::from_utf8_lossy(&r.stderr));
+    assert_eq!(
+        r.status.code(),
+        Some(0),
+        "{}",
+        String::from_utf8_lossy(&r.stderr)
+    );
     let (a, b) = (files(&whole), files(&merged));
     assert_eq!(a.keys().collect::<Vec<_>>(), b.keys().collect::<Vec<_>>());
     for (name, bytes) in &a {
-        assert!(bytes == &b[name], "{name} differs between the sweep and the merge");
+        assert!(
+            bytes == &b[name],
+            "{name} differs between the sweep and the merge"
+        );
     }
-    for f in ["limit_courant_max.npy", "sweep.csv", "sweep.json", "manifest.json"] {
+    for f in [
+        "limit_courant_max.npy",
+        "sweep.csv",
+        "sweep.json",
+        "manifest.json",
+    ] {
         assert!(a.contains_key(f), "{f} missing");
     }
 }
@@ -96,7 +119,10 @@ fn foreign_and_missing_shards_are_refused_with_exit_2() {
     let tmp = tempfile::tempdir().unwrap();
     let dir = |n: &str| tmp.path().join(n).display().to_string();
     for i in 1..=2 {
-        sweep(Path::new(&dir(&format!("s{i}"))), &["--shard", &format!("{i}/3")]);
+        sweep(
+            Path::new(&dir(&format!("s{i}"))),
+            &["--shard", &format!("{i}/3")],
+        );
     }
     let r = kgain(&["merge", &dir("s1"), &dir("s2"), "--out", &dir("m")]);
     assert_eq!(r.status.code(), Some(2));
@@ -107,10 +133,26 @@ fn foreign_and_missing_shards_are_refused_with_exit_2() {
     let tunnel = case("cases/tunnel-euler-mach.toml");
     let other = dir("s3");
     let r = kgain(&[
-        "sweep", &tunnel, "--vary", "model.mach=0:0.9:5", "--vary", "model.flow_angle_deg=0,30",
-        "--set", "scan.points=[17,17]", "--shard", "3/3", "--quiet", "--out", &other,
+        "sweep",
+        &tunnel,
+        "--vary",
+        "model.mach=0:0.9:5",
+        "--vary",
+        "model.flow_angle_deg=0,30",
+        "--set",
+        "scan.points=[17,17]",
+        "--shard",
+        "3/3",
+        "--quiet",
+        "--out",
+        &other,
     ]);
-    assert_eq!(r.status.code(), Some(0), "{}", String::from_utf8_lossy(&r.stderr));
+    assert_eq!(
+        r.status.code(),
+        Some(0),
+        "{}",
+        String::from_utf8_lossy(&r.stderr)
+    );
     let r = kgain(&["merge", &dir("s1"), &dir("s2"), &other, "--out", &dir("m")]);
     assert_eq!(r.status.code(), Some(2));
     let err = String::from_utf8_lossy(&r.stderr);
@@ -129,12 +171,27 @@ fn single_limit(method: &str) -> f64 {
     let peer = case("bench/peer-euler2d.toml");
     let m = format!("time.method={method}");
     let r = kgain(&[
-        "run", &peer, "--set", "scan.points=[33,33]", "--set", &m, "--set",
-        "scan.analyses=[\"limit\"]", "--quiet", "--out", &out,
+        "run",
+        &peer,
+        "--set",
+        "scan.points=[33,33]",
+        "--set",
+        &m,
+        "--set",
+        "scan.analyses=[\"limit\"]",
+        "--quiet",
+        "--out",
+        &out,
     ]);
-    assert_eq!(r.status.code(), Some(0), "{}", String::from_utf8_lossy(&r.stderr));
+    assert_eq!(
+        r.status.code(),
+        Some(0),
+        "{}",
+        String::from_utf8_lossy(&r.stderr)
+    );
     let s: serde_json::Value =
-        serde_json::from_slice(&std::fs::read(tmp.path().join("run/summary.json")).unwrap()).unwrap();
+        serde_json::from_slice(&std::fs::read(tmp.path().join("run/summary.json")).unwrap())
+            .unwrap();
     s["limit"]["dt_max"].as_f64().unwrap()
 }
 
@@ -149,26 +206,65 @@ fn a_sweep_over_the_method_reproduces_single_runs_and_the_rk_ratio() {
     let peer = case("bench/peer-euler2d.toml");
     let o = out.display().to_string();
     let r = kgain(&[
-        "sweep", &peer, "--vary", "time.method=rk4,ssprk3", "--figures", "limit.dt_max,limit.kind_is_missing",
-        "--set", "scan.points=[33,33]", "--quiet", "--out", &o,
+        "sweep",
+        &peer,
+        "--vary",
+        "time.method=rk4,ssprk3",
+        "--figures",
+        "limit.dt_max,limit.kind_is_missing",
+        "--set",
+        "scan.points=[33,33]",
+        "--quiet",
+        "--out",
+        &o,
     ]);
     assert_eq!(r.status.code(), Some(2), "an unknown figure is refused");
     assert!(String::from_utf8_lossy(&r.stderr).contains("limit.kind_is_missing"));
     let r = kgain(&[
-        "sweep", &peer, "--vary", "time.method=rk4,ssprk3", "--figures", "limit.dt_max",
-        "--set", "scan.points=[33,33]", "--quiet", "--out", &o,
+        "sweep",
+        &peer,
+        "--vary",
+        "time.method=rk4,ssprk3",
+        "--figures",
+        "limit.dt_max",
+        "--set",
+        "scan.points=[33,33]",
+        "--quiet",
+        "--out",
+        &o,
     ]);
-    assert_eq!(r.status.code(), Some(0), "{}", String::from_utf8_lossy(&r.stderr));
+    assert_eq!(
+        r.status.code(),
+        Some(0),
+        "{}",
+        String::from_utf8_lossy(&r.stderr)
+    );
     let csv = std::fs::read_to_string(out.join("sweep.csv")).unwrap();
-    let rows: Vec<Vec<&str>> = csv.lines().skip(1).map(|l| l.split(',').collect()).collect();
+    let rows: Vec<Vec<&str>> = csv
+        .lines()
+        .skip(1)
+        .map(|l| l.split(',').collect())
+        .collect();
     assert_eq!(rows[0][0], "rk4");
     assert_eq!(rows[1][0], "ssprk3");
     let rk4: f64 = rows[0][1].parse().unwrap();
     let ssp: f64 = rows[1][1].parse().unwrap();
-    assert_eq!(rk4, single_limit("rk4"), "the sweep's RK4 limit is the single run's");
-    assert_eq!(ssp, single_limit("ssprk3"), "the sweep's SSP-RK3 limit is the single run's");
+    assert_eq!(
+        rk4,
+        single_limit("rk4"),
+        "the sweep's RK4 limit is the single run's"
+    );
+    assert_eq!(
+        ssp,
+        single_limit("ssprk3"),
+        "the sweep's SSP-RK3 limit is the single run's"
+    );
     let want = 3f64.sqrt() / (2.0 * 2f64.sqrt());
-    assert!((ssp / rk4 - want).abs() <= 1e-9 * want, "{} vs {want}", ssp / rk4);
+    assert!(
+        (ssp / rk4 - want).abs() <= 1e-9 * want,
+        "{} vs {want}",
+        ssp / rk4
+    );
 }
 
 #[test]
@@ -178,10 +274,24 @@ fn array_elements_can_be_varied() {
     let peer = case("bench/peer-euler2d.toml");
     let o = out.display().to_string();
     let r = kgain(&[
-        "sweep", &peer, "--vary", "model.velocity[0]=0,0.5", "--figures", "reference_speed",
-        "--set", "scan.points=[9,9]", "--quiet", "--out", &o,
+        "sweep",
+        &peer,
+        "--vary",
+        "model.velocity[0]=0,0.5",
+        "--figures",
+        "reference_speed",
+        "--set",
+        "scan.points=[9,9]",
+        "--quiet",
+        "--out",
+        &o,
     ]);
-    assert_eq!(r.status.code(), Some(0), "{}", String::from_utf8_lossy(&r.stderr));
+    assert_eq!(
+        r.status.code(),
+        Some(0),
+        "{}",
+        String::from_utf8_lossy(&r.stderr)
+    );
     let csv = std::fs::read_to_string(out.join("sweep.csv")).unwrap();
     // s = |u| + c with c = √(γp/ρ) = 1 and u = (u0, 0.2)
     let speeds: Vec<f64> = csv
@@ -190,7 +300,10 @@ fn array_elements_can_be_varied() {
         .map(|l| l.split(',').nth(1).unwrap().parse().unwrap())
         .collect();
     assert!((speeds[0] - 1.2).abs() < 1e-12, "{speeds:?}");
-    assert!((speeds[1] - (1.0 + (0.25f64 + 0.04).sqrt())).abs() < 1e-12, "{speeds:?}");
+    assert!(
+        (speeds[1] - (1.0 + (0.25f64 + 0.04).sqrt())).abs() < 1e-12,
+        "{speeds:?}"
+    );
 }
 
 #[test]
@@ -202,10 +315,22 @@ fn bad_arguments_exit_2_naming_themselves() {
         (vec!["--vary", "model.mach=0:1"], "--vary 'model.mach=0:1'"),
         (vec!["--vary", "mach=1,2"], "--vary 'mach=1,2'"),
         (vec!["--vary", "time.courant=0.5,0.5"], "listed twice"),
-        (vec!["--vary", "time.courant=0.5", "--shard", "5/4"], "--shard '5/4'"),
-        (vec!["--vary", "time.courant=0.5", "--figures", "limit..dt"], "limit..dt"),
-        (vec!["--vary", "time.courant=0.5,-1"], "combination 1 (time.courant=-1)"),
-        (vec!["--vary", "time.method=rk4,rk5"], "combination 1 (time.method=rk5)"),
+        (
+            vec!["--vary", "time.courant=0.5", "--shard", "5/4"],
+            "--shard '5/4'",
+        ),
+        (
+            vec!["--vary", "time.courant=0.5", "--figures", "limit..dt"],
+            "limit..dt",
+        ),
+        (
+            vec!["--vary", "time.courant=0.5,-1"],
+            "combination 1 (time.courant=-1)",
+        ),
+        (
+            vec!["--vary", "time.method=rk4,rk5"],
+            "combination 1 (time.method=rk5)",
+        ),
         (vec!["--vary", "model.velocity[7]=1"], "model.velocity[7]"),
     ] {
         let mut all = vec!["sweep", peer.as_str()];

@@ -142,7 +142,12 @@ pub fn sweep(a: SweepArgs) -> Result<String, Failed> {
         .map(|ax| kgain::study::case_value(&base.text_with_set(), &ax.key))
         .collect();
     let fingerprint = spec.fingerprint(&text, &a.set);
-    let subtitle = kgain::report::plot::scheme_subtitle(&first.problem);
+    let varied: Vec<&str> = spec.axes.iter().map(|x| x.key.as_str()).collect();
+    let subtitle = format!(
+        "{}  ·  varied: {}",
+        kgain::report::plot::scheme_subtitle(&first.problem),
+        varied.join(", ")
+    );
     let written = match shard {
         Some(s) => {
             let data = ShardData {

@@ -24,7 +24,7 @@ pub enum SweepError {
         /// Its key=value list.
         what: String,
         /// The case error (file, line, key).
-        source: CaseError,
+        source: Box<CaseError>,
     },
     /// A figure is not a number in the summary (exit 2).
     #[error("combination {index} ({what}): {source}")]
@@ -84,7 +84,7 @@ pub fn combination_case(
     Case::from_str_with(input.text, input.path, &overrides).map_err(|source| SweepError::Case {
         index: i,
         what: spec.describe(i),
-        source,
+        source: Box::new(source),
     })
 }
 

@@ -25,9 +25,9 @@ pub mod lowstorage;
 pub mod methods;
 pub mod order;
 pub mod presets;
-pub mod time_filter;
 pub mod second_order;
 pub mod shifted_roots;
+pub mod time_filter;
 
 use nalgebra::DMatrix;
 use num_complex::Complex64 as C64;

@@ -29,9 +29,18 @@ fn central_difference_growth_stays_under_its_conserved_energy_bound() {
     for nu in [0.3, 0.6, 0.9] {
         let g = growth("central-difference", None, nu);
         let bound = 1.0 / (1.0 - nu * nu).sqrt();
-        assert!(g.peak.0 <= bound * (1.0 + 1e-9), "nu {nu}: {} > {bound}", g.peak.0);
+        assert!(
+            g.peak.0 <= bound * (1.0 + 1e-9),
+            "nu {nu}: {} > {bound}",
+            g.peak.0
+        );
         assert!(g.peak.0 >= 1.0 - 1e-12);
-        assert_ne!(g.class, GrowthClass::WeaklyUnstable, "nu {nu}: {:?}", g.class);
+        assert_ne!(
+            g.class,
+            GrowthClass::WeaklyUnstable,
+            "nu {nu}: {:?}",
+            g.class
+        );
         assert_ne!(g.class, GrowthClass::Unstable);
     }
 }

@@ -70,7 +70,12 @@ mod tests {
             let g = DMatrix::from_row_slice(
                 2,
                 2,
-                &[C64::new(2.0 + z, 0.0), C64::new(-1.0, 0.0), C64::new(1.0, 0.0), C64::new(0.0, 0.0)],
+                &[
+                    C64::new(2.0 + z, 0.0),
+                    C64::new(-1.0, 0.0),
+                    C64::new(1.0, 0.0),
+                    C64::new(0.0, 0.0),
+                ],
             );
             let e = to_energy(&g, c);
             let mut p = DMatrix::<C64>::identity(2, 2);

@@ -26,8 +26,7 @@ const GROWTH: f64 = 1e-6;
 const Y_LABEL: &str = "max over wavevectors of ||G^n||_2 (weighted norm)";
 /// The y label of a second-order-in-time method, measured in the discrete
 /// wave energy of (u^n, u^{n−1}).
-const Y_LABEL_SECOND: &str =
-    "max over wavevectors of ||G^n||_2 in the discrete wave energy";
+const Y_LABEL_SECOND: &str = "max over wavevectors of ||G^n||_2 in the discrete wave energy";
 /// The y label of a multistep method, whose state stacks its time levels.
 const Y_LABEL_STACKED: &str = "max over wavevectors of ||G^n||_2 (weighted, stacked time levels)";
 
