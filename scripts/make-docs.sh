@@ -83,3 +83,9 @@ done
 "$kgain" merge "$work"/shards/* --out "$work/tunnel-sweep" --quiet
 cp "$work/tunnel-sweep/chart_limit_courant_max.png" docs/img/tunnel-euler-mach-sweep.png
 cp "$work/tunnel-sweep/sweep.csv" docs/sweep/tunnel-euler-mach-sweep.csv
+
+# second-order-in-time waves (tutorial): the quarry case with beta = 0.1,
+# beyond its limit, for the footprint in z = dt^2 mu
+out="$work/quarry-beta0.1"
+"$kgain" run cases/quarry-seismic-newmark.toml --out "$out" --force --quiet --set time.beta=0.1
+cp "$out/footprint.png" docs/img/quarry-seismic-newmark-beta0.1-footprint.png
