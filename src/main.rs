@@ -323,6 +323,12 @@ fn run(cli: Cli) -> Result<(), Failure> {
                     theta.join(", ")
                 )));
             }
+            // the table's results go out while the arrays and pictures are
+            // written; the output row and the cautions once the folder is in place
+            let table = !json && !quiet;
+            if table {
+                emit(&report::human_summary_parts(&case.problem, &results, None).0);
+            }
             let written = dest
                 .commit(|dir| report::write_into(dir, &case.problem, &results))
                 .map_err(|e| match e {
@@ -332,12 +338,8 @@ fn run(cli: Cli) -> Result<(), Failure> {
             if json {
                 let s = report::summary_json(&case.problem, &results);
                 emit(&(serde_json::to_string_pretty(&s).expect("JSON serialises") + "\n"));
-            } else if !quiet {
-                emit(&report::human_summary(
-                    &case.problem,
-                    &results,
-                    Some(&written),
-                ));
+            } else if table {
+                emit(&report::human_summary_parts(&case.problem, &results, Some(&written)).1);
             }
             if let Some(line) = gate
                 .active()

@@ -23,7 +23,7 @@ use serde_json::Value;
 use std::path::{Path, PathBuf};
 
 pub use json::summary_json;
-pub use table::human_summary;
+pub use table::{human_summary, human_summary_parts};
 
 /// Errors while writing the output folder.
 #[derive(Debug, thiserror::Error)]

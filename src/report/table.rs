@@ -9,6 +9,18 @@ use std::fmt::Write;
 
 /// The human summary of a run.
 pub fn human_summary(problem: &Problem, r: &Results, out: Option<&std::path::Path>) -> String {
+    let (head, tail) = human_summary_parts(problem, r, out);
+    head + &tail
+}
+
+/// The human summary in two parts: the results (everything above the output
+/// row), which `kgain run` prints while the files are written, and the output
+/// row with the cautions, printed once the folder is in place.
+pub fn human_summary_parts(
+    problem: &Problem,
+    r: &Results,
+    out: Option<&std::path::Path>,
+) -> (String, String) {
     let mut s = String::new();
     let _ = writeln!(
         s,
@@ -52,14 +64,15 @@ pub fn human_summary(problem: &Problem, r: &Results, out: Option<&std::path::Pat
     for section in ALL {
         section.rows(problem, r, &mut rows);
     }
-    if let Some(o) = out {
-        rows.push(("output".into(), format!("{}/", o.display())));
-    }
-    for c in &r.cautions {
-        rows.push(("caution".into(), c.clone()));
-    }
     for (k, v) in rows {
         let _ = writeln!(s, "  {k:<14}{v}");
     }
-    s
+    let mut tail = String::new();
+    if let Some(o) = out {
+        let _ = writeln!(tail, "  {:<14}{}/", "output", o.display());
+    }
+    for c in &r.cautions {
+        let _ = writeln!(tail, "  {:<14}{c}", "caution");
+    }
+    (s, tail)
 }
