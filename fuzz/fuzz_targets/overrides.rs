@@ -8,7 +8,7 @@ use kgain_fuzz::tiny;
 use libfuzzer_sys::fuzz_target;
 
 /// The bundled cases, in the order the first byte picks them.
-const CASES: [&str; 12] = [
+const CASES: [&str; 14] = [
     include_str!("../../cases/basin-agrid.toml"),
     include_str!("../../cases/basin-bgrid.toml"),
     include_str!("../../cases/basin-cgrid.toml"),
@@ -21,6 +21,8 @@ const CASES: [&str; 12] = [
     include_str!("../../cases/kiln-wall-heat.toml"),
     include_str!("../../cases/lake-rotating-waves.toml"),
     include_str!("../../cases/river-sediment-growth.toml"),
+    include_str!("../../cases/quarry-seismic-newmark.toml"),
+    include_str!("../../cases/tunnel-euler-mach.toml"),
 ];
 
 /// Most overrides applied from one input.
