@@ -197,6 +197,16 @@ fn write_csv(dir: &Path, ds: &Dataset) -> Result<(), WriteError> {
     std::fs::write(&p, out).map_err(|e| fail(&p, e))
 }
 
+/// The unit of a case key where the key itself fixes it (angles in degrees);
+/// other keys are in the case's own units, which kgain does not know.
+fn key_unit(key: &str) -> &'static str {
+    if key.ends_with("_deg") {
+        "degree"
+    } else {
+        ""
+    }
+}
+
 fn chart_spec(ds: &Dataset, k: usize, data: &[f64]) -> ChartSpec {
     let figure = &ds.spec.figures[k];
     let (long_name, unit) = figures::describe(figure);
@@ -219,7 +229,7 @@ fn chart_spec(ds: &Dataset, k: usize, data: &[f64]) -> ChartSpec {
             .zip(ds.case_values)
             .map(|(a, own)| ChartAxis {
                 key: a.key.clone(),
-                unit: String::new(),
+                unit: key_unit(&a.key).to_string(),
                 labels: a.levels.iter().map(|l| l.label()).collect(),
                 numbers: if a.numeric() {
                     a.levels.iter().filter_map(|l| l.number()).collect()
