@@ -343,3 +343,26 @@ fn bad_arguments_exit_2_naming_themselves() {
         assert!(!Path::new(&out).exists(), "{args:?} wrote output");
     }
 }
+
+#[test]
+fn combinations_run_at_once_must_fit_in_memory_together() {
+    // under an address-space limit of ~390 MB, four 513^2 combinations at a
+    // time do not fit (each fits alone): refused before anything runs, exit 2
+    let tmp = tempfile::tempdir().unwrap();
+    let out = tmp.path().join("mem");
+    let tunnel = case("cases/tunnel-euler-mach.toml");
+    let script = format!(
+        "ulimit -v 400000; exec {} sweep {} --vary model.mach=0:0.9:4 --set 'scan.points=[513,513]' --threads 4 --quiet --out {}",
+        env!("CARGO_BIN_EXE_kgain"),
+        tunnel,
+        out.display()
+    );
+    let r = Command::new("sh").arg("-c").arg(&script).output().unwrap();
+    let err = String::from_utf8_lossy(&r.stderr);
+    assert_eq!(r.status.code(), Some(2), "{err}");
+    assert!(
+        err.contains("--threads 4: 4 combinations at a time"),
+        "{err}"
+    );
+    assert!(!out.exists());
+}

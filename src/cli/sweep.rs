@@ -118,6 +118,7 @@ pub fn sweep(a: SweepArgs) -> Result<String, Failed> {
     for case in &cases {
         super::memory::check(&case.problem, &case.plan).map_err(|e| input(case.error_at(e)))?;
     }
+    check_concurrent_memory(&cases, a.threads)?;
     let name = first.problem.name.clone();
     let source = kgain::report::case_identity(&first.problem);
     let owner = Owner {
@@ -191,6 +192,33 @@ pub fn sweep(a: SweepArgs) -> Result<String, Failed> {
         )),
         written.display()
     ))
+}
+
+/// With one combination per thread at a time, the largest combination's
+/// single-thread estimate times the threads must fit in 80% of the memory.
+fn check_concurrent_memory(cases: &[kgain::case::Case], threads: usize) -> Result<(), Failed> {
+    let threads = if threads == 0 {
+        super::memory::default_threads()
+    } else {
+        threads
+    };
+    if cases.len() < threads || threads < 2 {
+        return Ok(()); // one combination at a time: checked one by one above
+    }
+    let each = cases
+        .iter()
+        .map(|c| c.plan.memory_estimate(&c.problem, 1))
+        .max()
+        .unwrap_or(0);
+    let need = each * threads as u128;
+    let avail = super::memory::available(threads);
+    if need > avail.bytes as u128 * 4 / 5 {
+        return Err(input(format!(
+            "--threads {threads}: {threads} combinations at a time need about {need} bytes ({each} each), more than 80% of the {} bytes this process may use (set by the {}); use fewer threads or a smaller scan.points",
+            avail.bytes, avail.source
+        )));
+    }
+    Ok(())
 }
 
 /// The case text with the user's own `--set` applied (for the case's values).
