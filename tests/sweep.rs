@@ -366,3 +366,35 @@ fn combinations_run_at_once_must_fit_in_memory_together() {
     );
     assert!(!out.exists());
 }
+
+#[test]
+fn the_terminal_names_each_figures_extremes_and_the_cautions() {
+    let tmp = tempfile::tempdir().unwrap();
+    let out = tmp.path().join("t").display().to_string();
+    let peer = case("bench/peer-euler2d.toml");
+    let r = kgain(&[
+        "sweep",
+        &peer,
+        "--vary",
+        "time.method=rk4,ssprk3",
+        "--figures",
+        "limit.courant_max",
+        "--set",
+        "scan.points=[17,17]",
+        "--out",
+        &out,
+    ]);
+    assert_eq!(
+        r.status.code(),
+        Some(0),
+        "{}",
+        String::from_utf8_lossy(&r.stderr)
+    );
+    let text = String::from_utf8_lossy(&r.stdout);
+    // SSP-RK3 has the smaller imaginary-axis interval (√3 against 2√2)
+    assert!(text.contains("limit.courant_max"), "{text}");
+    assert!(text.contains("at (time.method=ssprk3), max"), "{text}");
+    assert!(text.contains("at (time.method=rk4)\n"), "{text}");
+    assert!(text.contains("necessary condition"), "{text}");
+    assert!(text.contains("safety margin"), "{text}");
+}

@@ -149,6 +149,7 @@ pub fn sweep(a: SweepArgs) -> Result<String, Failed> {
         kgain::report::plot::scheme_subtitle(&first.problem),
         varied.join(", ")
     );
+    let extremes = dataset::extremes_text(&spec, range.start, &values);
     let written = match shard {
         Some(s) => {
             let data = ShardData {
@@ -177,7 +178,7 @@ pub fn sweep(a: SweepArgs) -> Result<String, Failed> {
         }
     };
     Ok(format!(
-        "kgain: sweep of {} over {} ({} of {} combinations{}) -> {}\n",
+        "kgain: sweep of {} over {} ({} of {} combinations{}) -> {}\n{extremes}",
         name,
         spec.axes
             .iter()
@@ -274,10 +275,11 @@ pub fn merge(dirs: &[PathBuf], out: &Path, force: bool) -> Result<String, Failed
     };
     let written = commit(dest, out, |dir| dataset::write_into(dir, &ds))?;
     Ok(format!(
-        "kgain: merged {} shard(s) of the sweep of {} ({} combinations) -> {}\n",
+        "kgain: merged {} shard(s) of the sweep of {} ({} combinations) -> {}\n{}",
         dirs.len(),
         whole.case_name,
         whole.spec.len(),
-        written.display()
+        written.display(),
+        dataset::extremes_text(&whole.spec, 0, &whole.values)
     ))
 }

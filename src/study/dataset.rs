@@ -162,6 +162,51 @@ pub fn write_into(dir: &Path, ds: &Dataset) -> Result<Value, WriteError> {
     }))
 }
 
+/// Six significant digits for the terminal (the CSV and arrays keep every bit).
+fn six_digits(x: f64) -> String {
+    if !x.is_finite() || x == 0.0 {
+        return number_text(x);
+    }
+    let e = x.abs().log10().floor();
+    if (-3.0..6.0).contains(&e) {
+        format!("{:.*}", (5.0 - e) as usize, x)
+    } else {
+        format!("{x:.5e}")
+    }
+}
+
+/// Lines for the terminal: per figure, its smallest and largest value and the
+/// combinations holding them (NaN values skipped), then the cautions.
+/// `first` is the index of `values[0]` among all combinations.
+pub fn extremes_text(spec: &SweepSpec, first: usize, values: &[Vec<f64>]) -> String {
+    let mut out = String::new();
+    for (k, figure) in spec.figures.iter().enumerate() {
+        let finite: Vec<(usize, f64)> = values
+            .iter()
+            .enumerate()
+            .map(|(i, row)| (first + i, row[k]))
+            .filter(|(_, v)| !v.is_nan())
+            .collect();
+        let lo = finite.iter().min_by(|a, b| a.1.total_cmp(&b.1));
+        let hi = finite.iter().max_by(|a, b| a.1.total_cmp(&b.1));
+        let line = match (lo, hi) {
+            (Some(&(il, vl)), Some(&(ih, vh))) => format!(
+                "min {} at ({}), max {} at ({})",
+                six_digits(vl),
+                spec.describe(il),
+                six_digits(vh),
+                spec.describe(ih)
+            ),
+            _ => "no value (NaN in every combination)".to_string(),
+        };
+        out.push_str(&format!("  {figure:<30}{line}\n"));
+    }
+    for c in CAUTIONS {
+        out.push_str(&format!("  {:<30}{c}\n", "caution"));
+    }
+    out
+}
+
 fn csv_field(s: &str) -> String {
     if s.contains([',', '"', '\n']) {
         format!("\"{}\"", s.replace('"', "\"\""))
