@@ -89,3 +89,9 @@ cp "$work/tunnel-sweep/sweep.csv" docs/sweep/tunnel-euler-mach-sweep.csv
 out="$work/quarry-beta0.1"
 "$kgain" run cases/quarry-seismic-newmark.toml --out "$out" --force --quiet --set time.beta=0.1
 cp "$out/footprint.png" docs/img/quarry-seismic-newmark-beta0.1-footprint.png
+
+# tutorial section 8: the duct swept over the method and the mean flow
+"$kgain" sweep cases/duct-acoustics.toml --vary time.method=rk4,lsrk54,lddrk-hhm \
+    --vary 'model.velocity[0]=0:100:6' --set 'scan.points=[65, 65]' \
+    --out "$work/duct-sweep" --quiet
+cp "$work/duct-sweep/chart_limit_courant_max.png" docs/img/duct-acoustics-sweep-methods.png
