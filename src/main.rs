@@ -179,6 +179,19 @@ fn destination(e: DestinationError) -> Failure {
     }
 }
 
+/// `--threads`: at least 1 and at most [`MAX_THREADS`]; 0 (one per core) when
+/// not given.
+fn thread_count(threads: Option<usize>) -> Result<usize, Failure> {
+    match threads {
+        Some(0) => Err(Failure::Input("--threads must be at least 1".into())),
+        Some(n) if n > MAX_THREADS => Err(Failure::Input(format!(
+            "--threads {n}: at most {MAX_THREADS} worker threads"
+        ))),
+        Some(n) => Ok(n),
+        None => Ok(0),
+    }
+}
+
 fn failed(f: cli::sweep::Failed) -> Failure {
     if f.input {
         Failure::Input(f.message)
@@ -222,16 +235,7 @@ fn run(cli: Cli) -> Result<(), Failure> {
             quiet,
             force,
         } => {
-            let threads = match threads {
-                Some(0) => return Err(Failure::Input("--threads must be at least 1".into())),
-                Some(n) if n > MAX_THREADS => {
-                    return Err(Failure::Input(format!(
-                        "--threads {n}: at most {MAX_THREADS} worker threads"
-                    )))
-                }
-                Some(n) => n,
-                None => 0,
-            };
+            let threads = thread_count(threads)?;
             let text = cli::sweep::sweep(cli::sweep::SweepArgs {
                 case,
                 vary,
@@ -288,16 +292,7 @@ fn run(cli: Cli) -> Result<(), Failure> {
                     case.file.display()
                 )));
             }
-            let par = match threads {
-                Some(0) => return Err(Failure::Input("--threads must be at least 1".into())),
-                Some(n) if n > MAX_THREADS => {
-                    return Err(Failure::Input(format!(
-                        "--threads {n}: at most {MAX_THREADS} worker threads"
-                    )))
-                }
-                Some(n) => Par::Threads(n),
-                None => Par::Threads(0),
-            };
+            let par = Par::Threads(thread_count(threads)?);
             let need = cli::memory::check(&case.problem, &case.plan)
                 .map_err(|e| Failure::Input(case.error_at(e).to_string()))?;
             let out = out.unwrap_or_else(|| PathBuf::from("output").join(&case.problem.name));

@@ -133,14 +133,12 @@ pub fn sweep(a: SweepArgs) -> Result<String, Failed> {
     let values =
         run::run(&sin, &spec, range.clone(), &cases, &|| progress.inc(1)).map_err(sweep_failure)?;
     progress.finish_and_clear();
-    let base = Case0 {
-        text: &text,
-        set: &a.set,
-    };
+    // the case's own value of each key: the text with the user's --set applied
+    let base = kgain::case::apply_overrides(&text, "case", &a.set).unwrap_or_else(|_| text.clone());
     let case_values: Vec<Option<String>> = spec
         .axes
         .iter()
-        .map(|ax| kgain::study::case_value(&base.text_with_set(), &ax.key))
+        .map(|ax| kgain::study::case_value(&base, &ax.key))
         .collect();
     let fingerprint = spec.fingerprint(&text, &a.set);
     let varied: Vec<&str> = spec.axes.iter().map(|x| x.key.as_str()).collect();
@@ -220,19 +218,6 @@ fn check_concurrent_memory(cases: &[kgain::case::Case], threads: usize) -> Resul
         )));
     }
     Ok(())
-}
-
-/// The case text with the user's own `--set` applied (for the case's values).
-struct Case0<'a> {
-    text: &'a str,
-    set: &'a [String],
-}
-
-impl Case0<'_> {
-    fn text_with_set(&self) -> String {
-        kgain::case::apply_overrides(self.text, "case", self.set)
-            .unwrap_or_else(|_| self.text.to_string())
-    }
 }
 
 fn sweep_failure(e: SweepError) -> Failed {
