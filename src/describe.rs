@@ -380,3 +380,72 @@ fn second_order_methods() -> String {
     }
     s
 }
+
+/// `kgain check` on a probe case: what will be run and measured, without
+/// running the program.
+pub fn check_probe(case: &crate::case::probe::ProbeCase) -> String {
+    use std::fmt::Write;
+    let spec = &case.spec;
+    let plan = &case.plan;
+    let mut t = String::new();
+    let _ = writeln!(t, "probe case {} ({})", case.name, case.file.display());
+    if let Some(d) = &case.description {
+        let _ = writeln!(t, "  {d}");
+    }
+    let _ = writeln!(t, "  program       {}", case.command.join(" "));
+    let _ = writeln!(t, "  runs in       {}", case.folder.display());
+    let _ = writeln!(
+        t,
+        "  timeout       {} s per run",
+        case.timeout.as_secs_f64()
+    );
+    let cells: Vec<String> = spec.cells.iter().map(|n| n.to_string()).collect();
+    let _ = writeln!(
+        t,
+        "  grid          {} periodic cells, spacing {:?}",
+        cells.join(" x "),
+        case.spacing
+    );
+    let _ = writeln!(t, "  time step     dt = {:e}", plan.dt);
+    if let Some((nu, c)) = case.courant {
+        let _ = writeln!(t, "  Courant       {nu:.6} (wave speed {c})");
+    }
+    for (j, v) in spec.variables.iter().enumerate() {
+        let _ = writeln!(
+            t,
+            "  variable      {v}: base {}, impulse {:e}, offset in the cell {:?}",
+            spec.base[j],
+            spec.amplitude_of(j),
+            spec.locations[j]
+        );
+    }
+    match &case.model {
+        Some(m) => {
+            let _ = writeln!(t, "  compared with model {m} (exact frequencies)");
+        }
+        None => {
+            let _ = writeln!(t, "  compared with no model");
+        }
+    }
+    let mut analyses = Vec::new();
+    if plan.radius {
+        analyses.push("radius".to_string());
+    }
+    if plan.limit.is_some() {
+        analyses.push("limit (re-runs the program)".into());
+    }
+    if let Some(n) = plan.growth_steps {
+        analyses.push(format!("growth (n <= {n}, norm: {})", plan.norm_origin()));
+    }
+    if plan.dispersion {
+        analyses.push("dispersion".into());
+    }
+    let _ = writeln!(t, "  analyses      {}", analyses.join(", "));
+    let _ = writeln!(
+        t,
+        "  program runs  {} for the matrices and checks (1 + 3 per variable), plus {} per limit probe",
+        1 + 3 * spec.m(),
+        1 + spec.m()
+    );
+    t
+}

@@ -43,6 +43,7 @@ pub mod linalg;
 pub mod numeric;
 pub mod operator;
 pub mod physics;
+pub mod probe;
 pub mod problem;
 pub mod report;
 pub mod sample;

@@ -114,10 +114,35 @@ enum Command {
         #[arg(long)]
         force: bool,
     },
+    /// Probe a real solver's time-step program (see `kgain run` on a case with a
+    /// [probe] table).
+    Probe {
+        #[command(subcommand)]
+        what: ProbeCommand,
+    },
     /// List built-in models, stencils and time methods.
     List {
         /// What to list (default: everything).
         what: Option<ListWhat>,
+    },
+}
+
+#[derive(Subcommand, Debug)]
+enum ProbeCommand {
+    /// Compare the probed amplification matrices with those of a case file
+    /// describing the intended scheme, on the probe's wavevectors and dt; exit 0
+    /// when they agree within the tolerance, 1 when they do not.
+    Compare {
+        /// The probe case (TOML with a [probe] table).
+        probe_case: PathBuf,
+        /// The case file of the intended scheme.
+        case: PathBuf,
+        /// Largest difference accepted, relative to max |G|.
+        #[arg(long, default_value_t = 1e-8)]
+        tolerance: f64,
+        /// Override a key of the probe case (repeatable).
+        #[arg(long = "set", value_name = "KEY=VALUE")]
+        set: Vec<String>,
     },
 }
 
@@ -265,8 +290,39 @@ fn run(cli: Cli) -> Result<(), Failure> {
             }
             Ok(())
         }
+        Command::Probe {
+            what:
+                ProbeCommand::Compare {
+                    probe_case,
+                    case,
+                    tolerance,
+                    set,
+                },
+        } => {
+            let (text, same) =
+                cli::probe::compare(&probe_case, &case, &set, tolerance).map_err(failed)?;
+            emit(&text);
+            if same {
+                Ok(())
+            } else {
+                Err(Failure::Other(format!(
+                    "{}: the probed matrices differ from those of {}",
+                    probe_case.display(),
+                    case.display()
+                )))
+            }
+        }
         Command::Check { case, set } => {
-            let case = Case::load(&case, &set).map_err(|e| Failure::Input(e.to_string()))?;
+            let text = kgain::case::case_text(&case, &case.display().to_string())
+                .map_err(|e| Failure::Input(e.to_string()))?;
+            if kgain::case::probe::is_probe(&text) {
+                let pc = kgain::case::probe::ProbeCase::from_str_with(&text, &case, &set)
+                    .map_err(|e| Failure::Input(e.to_string()))?;
+                emit(&kgain::describe::check_probe(&pc));
+                return Ok(());
+            }
+            let case = Case::from_str_with(&text, &case, &set)
+                .map_err(|e| Failure::Input(e.to_string()))?;
             emit(&kgain::describe::check(&case));
             Ok(())
         }
@@ -281,7 +337,41 @@ fn run(cli: Cli) -> Result<(), Failure> {
             require_margin,
             json,
         } => {
-            let case = Case::load(&case, &set).map_err(|e| Failure::Input(e.to_string()))?;
+            let text = kgain::case::case_text(&case, &case.display().to_string())
+                .map_err(|e| Failure::Input(e.to_string()))?;
+            if kgain::case::probe::is_probe(&text) {
+                let pc = kgain::case::probe::ProbeCase::from_str_with(&text, &case, &set)
+                    .map_err(|e| Failure::Input(e.to_string()))?;
+                let threads = thread_count(threads)?;
+                let out = out.unwrap_or_else(|| PathBuf::from("output").join(&pc.name));
+                let end = cli::probe::run(cli::probe::ProbeRunArgs {
+                    case: &pc,
+                    threads,
+                    out,
+                    quiet,
+                    force,
+                    json,
+                    require_stable,
+                    require_margin,
+                })
+                .map_err(failed)?;
+                return match end {
+                    cli::probe::ProbeEnd::Done(t) => {
+                        emit(&t);
+                        Ok(())
+                    }
+                    cli::probe::ProbeEnd::Gate(t, line) => {
+                        emit(&t);
+                        Err(Failure::Unstable(line))
+                    }
+                    cli::probe::ProbeEnd::ChecksFailed(t, m) => {
+                        emit(&t);
+                        Err(Failure::Other(m))
+                    }
+                };
+            }
+            let case = Case::from_str_with(&text, &case, &set)
+                .map_err(|e| Failure::Input(e.to_string()))?;
             let gate = cli::verdict::Gate {
                 stable: require_stable,
                 margin: require_margin,

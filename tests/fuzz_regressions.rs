@@ -84,3 +84,21 @@ fn wide_user_stencil_with_implicit_tableau_runs() {
     let max = json["radius"]["max"].as_f64().expect("a radius");
     assert!(max.is_finite() && max > 0.0, "{json:#}");
 }
+
+/// user_stencils_and_tableaux, timeout (the 10⁷-execution run, 2 s with the
+/// other core building): an 11-point first-derivative stencil reaching 147
+/// cells to the left, an eight-stage implicit tableau with entries up to 257 and
+/// Courant number 257 on 2-D acoustics, whose extra analysis on the fuzz path is
+/// the limit. 1.85 s alone on the instrumented fuzz build, 0.43 s as a release
+/// `kgain run` on the same 9-point scan: the overall limit solves a degree-8
+/// stability polynomial per probed eigenvalue. No library fault; the case must
+/// validate, its radius map must be finite and the limit must be a result.
+#[test]
+fn eight_stage_implicit_tableau_with_wide_stencil_runs() {
+    let text = include_str!("../fuzz/findings/eight-stage-implicit-tableau-wide-stencil.toml");
+    assert_eq!(tiny::extra(text, &[]), Some(tiny::Extra::Limit));
+    let json = ran(replay(text, &[]));
+    let max = json["radius"]["max"].as_f64().expect("a radius");
+    assert!(max.is_finite() && max > 0.0, "{json:#}");
+    assert!(json["limit"]["kind"].is_string(), "{json:#}");
+}

@@ -133,7 +133,7 @@ fn choice(spec: &Option<OneOrMany<String>>) -> StencilChoice {
 }
 
 /// The keys of `[model]` other than `kind`, as model parameters.
-fn model_params(table: &toml::Table) -> Result<Params, InputError> {
+pub(super) fn model_params(table: &toml::Table) -> Result<Params, InputError> {
     let mut p = Params::new();
     for (key, v) in table {
         p = p.with(key, value(&format!("model.{key}"), v)?);

@@ -10,6 +10,7 @@ mod keypath;
 mod locate;
 mod lowstorage;
 mod plain;
+pub mod probe;
 mod rational;
 mod raw;
 mod read;

@@ -5,6 +5,7 @@
 //! folders and progress ([`sweep`]).
 
 pub mod memory;
+pub mod probe;
 pub mod progress;
 pub mod sweep;
 pub mod verdict;

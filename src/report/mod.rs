@@ -12,6 +12,7 @@ pub mod format;
 mod json;
 pub mod npy;
 pub mod plot;
+pub mod probe;
 mod sections;
 mod table;
 
