@@ -3,8 +3,8 @@
 
 The loader is the Python block after the `<!-- xarray-loader -->` marker in README.md, extracted
 and executed as written, so the README cannot drift from what works. For each case (2-D, 3-D,
-multistep with its computational modes, a linear user system, sampled L and G matrices, and a
-`kgain sweep` folder over a numeric and a text key) it
+multistep with its computational modes, a linear user system, sampled L and G matrices, a probe
+of an example program, and a `kgain sweep` folder over a numeric and a text key) it
 runs kgain into a temporary folder, loads the folder into one xarray Dataset and checks that:
 every array of the manifest is in the Dataset with its shape and dims; every dimension has a 1-D
 coordinate of its own length; each dimension name stands for one length; units and long_name are
@@ -32,6 +32,9 @@ CASES = [
     ("feedline-telegraph.toml", ["scan.points=[33]", "scan.matrices=2"]),
     ("river-sediment-growth.toml", ["scan.points=[33]", "scan.matrices=3"]),
     ("kiln-wall-heat.toml", ["scan.points=[17,17]"]),
+    # a probe of a user's program (python3 + numpy): measured G, maps, frequencies
+    ("../examples/probe/cgrid-shallow-water.probe.toml",
+     ['scan.analyses=["radius", "growth", "dispersion"]']),
 ]
 
 
@@ -51,7 +54,7 @@ SWEEP = ("tunnel-euler-mach.toml", ["--vary", "model.mach=0:0.9:3", "--vary", "t
 
 
 def check(case, sets, load, tmp, command="run"):
-    out = os.path.join(tmp, case.removesuffix(".toml") + "-" + command)
+    out = os.path.join(tmp, pathlib.Path(case).name.removesuffix(".toml") + "-" + command)
     cmd = [str(KGAIN), command, str(ROOT / "cases" / case), "--out", out, "--quiet"]
     for s in sets:
         cmd += [s] if command == "sweep" else ["--set", s]

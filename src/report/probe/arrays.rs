@@ -26,7 +26,7 @@ pub fn arrays<'a>(case: &'a ProbeCase, r: &'a ProbeResults) -> Vec<Array<'a>> {
             AXES[d],
             &[*n],
             theta_axis(*n),
-            vec![plain(AXES[d])],
+            vec![axis(AXES[d], &format!("{}.npy", AXES[d]))],
             "rad",
             "grid wavevector theta = 2 pi j / N along the axis, ascending (the FFT order shifted)",
         ));
@@ -122,11 +122,11 @@ pub fn arrays<'a>(case: &'a ProbeCase, r: &'a ProbeResults) -> Vec<Array<'a>> {
                 "limit_search",
                 &[l.evaluations.len(), 2],
                 flat,
-                vec![plain("evaluation"), plain("column")],
+                vec![plain("evaluation"), plain("quantity")],
                 "1",
                 "the limit search in order: (dt, max spectral radius over the grid) per probe",
             )
-            .with("columns", json!(["dt", "max_radius"])),
+            .with("quantities", json!(["dt", "max_radius"])),
         );
     }
     out

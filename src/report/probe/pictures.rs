@@ -134,7 +134,7 @@ pub fn write(dir: &Path, case: &ProbeCase, r: &ProbeResults) -> Result<Vec<Strin
                 figure: "max_radius".into(),
                 figure_label: "max spectral radius over the grid".into(),
                 figure_unit: String::new(),
-                axes: vec![numeric("dt", "", &dts, Some(case.plan.dt))],
+                axes: vec![numeric("dt", "units of probe.dt", &dts, Some(case.plan.dt))],
                 values: pairs.iter().map(|p| p.1).collect(),
             },
         ));
