@@ -181,6 +181,11 @@ pub fn tableau(a: &[Vec<f64>], b: &[f64]) -> Result<Method, MethodError> {
         .collect();
     let coeffs = |f: &dyn Fn(C64) -> C64| -> Vec<f64> {
         let vals: Vec<C64> = nodes.iter().map(|z| f(*z)).collect();
+        // the interpolation's rounding is relative to the largest value on the
+        // circle: a coefficient below it is noise, and kept it would raise the
+        // degree (spurious huge roots, and a companion matrix of the full
+        // degree at every exit computation)
+        let noise = vals.iter().fold(0.0_f64, |m, v| m.max(v.norm())) * 1e-13;
         (0..n)
             .map(|j| {
                 let c: C64 = vals
@@ -189,7 +194,7 @@ pub fn tableau(a: &[Vec<f64>], b: &[f64]) -> Result<Method, MethodError> {
                     .map(|(v, z)| v * z.powi(-(j as i32)))
                     .sum();
                 let c = c / n as f64;
-                if c.re.abs() < 1e-14 {
+                if c.re.abs() < noise.max(1e-14) {
                     0.0
                 } else {
                     c.re
