@@ -172,6 +172,19 @@ fn untrusted_node_next_to_the_origin_is_no_evidence() {
     assert_seed_agrees(203);
 }
 
+/// IMEX CNAB2 on 3-D advection with upwind2 along x and central2 along y and
+/// z, no diffusivity. Once failed on the unsafe side in kind: the directions
+/// (0, ±1, ±1)/√2 reported a bounded 0.0646 where the reference finds no stable
+/// Δt (overall was already "none"). On those rays θ_x = 0, L is exactly
+/// imaginary, and the explicit AB2 part grows as (Δt|μ|)⁴/4 at every Δt; the
+/// per-wavevector ladder met the growth only where it rose past its rounding
+/// level. An untrusted crossing at an exactly imaginary L whose growth above
+/// follows a power of Δt is now "unstable at every Δt".
+#[test]
+fn power_law_growth_on_an_exactly_imaginary_ray_is_none() {
+    assert_seed_agrees(565);
+}
+
 /// A seed the engine passes today (keeps the helper itself tested).
 #[test]
 fn passing_seed_agrees_with_the_reference() {
