@@ -95,3 +95,10 @@ cp "$out/footprint.png" docs/img/quarry-seismic-newmark-beta0.1-footprint.png
     --vary 'model.velocity[0]=0:100:6' --set 'scan.points=[65, 65]' \
     --out "$work/duct-sweep" --quiet
 cp "$work/duct-sweep/chart_limit_courant_max.png" docs/img/duct-acoustics-sweep-methods.png
+
+# tutorial section 8: a probe of the example C-grid program with its sign error
+# (python3 + numpy)
+out="$work/reservoir-signbug-probe"
+(cd examples/probe && "$kgain" run cgrid-shallow-water-signbug.probe.toml --out "$out" --force \
+    --quiet --set 'scan.analyses=["radius"]')
+cp "$out/radius.png" docs/img/reservoir-cgrid-signbug-probe-radius.png
