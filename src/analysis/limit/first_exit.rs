@@ -48,6 +48,11 @@ impl<'m> ExitTimes<'m> {
         }
     }
 
+    /// The method.
+    pub fn method(&self) -> &Method {
+        self.method
+    }
+
     fn dir(&self, mu: C64) -> Dir {
         let r = mu.norm();
         if r == 0.0 {

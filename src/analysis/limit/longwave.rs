@@ -92,7 +92,29 @@ pub fn along(f: &dyn FirstLoss, origin: &[f64], n: &[f64]) -> LongWave {
             break;
         }
     }
-    let (limit, uncertainty) = conclude(&values, &estimates);
+    let (mut limit, mut uncertainty) = conclude(&values, &estimates);
+    // the closed form of the leading orders, where it applies and lies within
+    // what the samples allow, replaces the extrapolation and its uncertainty
+    if let Some(exact) = f.long_wave(origin, n) {
+        let slack = 1e-9 * limit.abs();
+        let within = if limit.is_finite() {
+            exact.is_finite()
+                && exact >= limit - uncertainty - slack
+                && exact <= limit + uncertainty + slack
+        } else {
+            exact.is_infinite()
+        };
+        if within {
+            (limit, uncertainty) = (
+                exact,
+                if exact.is_finite() {
+                    1e-12 * exact
+                } else {
+                    0.0
+                },
+            );
+        }
+    }
     LongWave {
         limit,
         uncertainty,

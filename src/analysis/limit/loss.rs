@@ -54,11 +54,19 @@ impl Loss {
 pub trait FirstLoss {
     /// The first loss at θ.
     fn at(&self, theta: &[f64]) -> Loss;
+
+    /// Its limit along `origin + s n` as s → 0 in closed form, where one is
+    /// known ([`super::closed_form`]).
+    fn long_wave(&self, _origin: &[f64], _n: &[f64]) -> Option<f64> {
+        None
+    }
 }
 
 /// Exact first-exit times of one-step and multistep methods.
 pub struct Exact<'a> {
     exits: &'a ExitTimes<'a>,
+    op: &'a Operator,
+    tolerance: f64,
     work: RefCell<(Spectrum<'a>, Vec<C64>)>,
 }
 
@@ -67,6 +75,8 @@ impl<'a> Exact<'a> {
     pub fn new(op: &'a Operator, exits: &'a ExitTimes<'a>, tolerance: f64) -> Self {
         Exact {
             exits,
+            op,
+            tolerance,
             work: RefCell::new((Spectrum::new(op, tolerance), vec![C64::new(0.0, 0.0); op.m])),
         }
     }
@@ -97,6 +107,15 @@ impl FirstLoss for Exact<'_> {
                 trusted,
                 bound: trusted,
             },
+        }
+    }
+
+    fn long_wave(&self, origin: &[f64], n: &[f64]) -> Option<f64> {
+        match &self.exits.method().scheme {
+            crate::time::Scheme::OneStep(os) => {
+                super::closed_form::long_wave_limit(os, self.op, self.tolerance, origin, n)
+            }
+            _ => None,
         }
     }
 }

@@ -7,6 +7,7 @@
 
 pub mod abscissa;
 pub mod certify;
+pub mod closed_form;
 pub mod composite;
 pub mod first_exit;
 pub mod longwave;
