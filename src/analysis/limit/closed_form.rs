@@ -19,8 +19,9 @@
 //! an order that does not settle, a positive real part) gives None and the
 //! numerical extrapolation stands.
 
+use crate::linalg::poly;
 use crate::operator::{Operator, Spectrum};
-use crate::time::OneStep;
+use crate::time::{Multistep, OneStep};
 use num_complex::Complex64 as C64;
 
 /// Levels s = S · 2⁻ʲ of the branch fit.
@@ -58,6 +59,52 @@ pub fn imaginary_axis(os: &OneStep) -> Option<(usize, f64)> {
         }
     }
     None
+}
+
+/// (k, c) of a linear multistep method's principal root:
+/// |ζ₁(iy)|² − 1 = c yᵏ + O(y^{k+2}), from the root nearest e^{iy} at
+/// y = 0.1·2⁻ʲ (k the settled log₂ ratio of successive values, c by
+/// Richardson extrapolation); None when the principal root stays on the unit
+/// circle to rounding (leapfrog) or the order does not settle. AB2: k = 4,
+/// c = 1/2.
+pub fn imaginary_axis_multistep(ms: &Multistep) -> Option<(usize, f64)> {
+    let excess = |y: f64| -> Option<f64> {
+        let z = C64::new(0.0, y);
+        let c: Vec<C64> = ms
+            .alpha
+            .iter()
+            .zip(&ms.beta)
+            .map(|(a, b)| C64::new(*a, 0.0) - z * b)
+            .collect();
+        let roots = poly::roots(&c).ok()?;
+        let target = C64::from_polar(1.0, y);
+        let r = roots
+            .iter()
+            .min_by(|a, b| (**a - target).norm().total_cmp(&(**b - target).norm()))?;
+        Some(r.norm_sqr() - 1.0)
+    };
+    let ys: Vec<f64> = (0..6).map(|j| 0.1 * 0.5f64.powi(j)).collect();
+    let g: Vec<f64> = ys.iter().map(|y| excess(*y)).collect::<Option<_>>()?;
+    if g.iter().all(|v| v.abs() < 1e-12) {
+        return None;
+    }
+    if g.iter().any(|v| v.signum() != g[0].signum() || *v == 0.0) {
+        return None;
+    }
+    let orders: Vec<f64> = g.windows(2).map(|w| (w[0] / w[1]).log2()).collect();
+    let k = orders[orders.len() - 1].round();
+    if !(2.0..=16.0).contains(&k)
+        || k % 2.0 != 0.0
+        || orders[orders.len() - 2..]
+            .iter()
+            .any(|o| (o - k).abs() > 0.05)
+    {
+        return None;
+    }
+    let coefficient = |j: usize| g[j] / ys[j].powi(k as i32);
+    let (p, l) = (coefficient(ys.len() - 2), coefficient(ys.len() - 1));
+    let c = l + (l - p) / 3.0;
+    ((l - p).abs() <= 1e-2 * l.abs()).then_some((k as usize, c))
 }
 
 /// One eigenvalue branch near θ₀: μ ≈ i a s − b sʳ (r = None: no real part
@@ -147,7 +194,18 @@ pub fn long_wave_limit(
     origin: &[f64],
     n: &[f64],
 ) -> Option<f64> {
-    let (k, c) = imaginary_axis(os)?;
+    long_wave_limit_from(imaginary_axis(os)?, op, tolerance, origin, n)
+}
+
+/// The same from the method's imaginary-axis behaviour (k, c) near z = 0
+/// (one-step: [`imaginary_axis`]; multistep: [`imaginary_axis_multistep`]).
+pub fn long_wave_limit_from(
+    (k, c): (usize, f64),
+    op: &Operator,
+    tolerance: f64,
+    origin: &[f64],
+    n: &[f64],
+) -> Option<f64> {
     let all = branches(op, tolerance, origin, n)?;
     let scale = all.iter().fold(0.0_f64, |acc, b| acc.max(b.a.abs()));
     let mut limit = f64::INFINITY;
@@ -211,6 +269,34 @@ mod tests {
             "{l} vs {}",
             2.0 * d / (a * a)
         );
+    }
+
+    /// AB2's principal root, from ζ² − ζ = z(3ζ − 1)/2 order by order:
+    /// ζ₁ = 1 + z + z²/2 − z³/4 − z⁴/8 + …, i.e. e^z − (5/12)z³ − (1/6)z⁴, so
+    /// at z = iy: |ζ₁|² − 1 = (5/6)y⁴ − (2/6)y⁴ + O(y⁶) = y⁴/2. AB3 keeps a
+    /// stretch of the imaginary axis (its interval 0.72, `kgain list methods`):
+    /// k = 4 with c < 0. Leapfrog stays on the circle.
+    #[test]
+    fn multistep_principal_root_orders() {
+        let ab2 = Multistep {
+            alpha: vec![0.0, -1.0, 1.0],
+            beta: vec![-0.5, 1.5, 0.0],
+        };
+        let (k, c) = imaginary_axis_multistep(&ab2).unwrap();
+        assert_eq!(k, 4);
+        assert!((c - 0.5).abs() < 1e-4, "{c}");
+        let ab3 = Multistep {
+            alpha: vec![0.0, 0.0, -1.0, 1.0],
+            beta: vec![5.0 / 12.0, -16.0 / 12.0, 23.0 / 12.0, 0.0],
+        };
+        let (k, c) = imaginary_axis_multistep(&ab3).unwrap();
+        assert_eq!(k, 4);
+        assert!(c < 0.0, "{c}");
+        let leapfrog = Multistep {
+            alpha: vec![-1.0, 0.0, 1.0],
+            beta: vec![0.0, 2.0, 0.0],
+        };
+        assert_eq!(imaginary_axis_multistep(&leapfrog), None);
     }
 
     /// Heun (k = 4, c = 1/4) with central differences and no damping: unstable

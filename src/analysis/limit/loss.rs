@@ -111,11 +111,12 @@ impl FirstLoss for Exact<'_> {
     }
 
     fn long_wave(&self, origin: &[f64], n: &[f64]) -> Option<f64> {
-        match &self.exits.method().scheme {
-            crate::time::Scheme::OneStep(os) => {
-                super::closed_form::long_wave_limit(os, self.op, self.tolerance, origin, n)
-            }
-            _ => None,
-        }
+        use super::closed_form::{imaginary_axis, imaginary_axis_multistep, long_wave_limit_from};
+        let axis = match &self.exits.method().scheme {
+            crate::time::Scheme::OneStep(os) => imaginary_axis(os)?,
+            crate::time::Scheme::Multistep(ms) => imaginary_axis_multistep(ms)?,
+            _ => return None,
+        };
+        long_wave_limit_from(axis, self.op, self.tolerance, origin, n)
     }
 }
