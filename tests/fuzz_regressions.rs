@@ -120,3 +120,25 @@ fn eight_stage_implicit_tableau_with_wide_stencil_runs() {
         assert!(os.p.len() <= 3, "P = {:?}", os.p);
     }
 }
+
+/// user_stencils_and_tableaux, timeout (third 10⁷ attempt, after 1,370,890
+/// executions, on the code with the coefficient fix above): the same wide
+/// stencil with an eight-stage tableau whose a has one nonzero row and whose
+/// weights b reach ±1956 (P of degree 2, Q of degree 1): 2.27 s on the
+/// instrumented build alone, 0.54 s as a release `kgain run` of the limit on
+/// the 9-point scan, nearly all of it eigenvalues of L in the long-wave search
+/// of every degenerate origin (the stencil reaches 147 cells, so the long-wave
+/// regime starts only near s = 1/147 and the extrapolation runs many halvings).
+/// Not yet made cheaper: the case must run on the fuzz path with a finite
+/// radius map and a limit.
+#[test]
+fn wide_stencil_with_large_tableau_weights_runs() {
+    let text = include_str!("../fuzz/findings/wide-stencil-tableau-large-weights.toml");
+    let json = ran(replay(text, &[]));
+    let max = json["radius"]["max"].as_f64().expect("a radius");
+    assert!(max.is_finite() && max > 0.0, "{json:#}");
+    let case = Case::from_str_with(text, Path::new(tiny::FILE), &[]).unwrap();
+    let plan = Plan::new(&[9, 9]).with_limit(LimitParams { directions: 6 });
+    let results = analyse(&case.problem, &plan, Par::Seq, &NoProgress).unwrap();
+    assert!(results.limit.is_some());
+}
