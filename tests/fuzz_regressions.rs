@@ -126,9 +126,10 @@ fn eight_stage_implicit_tableau_with_wide_stencil_runs() {
 /// stencil with an eight-stage tableau whose a has one nonzero row and whose
 /// weights b reach ±1956 (P of degree 2, Q of degree 1): 2.27 s on the
 /// instrumented build alone, 0.54 s as a release `kgain run` of the limit on
-/// the 9-point scan, nearly all of it eigenvalues of L in the long-wave search
-/// of every degenerate origin (the stencil reaches 147 cells, so the long-wave
-/// regime starts only near s = 1/147 and the extrapolation runs many halvings).
+/// the 9-point scan, about half of it in the long-wave search at θ = 0 (the
+/// stencil reaches 147 cells, so the long-wave regime starts only near
+/// s = 1/147 and the extrapolation runs many halvings), the rest in the
+/// continuous refinement of the screened candidates.
 /// Not yet made cheaper: the case must run on the fuzz path with a finite
 /// radius map and a limit.
 #[test]
