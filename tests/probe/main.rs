@@ -32,7 +32,37 @@ fn fixture(name: &str) -> String {
     root().join("tests/probe").join(name).display().to_string()
 }
 
+/// The example programs need python3 with numpy: installed once with pip (as
+/// `.ci/run` does) when it is missing, so that `cargo test --release` on a
+/// fresh machine with Python 3 and pip runs these tests rather than failing.
+fn ensure_numpy() {
+    static READY: std::sync::Once = std::sync::Once::new();
+    READY.call_once(|| {
+        let has = |_: ()| {
+            std::process::Command::new("python3")
+                .args(["-c", "import numpy"])
+                .status()
+                .is_ok_and(|s| s.success())
+        };
+        if has(()) {
+            return;
+        }
+        for extra in [&[][..], &["--user"][..]] {
+            let _ = std::process::Command::new("python3")
+                .args(["-m", "pip", "install", "--quiet", "--disable-pip-version-check"])
+                .args(extra)
+                .arg("numpy")
+                .status();
+            if has(()) {
+                return;
+            }
+        }
+        panic!("the probe tests run Python example programs that need numpy: python3 -m pip install numpy");
+    });
+}
+
 fn kgain() -> Command {
+    ensure_numpy();
     Command::cargo_bin("kgain").expect("the kgain binary")
 }
 
