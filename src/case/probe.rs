@@ -9,7 +9,8 @@
 use super::convert::model_params;
 use super::{locate, located, structure_error, CaseError};
 use crate::error::InputError;
-use crate::physics::{catalogue, System};
+use crate::physics::catalogue;
+use crate::probe::spec::variable_order;
 use crate::probe::{ProbeLimitParams, ProbePlan, ProbeSpec};
 use serde::Deserialize;
 use std::path::{Path, PathBuf};
@@ -217,7 +218,11 @@ fn convert(
         None => (None, None),
     };
     let order = match &model {
-        Some(s) => Some(variable_order(s, &spec.variables)?),
+        Some(s) => Some(variable_order(
+            &s.variables,
+            &spec.variables,
+            "the [model]",
+        )?),
         None => None,
     };
     let h_min = spacing.iter().cloned().fold(f64::INFINITY, f64::min);
@@ -352,33 +357,4 @@ fn convert(
         file: path.to_path_buf(),
         text: text.to_string(),
     })
-}
-
-/// The model's index of each probed variable; the two sets must be equal.
-fn variable_order(system: &System, variables: &[String]) -> Result<Vec<usize>, InputError> {
-    let names = &system.variables;
-    let order = variables
-        .iter()
-        .map(|v| {
-            names.iter().position(|n| n == v).ok_or_else(|| {
-                InputError::new(
-                    "probe.variables",
-                    format!(
-                        "`{v}` is not a variable of the [model] (its variables: {})",
-                        names.join(", ")
-                    ),
-                )
-            })
-        })
-        .collect::<Result<Vec<_>, _>>()?;
-    if order.len() != names.len() {
-        return Err(InputError::new(
-            "probe.variables",
-            format!(
-                "name every variable of the [model] ({}), each once",
-                names.join(", ")
-            ),
-        ));
-    }
-    Ok(order)
 }

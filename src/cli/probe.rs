@@ -3,7 +3,7 @@
 //! output folder claimed before any run, nothing written when the program
 //! fails.
 
-use super::sweep::Failed;
+use super::sweep::{destination, input, Failed};
 use indicatif::{ProgressBar, ProgressDrawTarget, ProgressStyle};
 use kgain::case::probe::ProbeCase;
 use kgain::case::Case;
@@ -11,13 +11,6 @@ use kgain::destination::{CommitError, Destination};
 use kgain::probe::{self, SearchProgress};
 use kgain::report::probe::{probe_owner, probe_summary_json, probe_table, write_probe_into};
 use std::path::{Path, PathBuf};
-
-fn input(message: impl ToString) -> Failed {
-    Failed {
-        input: true,
-        message: message.to_string(),
-    }
-}
 
 fn other(message: impl ToString) -> Failed {
     Failed {
@@ -100,13 +93,7 @@ pub fn run(a: ProbeRunArgs) -> Result<ProbeEnd, Failed> {
             case.file.display()
         )));
     }
-    let dest = Destination::claim(&a.out, probe_owner(case), a.force).map_err(|e| {
-        if e.is_refusal() {
-            input(e)
-        } else {
-            other(e)
-        }
-    })?;
+    let dest = Destination::claim(&a.out, probe_owner(case), a.force).map_err(destination)?;
     let spinner = Spinner::new(!a.quiet && std::io::IsTerminal::is_terminal(&std::io::stderr()));
     let mut program = case.program();
     let pool = rayon::ThreadPoolBuilder::new()
@@ -125,8 +112,7 @@ pub fn run(a: ProbeRunArgs) -> Result<ProbeEnd, Failed> {
         .commit(|dir| write_probe_into(dir, case, &results))
         .map_err(|e| match e {
             CommitError::Write(e) => other(e),
-            CommitError::Destination(e) if e.is_refusal() => input(e),
-            CommitError::Destination(e) => other(e),
+            CommitError::Destination(e) => destination(e),
         })?;
     let text = if a.json {
         serde_json::to_string_pretty(&probe_summary_json(case, &results)).expect("JSON serialises")

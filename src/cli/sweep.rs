@@ -23,14 +23,14 @@ pub struct Failed {
     pub message: String,
 }
 
-fn input(message: impl ToString) -> Failed {
+pub(super) fn input(message: impl ToString) -> Failed {
     Failed {
         input: true,
         message: message.to_string(),
     }
 }
 
-fn destination(e: DestinationError) -> Failed {
+pub(super) fn destination(e: DestinationError) -> Failed {
     Failed {
         input: e.is_refusal(),
         message: e.to_string(),

@@ -6,7 +6,7 @@
 use super::field::GField;
 use crate::analysis::dispersion::frequencies::log_branch;
 use crate::analysis::dispersion::phase_ratio;
-use crate::linalg::{self, LinalgError};
+use crate::linalg::{self, LinalgError, SvdSolver};
 use crate::numeric::assignment::optimal_assignment;
 use crate::physics::System;
 use num_complex::Complex64 as C64;
@@ -65,17 +65,25 @@ pub fn growth(g: &GField, w: &[f64], w_inv: &[f64], steps: usize) -> Result<Grow
     let (wc, wic) = (to_c(w), to_c(w_inv));
     let per_node: Vec<Vec<f64>> = (0..g.nodes())
         .into_par_iter()
-        .map(|node| {
-            let a = multiply(&multiply(&wc, g.at(node), m), &wic, m);
-            let mut p = identity(m);
-            let mut norms = Vec::with_capacity(steps + 1);
-            norms.push(1.0);
-            for _ in 0..steps {
-                p = multiply(&a, &p, m);
-                norms.push(linalg::norm2(&p, m)?);
-            }
-            Ok(norms)
-        })
+        .map_init(
+            || {
+                let zero = vec![C64::new(0.0, 0.0); m * m];
+                (SvdSolver::new(m), zero.clone(), zero.clone(), zero)
+            },
+            |(svd, a, p, next), node| {
+                multiply_into(&wc, g.at(node), &mut next[..], m);
+                multiply_into(&next[..], &wic, &mut a[..], m);
+                set_identity(p, m);
+                let mut norms = Vec::with_capacity(steps + 1);
+                norms.push(1.0);
+                for _ in 0..steps {
+                    multiply_into(a, p, next, m);
+                    std::mem::swap(p, next);
+                    norms.push(svd.norm2(p)?);
+                }
+                Ok(norms)
+            },
+        )
         .collect::<Result<_, LinalgError>>()?;
     let mut envelope = vec![0.0_f64; steps + 1];
     let mut map = Vec::with_capacity(per_node.len());
@@ -100,16 +108,16 @@ pub fn growth(g: &GField, w: &[f64], w_inv: &[f64], steps: usize) -> Result<Grow
     })
 }
 
-fn identity(m: usize) -> Vec<C64> {
-    let mut p = vec![C64::new(0.0, 0.0); m * m];
+fn set_identity(p: &mut [C64], m: usize) {
+    p.fill(C64::new(0.0, 0.0));
     for i in 0..m {
         p[i * m + i] = C64::new(1.0, 0.0);
     }
-    p
 }
 
-fn multiply(a: &[C64], b: &[C64], m: usize) -> Vec<C64> {
-    let mut c = vec![C64::new(0.0, 0.0); m * m];
+/// c = a b for row-major m×m matrices.
+fn multiply_into(a: &[C64], b: &[C64], c: &mut [C64], m: usize) {
+    c.fill(C64::new(0.0, 0.0));
     for i in 0..m {
         for k in 0..m {
             let aik = a[i * m + k];
@@ -118,7 +126,6 @@ fn multiply(a: &[C64], b: &[C64], m: usize) -> Vec<C64> {
             }
         }
     }
-    c
 }
 
 /// A built-in model to compare frequencies with: its system and, per probed
@@ -226,16 +233,21 @@ pub fn dispersion(g: &GField, dt: f64, exact: Option<&Exact>) -> Dispersion {
     // phase speed |Re ω_exact|/|k| per node and mode; modes slower than 10 %
     // of their fastest at a wavevector are left out of the worst errors
     let spacing = exact.map_or(&[][..], |e| e.spacing);
-    let speed = |node: usize, mode: usize| {
-        let k: f64 = g
-            .theta(node)
-            .iter()
-            .zip(spacing)
-            .map(|(t, h)| (t / h).powi(2))
-            .sum::<f64>()
-            .sqrt();
-        exact_w[node * m + mode].re.abs() / k
-    };
+    // per node: |k| and the cells per wavelength along the least-resolved axis
+    let (wavenumber, ppw): (Vec<f64>, Vec<f64>) = (0..g.nodes())
+        .map(|node| {
+            let theta = g.theta(node);
+            let k = theta
+                .iter()
+                .zip(spacing)
+                .map(|(t, h)| (t / h).powi(2))
+                .sum::<f64>()
+                .sqrt();
+            let top = theta.iter().fold(0.0_f64, |a, t| a.max(t.abs()));
+            (k, 2.0 * std::f64::consts::PI / top)
+        })
+        .unzip();
+    let speed = |node: usize, mode: usize| exact_w[node * m + mode].re.abs() / wavenumber[node];
     let mut fastest = vec![0.0_f64; m];
     for node in 0..g.nodes() {
         for (mode, f) in fastest.iter_mut().enumerate() {
@@ -247,13 +259,10 @@ pub fn dispersion(g: &GField, dt: f64, exact: Option<&Exact>) -> Dispersion {
     }
     let mut worst = vec![(f64::NAN, f64::NAN); m];
     let keep = |old: f64, new: f64| if old.is_nan() || new > old { new } else { old };
-    for node in 0..g.nodes() {
-        let theta = g.theta(node);
-        let top = theta.iter().fold(0.0_f64, |a, t| a.max(t.abs()));
-        if top == 0.0 {
-            continue;
+    for (node, &ppw) in ppw.iter().enumerate() {
+        if ppw.is_infinite() {
+            continue; // θ = 0
         }
-        let ppw = 2.0 * std::f64::consts::PI / top;
         for (mode, w) in worst.iter_mut().enumerate() {
             let r = ratio[node * m + mode];
             let fast_enough = matches!(

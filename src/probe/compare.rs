@@ -3,6 +3,7 @@
 //! Δt, with the largest difference and where it is.
 
 use super::field::GField;
+use super::spec::variable_order;
 use crate::analysis::amplification_at;
 use crate::error::InputError;
 use crate::problem::Problem;
@@ -36,34 +37,9 @@ pub fn described(
     cells: &[usize],
     dt: f64,
 ) -> Result<GField, InputError> {
-    let names = &problem.system.variables;
     let op = problem.operator();
     let mut field = GField::zeros(cells, variables.len());
-    let order: Vec<usize> = variables
-        .iter()
-        .map(|v| {
-            names.iter().position(|n| n == v).ok_or_else(|| {
-                InputError::new(
-                    "probe.variables",
-                    format!(
-                        "`{v}` is not a variable of the case's model (its variables: {})",
-                        names.join(", ")
-                    ),
-                )
-            })
-        })
-        .collect::<Result<_, _>>()?;
-    if order.len() != names.len() {
-        return Err(InputError::new(
-            "probe.variables",
-            format!(
-                "the probe has {} variables, the case's model {} ({})",
-                order.len(),
-                names.len(),
-                names.join(", ")
-            ),
-        ));
-    }
+    let order = variable_order(&problem.system.variables, variables, "the case's model")?;
     if problem.dims() != cells.len() {
         return Err(InputError::new(
             "probe.cells",

@@ -76,17 +76,26 @@ impl GField {
     /// cells) to an impulse of size `amplitude` at cell `at`:
     /// G_ij(θ) = e^{iθ·at} Σ_n r_i[n] e^{−iθ·n} / amplitude.
     pub fn set_column(&mut self, j: usize, responses: &[Vec<f64>], at: &[usize], amplitude: f64) {
-        let nodes = self.nodes();
         let mut planner = FftPlanner::<f64>::new();
-        for (i, r) in responses.iter().enumerate() {
-            let mut data: Vec<C64> = r.iter().map(|&x| C64::new(x, 0.0)).collect();
-            fft_nd(&mut data, &self.cells, &mut planner);
-            for node in 0..nodes {
-                let theta = self.theta(node);
-                let src = self.fft_node(node);
-                let shift: f64 = theta.iter().zip(at).map(|(t, &c)| t * c as f64).sum();
-                self.g[(node * self.m + i) * self.m + j] =
-                    data[src] * C64::from_polar(1.0 / amplitude, shift);
+        let spectra: Vec<Vec<C64>> = responses
+            .iter()
+            .map(|r| {
+                let mut data: Vec<C64> = r.iter().map(|&x| C64::new(x, 0.0)).collect();
+                fft_nd(&mut data, &self.cells, &mut planner);
+                data
+            })
+            .collect();
+        for node in 0..self.nodes() {
+            let shift: f64 = self
+                .theta(node)
+                .iter()
+                .zip(at)
+                .map(|(t, &c)| t * c as f64)
+                .sum();
+            let factor = C64::from_polar(1.0 / amplitude, shift);
+            let src = self.fft_node(node);
+            for (i, data) in spectra.iter().enumerate() {
+                self.g[(node * self.m + i) * self.m + j] = data[src] * factor;
             }
         }
     }

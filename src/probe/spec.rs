@@ -160,6 +160,40 @@ impl ProbeSpec {
     }
 }
 
+/// For each probed variable, its index among `names` (a model's variables,
+/// named `whose` in messages); the two sets must be equal. Errors name
+/// `probe.variables`.
+pub fn variable_order(
+    names: &[String],
+    variables: &[String],
+    whose: &str,
+) -> Result<Vec<usize>, InputError> {
+    let order = variables
+        .iter()
+        .map(|v| {
+            names.iter().position(|n| n == v).ok_or_else(|| {
+                InputError::new(
+                    "probe.variables",
+                    format!(
+                        "`{v}` is not a variable of {whose} (its variables: {})",
+                        names.join(", ")
+                    ),
+                )
+            })
+        })
+        .collect::<Result<Vec<_>, _>>()?;
+    if order.len() != names.len() {
+        return Err(InputError::new(
+            "probe.variables",
+            format!(
+                "name every variable of {whose} ({}), each once",
+                names.join(", ")
+            ),
+        ));
+    }
+    Ok(order)
+}
+
 #[cfg(test)]
 mod tests {
     use super::*;

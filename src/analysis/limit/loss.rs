@@ -67,6 +67,8 @@ pub struct Exact<'a> {
     exits: &'a ExitTimes<'a>,
     op: &'a Operator,
     tolerance: f64,
+    /// The method's (k, c) near z = 0, computed on first use.
+    axis: std::cell::OnceCell<Option<(usize, f64)>>,
     work: RefCell<(Spectrum<'a>, Vec<C64>)>,
 }
 
@@ -77,6 +79,7 @@ impl<'a> Exact<'a> {
             exits,
             op,
             tolerance,
+            axis: std::cell::OnceCell::new(),
             work: RefCell::new((Spectrum::new(op, tolerance), vec![C64::new(0.0, 0.0); op.m])),
         }
     }
@@ -112,11 +115,11 @@ impl FirstLoss for Exact<'_> {
 
     fn long_wave(&self, origin: &[f64], n: &[f64]) -> Option<f64> {
         use super::closed_form::{imaginary_axis, imaginary_axis_multistep, long_wave_limit_from};
-        let axis = match &self.exits.method().scheme {
-            crate::time::Scheme::OneStep(os) => imaginary_axis(os)?,
-            crate::time::Scheme::Multistep(ms) => imaginary_axis_multistep(ms)?,
-            _ => return None,
-        };
-        long_wave_limit_from(axis, self.op, self.tolerance, origin, n)
+        let axis = self.axis.get_or_init(|| match &self.exits.method().scheme {
+            crate::time::Scheme::OneStep(os) => imaginary_axis(os),
+            crate::time::Scheme::Multistep(ms) => imaginary_axis_multistep(ms),
+            _ => None,
+        });
+        long_wave_limit_from((*axis)?, self.op, self.tolerance, origin, n)
     }
 }
