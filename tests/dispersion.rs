@@ -34,14 +34,16 @@ fn central_second_order_phase_is_sin_theta_and_group_velocity_is_cos_theta() {
     let (_, r) = run(&advection_1d("central2", "rk4", 0.5));
     let d = disp(&r);
     for (i, th) in r.grid.coords[0].iter().enumerate() {
-        let w = d.numerical[i][0];
+        let w = d.node(i).numerical[0];
         assert!((w.re - th.sin()).abs() <= 1e-12, "omega at {th}");
         assert!(w.im.abs() <= 1e-12);
-        let g = d.group[i][0][0];
+        // exact derivatives from the eigenvectors: rounding only
+        let g = d.node(i).group[0];
         assert!(
-            (g - th.cos()).abs() <= 1e-6,
+            (g - th.cos()).abs() <= 1e-14,
             "group velocity {g} vs cos {th}"
         );
+        assert!((d.node(i).group_exact[0] - 1.0).abs() <= 1e-15);
     }
 }
 
@@ -61,7 +63,7 @@ fn modified_wavenumbers_of_c4_and_compact_stencils_set_the_phase_speed() {
         let d = disp(&r);
         for (i, th) in r.grid.coords[0].iter().enumerate() {
             assert!(
-                (d.numerical[i][0].re - f(*th)).abs() <= 1e-12,
+                (d.node(i).numerical[0].re - f(*th)).abs() <= 1e-12,
                 "{name} at {th}"
             );
         }
@@ -97,7 +99,7 @@ fn upwind_euler_amplitude_per_step_is_the_closed_form() {
             - (num_complex::Complex64::new(1.0, 0.0)
                 - num_complex::Complex64::from_polar(1.0, -th))
                 * nu;
-        let amp = (d.discrete[i][0].im * r.dt).exp();
+        let amp = (d.node(i).discrete[0].im * r.dt).exp();
         assert!(
             (amp - g.norm()).abs() <= 1e-12,
             "at {th}: {amp} vs {}",
@@ -118,7 +120,7 @@ fn leapfrog_has_one_computational_mode_per_variable() {
         .iter()
         .position(|t| t.abs() < 1e-12)
         .unwrap();
-    let w = d.discrete[i0][1];
+    let w = d.node(i0).discrete[1];
     assert!(
         ((w.re * r.dt).abs() - std::f64::consts::PI).abs() <= 1e-9,
         "{w}"
@@ -155,7 +157,7 @@ fn inertia_gravity_frequencies_on_the_a_b_and_c_grids() {
         let (_, r) = run(&shallow(arr));
         let dr = disp(&r);
         let n1 = r.grid.points[1];
-        for (i, node) in dr.numerical.iter().enumerate() {
+        for (i, node) in dr.numerical.chunks(dr.modes()).enumerate() {
             let (x, y) = (r.grid.coords[0][i / n1], r.grid.coords[1][i % n1]);
             let want = f * formula(x, y, l2).sqrt();
             let mut w: Vec<f64> = node.iter().map(|z| z.re).collect();
@@ -178,7 +180,7 @@ fn yee_fully_discrete_frequencies_satisfy_the_numerical_dispersion_relation() {
     let d = disp(&r);
     let n1 = r.grid.points[1];
     let c = 3.0e8;
-    for (i, node) in d.discrete.iter().enumerate() {
+    for (i, node) in d.discrete.chunks(d.discrete_modes).enumerate() {
         let th = [r.grid.coords[0][i / n1], r.grid.coords[1][i % n1]];
         if th.iter().all(|t| t.abs() < 1e-12) {
             continue;
@@ -212,7 +214,7 @@ fn continuous_euler_frequencies_are_convected_and_acoustic() {
         ["acoustic-", "convected1", "convected2", "acoustic+"]
     );
     let n1 = r.grid.points[1];
-    for (i, w) in d.exact.iter().enumerate() {
+    for (i, w) in d.exact.chunks(d.modes()).enumerate() {
         let k = [r.grid.coords[0][i / n1], r.grid.coords[1][i % n1] / 2.0];
         let uk = 0.5 * k[0] + 0.2 * k[1];
         let kk = (k[0] * k[0] + k[1] * k[1]).sqrt();
@@ -238,11 +240,12 @@ fn leapfrog_group_velocity_follows_its_discrete_dispersion_relation() {
     let d = disp(&r);
     for (i, th) in r.grid.coords[0].iter().enumerate() {
         let want = th.cos() / (1.0 - (nu * th.sin()).powi(2)).sqrt();
-        let got = d.group_discrete[i][0][0];
-        assert!((got - want).abs() <= 1e-5, "at {th}: {got} vs {want}");
+        let got = d.node(i).group_discrete[0];
+        // a central difference of the scalar map ω → ω_d (step 1e-6 along dω/dθ)
+        assert!((got - want).abs() <= 1e-8, "at {th}: {got} vs {want}");
         let w = (nu * th.sin()).asin() / r.dt;
         assert!(
-            (d.discrete[i][0].re - w).abs() <= 1e-9 * (1.0 + w.abs()),
+            (d.node(i).discrete[0].re - w).abs() <= 1e-9 * (1.0 + w.abs()),
             "omega at {th}"
         );
     }
@@ -295,7 +298,7 @@ fn each_wave_of_a_user_system_keeps_its_name_and_its_own_speed_in_both_direction
         );
         // the same wave in both directions: its exact frequency is speed·θ
         for (i, th) in r.grid.coords[0].iter().enumerate() {
-            let w = d.exact[i][mode];
+            let w = d.node(i).exact[mode];
             assert!(
                 (w.re - speed * th).abs() <= 1e-9,
                 "mode {mode} at θ = {th}: {w}"
@@ -464,4 +467,83 @@ fn diffusion_accuracy_follows_the_closed_forms_of_c2_and_crank_nicolson() {
     let want = crossing_ppw(discrete, d.tolerance);
     let got = res.decay_discrete.as_ref().expect("fully discrete").ppw();
     assert!((got - want).abs() <= 1e-7 * want, "{got} vs {want}");
+}
+
+#[test]
+fn group_velocities_of_c4_and_compact_stencils_are_exact_derivatives() {
+    // C4: d/dθ (8 sin θ − sin 2θ)/6 = (4 cos θ − cos 2θ)/3 (common practice);
+    // Padé compact 4, S = (3/2) sin θ / (1 + ½ cos θ):
+    // S′ = (3/2)(cos θ + ½)/(1 + ½ cos θ)² (derived here by the quotient rule).
+    let forms: [Form1; 2] = [
+        ("central4", |t| (4.0 * t.cos() - (2.0 * t).cos()) / 3.0),
+        ("compact4", |t| {
+            1.5 * (t.cos() + 0.5) / (1.0 + 0.5 * t.cos()).powi(2)
+        }),
+    ];
+    for (stencil, slope) in forms {
+        let (_, r) = run(&advection_1d(stencil, "rk4", 0.5));
+        let d = disp(&r);
+        for (i, th) in r.grid.coords[0].iter().enumerate() {
+            let g = d.node(i).group[0];
+            assert!(
+                (g - slope(*th)).abs() <= 1e-13,
+                "{stencil} at {th}: {g} vs {}",
+                slope(*th)
+            );
+        }
+    }
+}
+
+#[test]
+fn euler_group_velocities_are_exact_for_every_mode() {
+    // Common practice: the convected modes move with u; the acoustic ones with
+    // u ± c k/|k| (exact) and, for C4 (modified wavenumber κ(θ) = (8 sin θ −
+    // sin 2θ)/6 per axis, h = 1), with u_d κ′_d ± c κ_d κ′_d/|κ| (derived here by
+    // differentiating ω = u·κ ± c|κ|). c = 1, u = (0.5, 0.2).
+    let text = "[grid]\nspacing = [1.0, 1.0]\n[model]\nkind = \"euler\"\ndensity = 1.0\npressure = 0.7142857142857143\ngamma = 1.4\nvelocity = [0.5, 0.2]\n[space]\nfirst = \"central4\"\n[time]\nmethod = \"rk4\"\ncourant = 1.0\n[scan]\npoints = [16, 16]\nanalyses = [\"dispersion\"]\n";
+    let (_, r) = run(text);
+    let d = disp(&r);
+    let u = [0.5, 0.2];
+    let kappa = |t: f64| (8.0 * t.sin() - (2.0 * t).sin()) / 6.0;
+    let kappa_slope = |t: f64| (4.0 * t.cos() - (2.0 * t).cos()) / 3.0;
+    let n1 = r.grid.points[1];
+    for i in 0..r.grid.len() {
+        let th = [r.grid.coords[0][i / n1], r.grid.coords[1][i % n1]];
+        let kk = (th[0] * th[0] + th[1] * th[1]).sqrt();
+        let ka = [kappa(th[0]), kappa(th[1])];
+        let kan = (ka[0] * ka[0] + ka[1] * ka[1]).sqrt();
+        if kk < 1e-12 || kan < 1e-3 {
+            continue;
+        }
+        let node = d.node(i);
+        let k_dot_u = u[0] * th[0] + u[1] * th[1];
+        let kappa_dot_u = u[0] * ka[0] + u[1] * ka[1];
+        for (j, name) in d.names.iter().enumerate() {
+            // which wave each frequency is: u·k + s|k| with s = −1, 0 or 1
+            let wave = |w: f64, dot: f64, size: f64| -> f64 {
+                [-1.0, 0.0, 1.0f64]
+                    .into_iter()
+                    .min_by(|p, q| {
+                        let e = |s: f64| (w - dot - s * size).abs();
+                        e(*p).total_cmp(&e(*q))
+                    })
+                    .unwrap_or(0.0)
+            };
+            let exact_sign = wave(node.exact[j].re, k_dot_u, kk);
+            let sign = wave(node.numerical[j].re, kappa_dot_u, kan);
+            for a in 0..2 {
+                let exact = u[a] + exact_sign * th[a] / kk;
+                let numerical = kappa_slope(th[a]) * (u[a] + sign * ka[a] / kan);
+                let (ge, gn) = (node.group_exact[j * 2 + a], node.group[j * 2 + a]);
+                assert!(
+                    (ge - exact).abs() <= 1e-13,
+                    "{name} exact at {th:?}, axis {a}: {ge} vs {exact}"
+                );
+                assert!(
+                    (gn - numerical).abs() <= 1e-12,
+                    "{name} numerical at {th:?}, axis {a}: {gn} vs {numerical}"
+                );
+            }
+        }
+    }
 }

@@ -78,21 +78,12 @@ impl Sizes {
     }
 }
 
-/// Bytes held per wavevector by the dispersion results: the matched ω
-/// (semi-discrete, exact: m; fully discrete: M), three group velocities (m
-/// vectors of d), the tuple of six vector headers, and the twelve derived maps.
+/// Bytes held per wavevector by the dispersion results, node-major arrays
+/// allocated once at their final size and written from borrowed views: the
+/// matched ω (semi-discrete, exact: m; fully discrete: M), three group
+/// velocities (m × d) and the twelve derived maps (m each).
 fn dispersion_resident(s: &Sizes) -> u128 {
-    let omegas = 2 * heap(16 * s.m) + heap(16 * s.big_m);
-    let groups = 3 * (heap(VEC * s.m) + s.m * heap(8 * s.d));
-    let headers = 6 * VEC;
-    let maps = 12 * 8 * s.m;
-    omegas + groups + headers + maps
-}
-
-/// Bytes per wavevector of the flattened copies the NPY exporter makes of the
-/// dispersion arrays (three ω arrays, three group-velocity arrays).
-fn dispersion_copies(s: &Sizes) -> u128 {
-    16 * (2 * s.m + s.big_m) + 3 * 8 * s.m * s.d
+    16 * (2 * s.m + s.big_m) + 3 * 8 * s.m * s.d + 12 * 8 * s.m
 }
 
 /// Bytes of the dispersion curves: per direction, 48 samples of the points per
@@ -169,10 +160,7 @@ impl Plan {
             resident += 3 * 8 * s.nodes + envelope(g.steps as u128);
         }
         if let Some(p) = &self.dispersion {
-            let kept = dispersion_resident(&s) * s.nodes;
-            // Moving the per-node tuples into six vectors holds both headers.
-            transient = transient.max(resident + kept + 6 * VEC * s.nodes);
-            resident += kept + dispersion_copies(&s) * s.nodes;
+            resident += dispersion_resident(&s) * s.nodes;
             // The curves' directions are fixed in 1-D and 2-D, capped in 3-D.
             let curves = super::dispersion::curves::curve_directions(problem.dims(), p.directions);
             resident += dispersion_curves(&s, curves.len() as u128);

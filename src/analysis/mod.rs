@@ -422,13 +422,12 @@ fn non_finite(r: &Results, first_failure: Option<usize>) -> Vec<NonFinite> {
         );
     }
     if let Some(d) = &r.dispersion {
-        let bad =
-            |n: &Vec<num_complex::Complex64>| n.iter().any(|w| w.re.is_nan() || w.im.is_nan());
-        let count = d.numerical.iter().filter(|n| bad(n)).count();
+        let bad = |n: &[num_complex::Complex64]| n.iter().any(|w| w.re.is_nan() || w.im.is_nan());
+        let nodes = || d.numerical.chunks(d.modes().max(1));
         note(
             "semi-discrete frequencies",
-            count,
-            d.numerical.iter().position(bad),
+            nodes().filter(|n| bad(n)).count(),
+            nodes().position(bad),
         );
     }
     if let Some(l) = r.limit.as_ref().filter(|l| l.dt_max.is_nan()) {

@@ -13,10 +13,75 @@
 /// row in a pairing of least total cost. Non-finite costs count as a very large
 /// finite cost.
 pub fn optimal_assignment(cost: &[f64], n: usize) -> Vec<usize> {
+    let mut out = vec![0usize; n];
+    optimal_assignment_into(cost, n, &mut out);
+    out
+}
+
+/// Largest size solved on the stack, without allocating.
+const ON_STACK: usize = 15;
+
+/// [`optimal_assignment`] into `out` (length n); allocation-free for n ≤ 15.
+pub fn optimal_assignment_into(cost: &[f64], n: usize, out: &mut [usize]) {
     assert_eq!(cost.len(), n * n, "cost matrix has the wrong length");
+    assert_eq!(out.len(), n, "output has the wrong length");
     if n == 0 {
-        return Vec::new();
+        return;
     }
+    if n <= ON_STACK {
+        let (mut u, mut v, mut minv) = (
+            [0.0; ON_STACK + 1],
+            [0.0; ON_STACK + 1],
+            [0.0; ON_STACK + 1],
+        );
+        let (mut row_of, mut way) = ([0usize; ON_STACK + 1], [0usize; ON_STACK + 1]);
+        let mut used = [false; ON_STACK + 1];
+        let k = n + 1;
+        let scratch = Scratch {
+            u: &mut u[..k],
+            v: &mut v[..k],
+            minv: &mut minv[..k],
+            row_of: &mut row_of[..k],
+            way: &mut way[..k],
+            used: &mut used[..k],
+        };
+        hungarian(cost, n, scratch, out);
+    } else {
+        let k = n + 1;
+        let (mut u, mut v, mut minv) = (vec![0.0; k], vec![0.0; k], vec![0.0; k]);
+        let (mut row_of, mut way, mut used) = (vec![0usize; k], vec![0usize; k], vec![false; k]);
+        let scratch = Scratch {
+            u: &mut u,
+            v: &mut v,
+            minv: &mut minv,
+            row_of: &mut row_of,
+            way: &mut way,
+            used: &mut used,
+        };
+        hungarian(cost, n, scratch, out);
+    }
+}
+
+/// The working arrays of [`hungarian`], each of length n + 1.
+struct Scratch<'a> {
+    u: &'a mut [f64],
+    v: &'a mut [f64],
+    minv: &'a mut [f64],
+    row_of: &'a mut [usize],
+    way: &'a mut [usize],
+    used: &'a mut [bool],
+}
+
+/// The Hungarian method with potentials and shortest augmenting paths.
+fn hungarian(cost: &[f64], n: usize, s: Scratch, out: &mut [usize]) {
+    let Scratch {
+        u,
+        v,
+        minv,
+        row_of,
+        way,
+        used,
+    } = s;
     let big = cost
         .iter()
         .filter(|c| c.is_finite())
@@ -32,15 +97,11 @@ pub fn optimal_assignment(cost: &[f64], n: usize) -> Vec<usize> {
         }
     };
     // 1-based arrays with a virtual column 0 (the classic formulation)
-    let mut u = vec![0.0f64; n + 1];
-    let mut v = vec![0.0f64; n + 1];
-    let mut row_of = vec![0usize; n + 1];
-    let mut way = vec![0usize; n + 1];
     for i in 1..=n {
         row_of[0] = i;
         let mut j0 = 0usize;
-        let mut minv = vec![f64::INFINITY; n + 1];
-        let mut used = vec![false; n + 1];
+        minv.fill(f64::INFINITY);
+        used.fill(false);
         loop {
             used[j0] = true;
             let i0 = row_of[j0];
@@ -81,13 +142,12 @@ pub fn optimal_assignment(cost: &[f64], n: usize) -> Vec<usize> {
             }
         }
     }
-    let mut out = vec![0usize; n];
+    out.fill(0);
     for j in 1..=n {
         if row_of[j] > 0 {
             out[row_of[j] - 1] = j - 1;
         }
     }
-    out
 }
 
 #[cfg(test)]

@@ -69,6 +69,19 @@ impl Factor {
         }
     }
 
+    /// d/dθ of [`Factor::eval`].
+    pub fn derivative(&self, theta: f64) -> C64 {
+        match self {
+            Factor::Stencil { stencil, scale } => stencil.symbol_derivative(theta) * *scale,
+            Factor::Dissipation { coeff, order } => {
+                let (sin, cos) = (0.5 * theta).sin_cos();
+                let p = *order as i32;
+                C64::new(-coeff * 0.5 * f64::from(p) * sin.powi(p - 1) * cos, 0.0)
+            }
+            Factor::Average => C64::new(-0.5 * (0.5 * theta).sin(), 0.0),
+        }
+    }
+
     /// The rounding level of the real part of [`Factor::eval`] (real factors
     /// carry only a relative rounding, which does not blur a sign).
     pub fn real_noise(&self, theta: f64) -> f64 {
@@ -113,6 +126,27 @@ impl Term {
         self.factors
             .iter()
             .fold(C64::new(1.0, 0.0), |acc, (d, f)| acc * f.eval(theta[*d]))
+    }
+
+    /// ∂/∂θ_axis of [`Term::factor_at`] (the product rule over the factors on
+    /// that axis).
+    pub fn factor_derivative(&self, theta: &[f64], axis: usize) -> C64 {
+        let mut total = C64::new(0.0, 0.0);
+        for (k, (d, f)) in self.factors.iter().enumerate() {
+            if *d != axis {
+                continue;
+            }
+            let others = self
+                .factors
+                .iter()
+                .enumerate()
+                .filter(|(j, _)| *j != k)
+                .fold(C64::new(1.0, 0.0), |acc, (_, (e, g))| {
+                    acc * g.eval(theta[*e])
+                });
+            total += f.derivative(theta[*d]) * others;
+        }
+        total
     }
 
     /// The rounding level of the real part of [`Term::factor_at`] times a real
@@ -229,6 +263,20 @@ impl Operator {
         }
         for t in self.terms.iter().filter(|t| keep(t)) {
             let f = t.factor_at(theta);
+            for (o, a) in out.iter_mut().zip(&t.matrix) {
+                *o += a * f;
+            }
+        }
+    }
+
+    /// ∂L/∂θ_axis at θ into a row-major m×m slice.
+    pub fn derivative_into(&self, theta: &[f64], axis: usize, out: &mut [C64]) {
+        out.fill(C64::new(0.0, 0.0));
+        for t in &self.terms {
+            if !t.factors.iter().any(|(d, _)| *d == axis) {
+                continue;
+            }
+            let f = t.factor_derivative(theta, axis);
             for (o, a) in out.iter_mut().zip(&t.matrix) {
                 *o += a * f;
             }

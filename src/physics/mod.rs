@@ -83,6 +83,34 @@ impl System {
         l
     }
 
+    /// [`System::continuous_symbol`] into a row-major m×m slice, without
+    /// allocating (the same operations in the same order, so the same bits).
+    pub fn continuous_symbol_into(&self, k: &[f64], out: &mut [C64]) {
+        let m = self.size();
+        for r in 0..m {
+            for c in 0..m {
+                let mut v = self.source[(r, c)];
+                for (d, kd) in k.iter().enumerate() {
+                    v -= self.flux[d][(r, c)] * C64::new(0.0, *kd);
+                    v -= self.diffusion[d][(r, c)] * C64::new(kd * kd, 0.0);
+                }
+                out[r * m + c] = v;
+            }
+        }
+    }
+
+    /// ∂/∂k_axis of the continuous symbol, −i A_axis − 2 k_axis K_axis, into a
+    /// row-major m×m slice.
+    pub fn continuous_derivative_into(&self, k: &[f64], axis: usize, out: &mut [C64]) {
+        let m = self.size();
+        for r in 0..m {
+            for c in 0..m {
+                out[r * m + c] = -self.flux[axis][(r, c)] * C64::new(0.0, 1.0)
+                    - self.diffusion[axis][(r, c)] * C64::new(2.0 * k[axis], 0.0);
+            }
+        }
+    }
+
     /// Σ_d n_d A_d for a direction n.
     pub fn flux_along(&self, n: &[f64]) -> DMatrix<C64> {
         let m = self.size();

@@ -176,6 +176,19 @@ impl Stencil {
         num / paired_sum(&self.implicit_offsets, &self.implicit_weights, theta)
     }
 
+    /// dS/dθ, the derivative of [`Stencil::symbol`]: Σ i·o·w_o e^{ioθ} over the
+    /// explicit side, by the quotient rule for a compact stencil.
+    pub fn symbol_derivative(&self, theta: f64) -> C64 {
+        let slope = sum_derivative(&self.offsets, &self.weights, theta);
+        if !self.is_compact() {
+            return slope / self.implicit_weights[0];
+        }
+        let num = paired_sum(&self.offsets, &self.weights, theta);
+        let den = paired_sum(&self.implicit_offsets, &self.implicit_weights, theta);
+        let den_slope = sum_derivative(&self.implicit_offsets, &self.implicit_weights, theta);
+        (slope * den - num * den_slope) / (den * den)
+    }
+
     /// The rounding level of the real part of [`Stencil::symbol`] at θ: the real
     /// part is −2Σ(w_o + w_−o) sin²(θo/2) over the explicit side (divided by the
     /// implicit side for a compact stencil), whose terms cancel to a higher power
@@ -300,6 +313,17 @@ impl Stencil {
         }
         (1.0, 2.0)
     }
+}
+
+/// d/dθ Σ w_o e^{ioθ} = Σ o·w_o (−sin oθ + i cos oθ).
+fn sum_derivative(offsets: &[f64], weights: &[f64], theta: f64) -> C64 {
+    let (mut re, mut im) = (0.0, 0.0);
+    for (&o, &w) in offsets.iter().zip(weights) {
+        let (sin, cos) = (theta * o).sin_cos();
+        re -= o * w * sin;
+        im += o * w * cos;
+    }
+    C64::new(re, im)
 }
 
 /// Σ_j w_j e^{iθ o_j}, with the terms at ±o combined into cosine and sine parts

@@ -22,7 +22,7 @@
 use super::shape;
 use crate::analysis::context::amplification_at;
 use crate::linalg::{self, EigSolver};
-use crate::numeric::assignment::optimal_assignment;
+use crate::numeric::assignment::{optimal_assignment, optimal_assignment_into};
 use crate::operator::Operator;
 use crate::physics::ModelKind;
 use crate::problem::Problem;
@@ -36,61 +36,156 @@ const START: f64 = 1e-4;
 
 /// Pairs `new` with `target` by the least total distance (an optimal
 /// assignment); returns `new` reordered.
-fn assign(target: &[C64], new: &[C64]) -> Vec<C64> {
+pub(super) fn assign(target: &[C64], new: &[C64]) -> Vec<C64> {
+    let mut out = Vec::with_capacity(target.len());
+    pair_into(target, new, &mut out);
+    out
+}
+
+/// Largest spectrum [`assign_into`] pairs without allocating.
+const SMALL: usize = 8;
+
+/// [`assign`] into `out` (cleared first); allocation-free for at most 8 values
+/// when `out` has the capacity.
+pub(super) fn assign_into(target: &[C64], new: &[C64], out: &mut Vec<C64>) {
     let m = target.len();
-    let mut cost = vec![0.0; m * m];
-    for (i, t) in target.iter().enumerate() {
-        for (j, n) in new.iter().enumerate().take(m) {
-            cost[i * m + j] = (t - n).norm();
+    out.clear();
+    let distance = |i: usize, j: usize| match new.get(j) {
+        Some(n) => (target[i] - n).norm(),
+        None => 0.0,
+    };
+    if m <= SMALL {
+        let mut cost = [0.0; SMALL * SMALL];
+        let mut order = [0usize; SMALL];
+        for (ij, c) in cost[..m * m].iter_mut().enumerate() {
+            *c = distance(ij / m, ij % m);
+        }
+        optimal_assignment_into(&cost[..m * m], m, &mut order[..m]);
+        out.extend(order[..m].iter().map(|&j| new[j]));
+    } else {
+        let cost: Vec<f64> = (0..m * m).map(|ij| distance(ij / m, ij % m)).collect();
+        out.extend(optimal_assignment(&cost, m).into_iter().map(|j| new[j]));
+    }
+}
+
+/// `new` reordered to follow `target` into `out` (cleared first): the optimal
+/// assignment of least total distance, as [`assign_into`] computes it. When every target's nearest
+/// value is a clear winner (nearer than a quarter of the distance to the next)
+/// and those are all different, that permutation is the unique optimum and is
+/// taken directly; otherwise (clusters of equal values, ties) [`assign_into`] decides.
+pub(super) fn pair_into(target: &[C64], new: &[C64], out: &mut Vec<C64>) {
+    let m = target.len();
+    out.clear();
+    let finite = target.iter().chain(new).all(|z| z.is_finite());
+    let mut taken = 0u64;
+    if finite && m <= 64 && new.len() >= m {
+        for t in target {
+            let (mut best, mut first, mut second) = (0, f64::INFINITY, f64::INFINITY);
+            for (j, n) in new.iter().enumerate().take(m) {
+                let d = (t - n).norm_sqr();
+                if d < first {
+                    (second, first, best) = (first, d, j);
+                } else if d < second {
+                    second = d;
+                }
+            }
+            // squared distances: a quarter of the distance is a sixteenth here
+            if taken & (1 << best) != 0 || first > second / 16.0 {
+                break;
+            }
+            taken |= 1 << best;
+            out.push(new[best]);
+        }
+        if out.len() == m {
+            return;
         }
     }
-    optimal_assignment(&cost, m)
-        .into_iter()
-        .map(|j| new[j])
-        .collect()
+    assign_into(target, new, out);
 }
 
-/// Frequencies along a ray, evaluated by `freq` at fractions s of the end point.
-struct Tracker<'a> {
-    freq: &'a dyn Fn(&[f64]) -> Vec<C64>,
-}
-
-impl Tracker<'_> {
-    /// Frequencies at `theta`, in the order they have at the start of the ray
-    /// (ascending Re ω there).
-    fn follow(&self, theta: &[f64]) -> Vec<C64> {
-        let at = |s: f64| -> Vec<f64> { theta.iter().map(|t| t * s).collect() };
-        let mut prev = (self.freq)(&at(START));
-        prev.sort_by(|a, b| a.re.total_cmp(&b.re));
-        // geometric steps: in the long-wave limit ω grows in proportion to s, so the
-        // first prediction scales the start values and later ones extrapolate
-        let ratio = (1.0 / START).powf(1.0 / TRACK_STEPS as f64);
-        let mut prev2: Option<Vec<C64>> = None;
-        let mut s_prev = START;
-        let mut s_prev2 = START;
-        for k in 1..=TRACK_STEPS {
-            let s = if k == TRACK_STEPS {
-                1.0
-            } else {
-                START * ratio.powi(k as i32)
-            };
-            let raw = (self.freq)(&at(s));
-            let predicted: Vec<C64> = match &prev2 {
-                None => prev.iter().map(|a| a * (s / s_prev)).collect(),
-                Some(p2) => {
-                    let slope = (s - s_prev) / (s_prev - s_prev2);
-                    prev.iter()
-                        .zip(p2)
-                        .map(|(a, b)| a + (a - b) * slope)
-                        .collect()
-                }
-            };
-            let next = assign(&predicted, &raw);
-            prev2 = Some(std::mem::replace(&mut prev, next));
-            s_prev2 = s_prev;
-            s_prev = s;
+/// The frequencies at `theta`, in the order they have at the start of the ray
+/// from θ = 0 (ascending Re ω there), followed step by step: `freq(point,
+/// out)` writes the unordered frequencies at a point into `out`.
+pub(super) fn follow_ray(theta: &[f64], mut freq: impl FnMut(&[f64], &mut Vec<C64>)) -> Vec<C64> {
+    let mut point = vec![0.0; theta.len()];
+    let at = |s: f64, point: &mut Vec<f64>| {
+        for (p, t) in point.iter_mut().zip(theta) {
+            *p = t * s;
         }
-        prev
+    };
+    let (mut prev, mut raw) = (Vec::new(), Vec::new());
+    at(START, &mut point);
+    freq(&point, &mut prev);
+    prev.sort_by(|a, b| a.re.total_cmp(&b.re));
+    // geometric steps: in the long-wave limit ω grows in proportion to s, so the
+    // first prediction scales the start values and later ones extrapolate
+    let ratio = (1.0 / START).powf(1.0 / TRACK_STEPS as f64);
+    let (mut prev2, mut predicted, mut next) = (Vec::new(), Vec::new(), Vec::new());
+    let mut s_prev = START;
+    let mut s_prev2 = START;
+    for k in 1..=TRACK_STEPS {
+        let s = if k == TRACK_STEPS {
+            1.0
+        } else {
+            START * ratio.powi(k as i32)
+        };
+        at(s, &mut point);
+        freq(&point, &mut raw);
+        predicted.clear();
+        if k == 1 {
+            predicted.extend(prev.iter().map(|a| a * (s / s_prev)));
+        } else {
+            let slope = (s - s_prev) / (s_prev - s_prev2);
+            predicted.extend(prev.iter().zip(&prev2).map(|(a, b)| a + (a - b) * slope));
+        }
+        pair_into(&predicted, &raw, &mut next);
+        std::mem::swap(&mut prev2, &mut prev);
+        std::mem::swap(&mut prev, &mut next);
+        s_prev2 = s_prev;
+        s_prev = s;
+    }
+    prev
+}
+
+/// The eigen-decomposition of a user's x-flux matrix A₁ that names the modes of
+/// a `linear` system (see [`Frequencies::named_with`]), computed once.
+struct Reference {
+    /// Eigenvectors of A₁ (row-major, one per column).
+    vectors: Vec<C64>,
+    /// Columns in ascending speed.
+    by_speed: Vec<usize>,
+    /// The speeds in that order.
+    speeds: Vec<C64>,
+}
+
+impl Reference {
+    /// None when A₁'s speeds are not distinct or its decomposition fails.
+    fn of(system: &crate::physics::System) -> Option<Reference> {
+        let m = system.size();
+        let zero = C64::new(0.0, 0.0);
+        let (mut speeds, mut vectors) = (vec![zero; m], vec![zero; m * m]);
+        EigSolver::new(m)
+            .eigenvalues_and_vectors(
+                &linalg::from_matrix(&system.flux[0]),
+                &mut speeds,
+                &mut vectors,
+            )
+            .ok()?;
+        let mut by_speed: Vec<usize> = (0..m).collect();
+        by_speed.sort_by(|a, b| speeds[*a].re.total_cmp(&speeds[*b].re));
+        let scale = speeds.iter().map(|z| z.norm()).fold(0.0, f64::max);
+        let distinct = by_speed
+            .windows(2)
+            .all(|w| (speeds[w[1]] - speeds[w[0]]).norm() > 1e-6 * scale);
+        if !distinct || scale == 0.0 {
+            return None;
+        }
+        let speeds = by_speed.iter().map(|&j| speeds[j]).collect();
+        Some(Reference {
+            vectors,
+            by_speed,
+            speeds,
+        })
     }
 }
 
@@ -101,6 +196,8 @@ pub struct Frequencies<'a> {
     /// Whether the continuous symbol is homogeneous of degree one in k (no
     /// source, no diffusion), so that the exact spectrum scales along a ray.
     homogeneous: bool,
+    /// For a `linear` system, the decomposition of A₁ that names its modes.
+    reference: Option<Reference>,
 }
 
 impl<'a> Frequencies<'a> {
@@ -109,16 +206,32 @@ impl<'a> Frequencies<'a> {
         let system = &problem.system;
         let zero = |m: &nalgebra::DMatrix<C64>| m.iter().all(|z| *z == C64::new(0.0, 0.0));
         let homogeneous = zero(&system.source) && system.diffusion.iter().all(zero);
+        let reference = if system.kind == ModelKind::Linear {
+            Reference::of(system)
+        } else {
+            None
+        };
         Self {
             problem,
             op,
             homogeneous,
+            reference,
         }
     }
 
     /// The problem.
     pub fn problem(&self) -> &Problem {
         self.problem
+    }
+
+    /// The operator.
+    pub(super) fn operator(&self) -> &Operator {
+        self.op
+    }
+
+    /// Whether the exact spectrum scales along a ray (no source, no diffusion).
+    pub(super) fn homogeneous(&self) -> bool {
+        self.homogeneous
     }
 
     fn eig(&self, l: &[C64]) -> Vec<C64> {
@@ -137,41 +250,80 @@ impl<'a> Frequencies<'a> {
 
     /// Exact ω at the physical wavevector of θ (unordered).
     pub fn exact_raw(&self, theta: &[f64]) -> Vec<C64> {
-        let k: Vec<f64> = theta
-            .iter()
-            .zip(&self.problem.spacing)
-            .map(|(t, h)| t / h)
-            .collect();
+        let k = self.wavevector(theta);
         self.eig(&linalg::from_matrix(
             &self.problem.system.continuous_symbol(&k),
         ))
     }
 
-    /// (numerical, exact) ω at θ, both in physical-mode order.
-    pub fn matched(&self, theta: &[f64]) -> (Vec<C64>, Vec<C64>) {
-        let mut exact = if self.homogeneous {
+    /// The physical wavevector k_d = θ_d/h_d.
+    fn wavevector(&self, theta: &[f64]) -> Vec<f64> {
+        theta
+            .iter()
+            .zip(&self.problem.spacing)
+            .map(|(t, h)| t / h)
+            .collect()
+    }
+
+    /// The exact ω at θ in mode order before naming by shape: ascending Re ω
+    /// at the start of the ray from θ = 0 (`raw`: the exact ω at θ, used when
+    /// the spectrum scales along the ray).
+    pub(super) fn exact_in_ray_order(&self, theta: &[f64], raw: Vec<C64>) -> Vec<C64> {
+        if self.homogeneous {
             // ω(sθ) = s ω(θ): the order at the start of the ray is the order here
-            let mut w = self.exact_raw(theta);
+            let mut w = raw;
             w.sort_by(|a, b| a.re.total_cmp(&b.re));
             w
         } else {
-            Tracker {
-                freq: &|t| self.exact_raw(t),
-            }
-            .follow(theta)
+            follow_ray(theta, |t, out| *out = self.exact_raw(t))
+        }
+    }
+
+    /// The numerical ω at θ followed along the ray from θ = 0 (where shapes do
+    /// not decide).
+    pub(super) fn numerical_by_ray(&self, theta: &[f64]) -> Vec<C64> {
+        follow_ray(theta, |t, out| *out = self.numerical_raw(t))
+    }
+
+    /// (numerical, exact) ω at θ, both in physical-mode order.
+    pub fn matched(&self, theta: &[f64]) -> (Vec<C64>, Vec<C64>) {
+        let raw = if self.homogeneous {
+            self.exact_raw(theta)
+        } else {
+            Vec::new()
         };
-        if self.problem.system.kind == ModelKind::Linear {
+        let mut exact = self.exact_in_ray_order(theta, raw);
+        if self.reference.is_some() {
             if let Some(named) = self.named_by_reference_shape(theta, &exact) {
                 exact = named;
             }
         }
-        let num = self.paired_by_shape(theta, &exact).unwrap_or_else(|| {
-            Tracker {
-                freq: &|t| self.numerical_raw(t),
-            }
-            .follow(theta)
-        });
+        let num = self
+            .paired_by_shape(theta, &exact)
+            .unwrap_or_else(|| self.numerical_by_ray(theta));
         (num, exact)
+    }
+
+    /// The exact eigen-decomposition at θ: (values, vectors).
+    fn exact_decomposition(&self, theta: &[f64]) -> Option<(Vec<C64>, Vec<C64>)> {
+        let m = self.op.m;
+        let lc = linalg::from_matrix(
+            &self
+                .problem
+                .system
+                .continuous_symbol(&self.wavevector(theta)),
+        );
+        let zero = C64::new(0.0, 0.0);
+        let (mut ve, mut xe) = (vec![zero; m], vec![zero; m * m]);
+        EigSolver::new(m)
+            .eigenvalues_and_vectors(&lc, &mut ve, &mut xe)
+            .ok()?;
+        Some((ve, xe))
+    }
+
+    fn named_by_reference_shape(&self, theta: &[f64], exact: &[C64]) -> Option<Vec<C64>> {
+        let (ve, xe) = self.exact_decomposition(theta)?;
+        self.named_with(exact, &ve, &xe)
     }
 
     /// A user's system has no physical mode names, only mode1..m, and ordering by
@@ -179,46 +331,25 @@ impl<'a> Frequencies<'a> {
     /// (the slower wave along +x is the faster one's mirror along −x). Its mode j
     /// is therefore the wave whose shape is eigenvector j of the x-flux matrix A₁
     /// (ascending speed along +x), wherever that shape decides; `exact` is
-    /// reordered accordingly. None when A₁'s speeds are not distinct or shapes do
-    /// not decide.
-    fn named_by_reference_shape(&self, theta: &[f64], exact: &[C64]) -> Option<Vec<C64>> {
-        let system = &self.problem.system;
+    /// reordered accordingly. None when A₁'s speeds are not distinct, shapes do
+    /// not decide, or the system is not a `linear` one. `ve`, `xe`: the
+    /// eigenvalues and eigenvectors of the continuous symbol at θ.
+    pub(super) fn named_with(&self, exact: &[C64], ve: &[C64], xe: &[C64]) -> Option<Vec<C64>> {
+        let reference = self.reference.as_ref()?;
         let m = self.op.m;
-        let zero = C64::new(0.0, 0.0);
-        let mut solver = EigSolver::new(m);
-        let (mut speeds, mut refs) = (vec![zero; m], vec![zero; m * m]);
-        solver
-            .eigenvalues_and_vectors(
-                &linalg::from_matrix(&system.flux[0]),
-                &mut speeds,
-                &mut refs,
-            )
-            .ok()?;
-        let mut by_speed: Vec<usize> = (0..m).collect();
-        by_speed.sort_by(|a, b| speeds[*a].re.total_cmp(&speeds[*b].re));
-        let scale = speeds.iter().map(|z| z.norm()).fold(0.0, f64::max);
-        let distinct = by_speed
-            .windows(2)
-            .all(|w| (speeds[w[1]] - speeds[w[0]]).norm() > 1e-6 * scale);
-        if !distinct || scale == 0.0 {
-            return None;
-        }
-        let k: Vec<f64> = theta
-            .iter()
-            .zip(&self.problem.spacing)
-            .map(|(t, h)| t / h)
-            .collect();
-        let lc = linalg::from_matrix(&system.continuous_symbol(&k));
-        let (mut ve, mut xe) = (vec![zero; m], vec![zero; m * m]);
-        solver.eigenvalues_and_vectors(&lc, &mut ve, &mut xe).ok()?;
         let we: Vec<C64> = ve.iter().map(|mu| C64::new(0.0, 1.0) * mu).collect();
         // the exact eigenvectors at θ in the order of `exact`
         let order = shape::nearest_order(exact, &we)?;
         let at_theta: Vec<C64> = (0..m * m)
             .map(|rc| xe[(rc / m) * m + order[rc % m]])
             .collect();
-        let ref_speeds: Vec<C64> = by_speed.iter().map(|&j| speeds[j]).collect();
-        let pairing = shape::pair(&refs, &by_speed, &ref_speeds, &at_theta, m)?;
+        let pairing = shape::pair(
+            &reference.vectors,
+            &reference.by_speed,
+            &reference.speeds,
+            &at_theta,
+            m,
+        )?;
         Some(pairing.iter().map(|&j| exact[j]).collect())
     }
 
@@ -226,25 +357,31 @@ impl<'a> Frequencies<'a> {
     /// order), paired by eigenvector shape; None when shapes do not decide.
     fn paired_by_shape(&self, theta: &[f64], exact: &[C64]) -> Option<Vec<C64>> {
         let m = self.op.m;
-        let k: Vec<f64> = theta
-            .iter()
-            .zip(&self.problem.spacing)
-            .map(|(t, h)| t / h)
-            .collect();
-        let lc = linalg::from_matrix(&self.problem.system.continuous_symbol(&k));
+        let (ve, xe) = self.exact_decomposition(theta)?;
         let zero = C64::new(0.0, 0.0);
-        let (mut ve, mut xe) = (vec![zero; m], vec![zero; m * m]);
         let (mut vn, mut xn) = (vec![zero; m], vec![zero; m * m]);
-        let mut solver = EigSolver::new(m);
-        solver.eigenvalues_and_vectors(&lc, &mut ve, &mut xe).ok()?;
-        solver
+        EigSolver::new(m)
             .eigenvalues_and_vectors(&self.op.symbol(theta), &mut vn, &mut xn)
             .ok()?;
+        self.paired_with(exact, &ve, &xe, &vn, &xn)
+    }
+
+    /// [`Frequencies::paired_by_shape`] from the decompositions of the exact
+    /// (`ve`, `xe`) and numerical (`vn`, `xn`) symbols at θ.
+    pub(super) fn paired_with(
+        &self,
+        exact: &[C64],
+        ve: &[C64],
+        xe: &[C64],
+        vn: &[C64],
+        xn: &[C64],
+    ) -> Option<Vec<C64>> {
+        let m = self.op.m;
         // the exact decomposition's modes in the order of `exact`
         let we: Vec<C64> = ve.iter().map(|mu| C64::new(0.0, 1.0) * mu).collect();
         let order = shape::nearest_order(exact, &we)?;
         let wn: Vec<C64> = vn.iter().map(|mu| C64::new(0.0, 1.0) * mu).collect();
-        let pairing = shape::pair(&xe, &order, exact, &xn, m)?;
+        let pairing = shape::pair(xe, &order, exact, xn, m)?;
         Some(pairing.iter().map(|&j| wn[j]).collect())
     }
 
@@ -328,16 +465,7 @@ impl<'a> Frequencies<'a> {
         let mut out = Vec::with_capacity(num.len() * method.levels());
         let mut computational = Vec::new();
         for w in num {
-            let z = C64::new(0.0, -1.0) * w * dt;
-            let target = z.exp();
-            let roots = method.amplification_eigenvalues(z);
-            let principal = (0..roots.len())
-                .min_by(|a, b| {
-                    (roots[*a] - target)
-                        .norm()
-                        .total_cmp(&(roots[*b] - target).norm())
-                })
-                .unwrap_or(0);
+            let (roots, principal) = self.roots(*w, dt);
             for (j, l) in roots.iter().enumerate() {
                 if j == principal {
                     out.push(log_branch(*l, dt, w.re));
@@ -348,6 +476,32 @@ impl<'a> Frequencies<'a> {
         }
         out.extend(computational);
         out
+    }
+
+    /// The amplification factors of a one-step or multistep method for the
+    /// semi-discrete frequency ω (z = −iωΔt) and the index of the principal
+    /// one, nearest e^z.
+    fn roots(&self, w: C64, dt: f64) -> (Vec<C64>, usize) {
+        let z = C64::new(0.0, -1.0) * w * dt;
+        let target = z.exp();
+        let roots = self.problem.method.amplification_eigenvalues(z);
+        let principal = (0..roots.len())
+            .min_by(|a, b| {
+                (roots[*a] - target)
+                    .norm()
+                    .total_cmp(&(roots[*b] - target).norm())
+            })
+            .unwrap_or(0);
+        (roots, principal)
+    }
+
+    /// The fully discrete ω of the principal root for the semi-discrete ω
+    /// (one-step and multistep methods; see [`Frequencies::discrete`]).
+    pub(super) fn principal(&self, w: C64, dt: f64) -> C64 {
+        let (roots, principal) = self.roots(w, dt);
+        roots
+            .get(principal)
+            .map_or(C64::new(f64::NAN, f64::NAN), |l| log_branch(*l, dt, w.re))
     }
 
     /// [`Frequencies::discrete`] for composite schemes, from the eigenvalues of G.

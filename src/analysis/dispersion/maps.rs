@@ -39,6 +39,9 @@ pub struct DerivedMaps {
     pub decay_rate_ratio_discrete: Vec<f64>,
 }
 
+/// Number of derived maps.
+pub const MAP_COUNT: usize = 12;
+
 /// The frequencies and group velocities at one node, as the maps need them.
 pub struct NodeFrequencies<'a> {
     /// Semi-discrete ω (m).
@@ -47,12 +50,12 @@ pub struct NodeFrequencies<'a> {
     pub exact: &'a [C64],
     /// Fully discrete ω (m principal first).
     pub discrete: &'a [C64],
-    /// Semi-discrete group velocities (m × d).
-    pub group: &'a [Vec<f64>],
+    /// Semi-discrete group velocities (m × d, mode-major).
+    pub group: &'a [f64],
     /// Exact group velocities.
-    pub group_exact: &'a [Vec<f64>],
+    pub group_exact: &'a [f64],
     /// Fully discrete group velocities.
-    pub group_discrete: &'a [Vec<f64>],
+    pub group_discrete: &'a [f64],
 }
 
 /// Amplitude factor over one period of the exact wave (NaN where it does not move).
@@ -74,40 +77,83 @@ fn per_unit_travel(wn: C64, ge: &[f64]) -> f64 {
     }
 }
 
-impl DerivedMaps {
-    /// Appends the m values of one node to every map.
-    pub fn push(&mut self, f: &NodeFrequencies) {
-        let m = f.exact.len();
-        let scale = f
-            .exact
+impl NodeFrequencies<'_> {
+    /// Number of modes.
+    pub fn modes(&self) -> usize {
+        self.exact.len()
+    }
+
+    /// The frequency scale below which an exact mode counts as standing or undamped.
+    pub fn scale(&self) -> f64 {
+        self.exact
             .iter()
             .map(|z| z.norm())
             .fold(0.0, f64::max)
-            .max(1e-300);
-        for j in 0..m {
-            let (we, ge) = (f.exact[j], &f.group_exact[j]);
-            self.phase_speed_ratio
-                .push(phase_ratio(f.numerical[j], we, scale));
-            self.phase_speed_ratio_discrete
-                .push(phase_ratio(f.discrete[j], we, scale));
-            let (r, a) = group_ratio(&f.group[j], ge);
-            self.group_speed_ratio.push(r);
-            self.group_angle_error.push(a);
-            let (r, a) = group_ratio(&f.group_discrete[j], ge);
-            self.group_speed_ratio_discrete.push(r);
-            self.group_angle_error_discrete.push(a);
-            self.amplitude_per_period
-                .push(per_period(f.numerical[j], we, scale));
-            self.amplitude_per_period_discrete
-                .push(per_period(f.discrete[j], we, scale));
-            self.amplitude_per_unit_travel
-                .push(per_unit_travel(f.numerical[j], ge));
-            self.amplitude_per_unit_travel_discrete
-                .push(per_unit_travel(f.discrete[j], ge));
-            self.decay_rate_ratio
-                .push(decay_ratio(f.numerical[j], we, scale));
-            self.decay_rate_ratio_discrete
-                .push(decay_ratio(f.discrete[j], we, scale));
+            .max(1e-300)
+    }
+
+    /// Mode j's values of the maps, in the order of [`DerivedMaps::columns_mut`].
+    pub fn map_values(&self, j: usize, scale: f64) -> [f64; MAP_COUNT] {
+        let d = self.group.len() / self.modes().max(1);
+        let g = |v: &'_ [f64]| -> std::ops::Range<usize> { (j * d)..((j + 1) * d).min(v.len()) };
+        let ge = &self.group_exact[g(self.group_exact)];
+        let we = self.exact[j];
+        let (wn, wd) = (self.numerical[j], self.discrete[j]);
+        let (r, a) = group_ratio(&self.group[g(self.group)], ge);
+        let (rd, ad) = group_ratio(&self.group_discrete[g(self.group_discrete)], ge);
+        [
+            phase_ratio(wn, we, scale),
+            phase_ratio(wd, we, scale),
+            r,
+            a,
+            rd,
+            ad,
+            per_period(wn, we, scale),
+            per_period(wd, we, scale),
+            per_unit_travel(wn, ge),
+            per_unit_travel(wd, ge),
+            decay_ratio(wn, we, scale),
+            decay_ratio(wd, we, scale),
+        ]
+    }
+}
+
+impl DerivedMaps {
+    /// Maps of `len` values each, zero until written.
+    pub fn zeroed(len: usize) -> Self {
+        let mut maps = DerivedMaps::default();
+        for column in maps.columns_mut() {
+            column.resize(len, 0.0);
+        }
+        maps
+    }
+
+    /// Every map, in the order of [`NodeFrequencies::map_values`].
+    pub fn columns_mut(&mut self) -> [&mut Vec<f64>; MAP_COUNT] {
+        [
+            &mut self.phase_speed_ratio,
+            &mut self.phase_speed_ratio_discrete,
+            &mut self.group_speed_ratio,
+            &mut self.group_angle_error,
+            &mut self.group_speed_ratio_discrete,
+            &mut self.group_angle_error_discrete,
+            &mut self.amplitude_per_period,
+            &mut self.amplitude_per_period_discrete,
+            &mut self.amplitude_per_unit_travel,
+            &mut self.amplitude_per_unit_travel_discrete,
+            &mut self.decay_rate_ratio,
+            &mut self.decay_rate_ratio_discrete,
+        ]
+    }
+
+    /// Appends the m values of one node to every map.
+    pub fn push(&mut self, f: &NodeFrequencies) {
+        let scale = f.scale();
+        for j in 0..f.modes() {
+            let values = f.map_values(j, scale);
+            for (column, v) in self.columns_mut().into_iter().zip(values) {
+                column.push(v);
+            }
         }
     }
 }

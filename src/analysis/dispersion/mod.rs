@@ -9,14 +9,17 @@
 pub mod curves;
 pub mod frequencies;
 pub mod maps;
+pub mod node;
 pub mod resolution;
 pub mod shape;
+pub mod slopes;
+pub mod stream;
 
 use super::context::Context;
-use crate::sample::{self, Stage};
 use frequencies::Frequencies;
 use maps::{DerivedMaps, NodeFrequencies};
 use num_complex::Complex64 as C64;
+use stream::NodeArrays;
 
 /// Dispersion and dissipation.
 #[derive(Debug, Clone, PartialEq)]
@@ -68,18 +71,23 @@ pub struct DispersionResult {
     pub names: Vec<String>,
     /// Number of computational (extra fully discrete) modes.
     pub computational: usize,
-    /// Per node: semi-discrete ω (m), C order.
-    pub numerical: Vec<Vec<C64>>,
-    /// Per node: exact ω (m).
-    pub exact: Vec<Vec<C64>>,
-    /// Per node: fully discrete ω (m principal + computational).
-    pub discrete: Vec<Vec<C64>>,
-    /// Per node: numerical group velocity (m × d).
-    pub group: Vec<Vec<Vec<f64>>>,
-    /// Per node: exact group velocity (m × d).
-    pub group_exact: Vec<Vec<Vec<f64>>>,
-    /// Per node: fully discrete group velocity (m × d).
-    pub group_discrete: Vec<Vec<Vec<f64>>>,
+    /// Number of axes d.
+    pub dims: usize,
+    /// Semi-discrete ω, nodes × m (node-major, nodes in C order).
+    pub numerical: Vec<C64>,
+    /// Exact ω, nodes × m.
+    pub exact: Vec<C64>,
+    /// Fully discrete ω, nodes × `discrete_modes` (m principal roots, then the
+    /// computational modes).
+    pub discrete: Vec<C64>,
+    /// Fully discrete frequencies per node (m + `computational`).
+    pub discrete_modes: usize,
+    /// Numerical group velocity, nodes × m × d.
+    pub group: Vec<f64>,
+    /// Exact group velocity, nodes × m × d.
+    pub group_exact: Vec<f64>,
+    /// Fully discrete group velocity, nodes × m × d.
+    pub group_discrete: Vec<f64>,
     /// Physical directions of the curves (unit vectors in k-space).
     pub directions: Vec<Vec<f64>>,
     /// Points per wavelength 2π/max_d |θ_d| of the curve samples (the same
@@ -105,6 +113,27 @@ pub struct DispersionResult {
     /// Per mode: share of grid wavevectors where the numerical group velocity
     /// opposes the exact one (parasitic, grid-scale waves).
     pub parasitic_fraction: Vec<f64>,
+}
+
+impl DispersionResult {
+    /// Number of physical modes m.
+    pub fn modes(&self) -> usize {
+        self.names.len()
+    }
+
+    /// Everything at grid node `i` (flat C-order index).
+    pub fn node(&self, i: usize) -> NodeFrequencies<'_> {
+        let (m, d, dm) = (self.modes(), self.dims, self.discrete_modes);
+        let (modes, vectors) = (i * m..(i + 1) * m, i * m * d..(i + 1) * m * d);
+        NodeFrequencies {
+            numerical: &self.numerical[modes.clone()],
+            exact: &self.exact[modes],
+            discrete: &self.discrete[i * dm..(i + 1) * dm],
+            group: &self.group[vectors.clone()],
+            group_exact: &self.group_exact[vectors.clone()],
+            group_discrete: &self.group_discrete[vectors],
+        }
+    }
 }
 
 /// Phase-speed ratio Re ω_num / Re ω_exact, NaN where the exact mode does not move.
@@ -142,29 +171,24 @@ pub fn group_ratio(gn: &[f64], ge: &[f64]) -> (f64, f64) {
     (dot / e2, cos.acos())
 }
 
-type NodeOut = (
-    Vec<C64>,
-    Vec<C64>,
-    Vec<C64>,
-    Vec<Vec<f64>>,
-    Vec<Vec<f64>>,
-    Vec<Vec<f64>>,
-);
-
 /// The dispersion analysis.
 pub(super) fn analyse(ctx: &Context, p: &DispersionParams) -> DispersionResult {
     let (grid, dt) = (&ctx.grid, ctx.dt);
     let f = Frequencies::new(ctx.problem, &ctx.op);
-    ctx.progress.start(Stage::Dispersion, grid.len() as u64);
-    let nodes: Vec<NodeOut> =
-        sample::map(grid, ctx.par, sample::Symmetry::None, ctx.progress, |th| {
-            let (num, exact) = f.matched(th);
-            let disc = f.discrete(th, &num, dt);
-            let (gn, ge) = f.group_velocities(th, &num, &exact);
-            let gd = f.discrete_group_velocities(th, &num, &disc, dt);
-            (num, exact, disc, gn, ge, gd)
-        });
-    ctx.progress.finish();
+    // the number of fully discrete roots, from the first node
+    let first: Vec<f64> = grid.coords.iter().map(|c| c[0]).collect();
+    let (num, _) = f.matched(&first);
+    let discrete_modes = f.discrete(&first, &num, dt).len();
+    let NodeArrays {
+        numerical,
+        exact,
+        discrete,
+        group,
+        group_exact,
+        group_discrete,
+        maps,
+        opposed,
+    } = stream::sweep(ctx, &f, discrete_modes);
     let dirs = curves::curve_directions(grid.points.len(), p.directions);
     let curves: Vec<_> = ctx.par.run(|| {
         use rayon::prelude::*;
@@ -174,44 +198,10 @@ pub(super) fn analyse(ctx: &Context, p: &DispersionParams) -> DispersionResult {
     let m = names.len();
     let tol = p.phase_tolerance;
     let resolution = resolution::resolve(&f, &dirs, &curves, dt, tol, m, ctx.par);
-    let computational = nodes.first().map_or(0, |n| n.2.len().saturating_sub(m));
+    let computational = discrete_modes.saturating_sub(m);
     let ppw = curves::curve_ppw();
-    let mut maps = DerivedMaps::default();
-    let mut opposed = vec![0usize; m];
-    for (num, exact, disc, gn, ge, gd) in &nodes {
-        maps.push(&NodeFrequencies {
-            numerical: num,
-            exact,
-            discrete: disc,
-            group: gn,
-            group_exact: ge,
-            group_discrete: gd,
-        });
-        for (j, count) in opposed.iter_mut().enumerate() {
-            let dot: f64 = gn[j].iter().zip(&ge[j]).map(|(a, b)| a * b).sum();
-            if dot < 0.0 {
-                *count += 1;
-            }
-        }
-    }
-    let parasitic_fraction = opposed
-        .iter()
-        .map(|c| *c as f64 / nodes.len().max(1) as f64)
-        .collect();
-    let mut numerical = Vec::with_capacity(nodes.len());
-    let mut exact = Vec::with_capacity(nodes.len());
-    let mut discrete = Vec::with_capacity(nodes.len());
-    let mut group = Vec::with_capacity(nodes.len());
-    let mut group_exact = Vec::with_capacity(nodes.len());
-    let mut group_discrete = Vec::with_capacity(nodes.len());
-    for (a, b, c, d, e, g) in nodes {
-        numerical.push(a);
-        exact.push(b);
-        discrete.push(c);
-        group.push(d);
-        group_exact.push(e);
-        group_discrete.push(g);
-    }
+    let nodes = grid.len().max(1) as f64;
+    let parasitic_fraction = opposed.iter().map(|c| *c as f64 / nodes).collect();
     let mut phase_curves = Vec::new();
     let mut phase_curves_discrete = Vec::new();
     let mut group_curves = Vec::new();
@@ -227,9 +217,11 @@ pub(super) fn analyse(ctx: &Context, p: &DispersionParams) -> DispersionResult {
     DispersionResult {
         names,
         computational,
+        dims: grid.points.len(),
         numerical,
         exact,
         discrete,
+        discrete_modes,
         group,
         group_exact,
         group_discrete,

@@ -9,7 +9,6 @@ use crate::analysis::Results;
 use crate::problem::Problem;
 use crate::report::format::{direction_deg, num, sig3, vec_num};
 use crate::report::npy::{axis, plain, Array};
-use num_complex::Complex64 as C64;
 use serde_json::{json, Map, Value};
 
 /// Dispersion.
@@ -27,14 +26,11 @@ impl Section for Dispersion {
         let mut mdims = grid_dims(r);
         mdims.push(plain("mode"));
         let names = json!(d.names);
-        let flat = |v: &[Vec<C64>]| -> Vec<C64> {
-            v.iter().flat_map(|x| x[..m].iter().copied()).collect()
-        };
         out.push(
             Array::complex(
                 "frequency",
                 &shape,
-                flat(&d.numerical),
+                &d.numerical[..],
                 mdims.clone(),
                 "rad s-1",
                 "semi-discrete angular frequency omega = i eig L, per physical mode",
@@ -45,14 +41,14 @@ impl Section for Dispersion {
             Array::complex(
                 "frequency_exact",
                 &shape,
-                flat(&d.exact),
+                &d.exact[..],
                 mdims.clone(),
                 "rad s-1",
                 "angular frequency of the continuous system, per physical mode",
             )
             .with("labels", names.clone()),
         );
-        let mm = d.discrete.first().map_or(m, |x| x.len());
+        let mm = d.discrete_modes;
         let mut dshape = r.grid.points.clone();
         dshape.push(mm);
         // the fully discrete modes (principal + computational) are a dimension of their own
@@ -64,7 +60,7 @@ impl Section for Dispersion {
             Array::complex(
                 "frequency_discrete",
                 &dshape,
-                d.discrete.iter().flatten().copied().collect::<Vec<C64>>(),
+                &d.discrete[..],
                 ddims,
                 "rad s-1",
                 "fully discrete omega from eig G (lambda = exp(-i omega dt)), physical modes then computational modes",
@@ -118,12 +114,8 @@ impl Section for Dispersion {
                 "fully discrete group velocity d omega / d k of the principal roots",
             ),
         ] {
-            let data: Vec<f64> = src
-                .iter()
-                .flat_map(|node| node.iter().flat_map(|v| v.iter().copied()))
-                .collect();
             out.push(
-                Array::real(name, &gshape, data, gdims.clone(), "m s-1", long_name)
+                Array::real(name, &gshape, &src[..], gdims.clone(), "m s-1", long_name)
                     .with("labels", names.clone()),
             );
         }

@@ -1,0 +1,139 @@
+//! First derivatives of the eigenvalues of a matrix A(t) along a parameter,
+//! from its eigenvectors (standard first-order perturbation theory, e.g.
+//! Wilkinson, The Algebraic Eigenvalue Problem, 1965, ch. 2 — cited from
+//! memory): with X the right eigenvectors, the derivatives of simple
+//! eigenvalues are the diagonal of X⁻¹ A′ X, and those of a cluster of equal
+//! eigenvalues of a diagonalisable A are the eigenvalues of the cluster's block
+//! of X⁻¹ A′ X. Where X is ill-conditioned (a defective or nearly defective A,
+//! whose eigenvalues are not differentiable) no slopes are given and the caller
+//! falls back to differences.
+
+use crate::linalg::{EigSolver, LuSolver};
+use num_complex::Complex64 as C64;
+
+/// Eigenvalues closer than this fraction of the largest one form a cluster.
+const CLUSTER: f64 = 1e-9;
+/// Largest condition number κ₁(X) of the eigenvectors accepted.
+const MAX_CONDITION: f64 = 1e6;
+
+/// Workspace for one matrix size.
+pub struct Slopes {
+    m: usize,
+    lu: LuSolver,
+    inverse: Vec<C64>,
+    vectors: Vec<C64>,
+    values: Vec<C64>,
+    product: Vec<C64>,
+    projected: Vec<C64>,
+    members: Vec<usize>,
+    block: Vec<C64>,
+    block_values: Vec<C64>,
+}
+
+impl Slopes {
+    /// For m×m matrices.
+    pub fn new(m: usize) -> Self {
+        let zero = C64::new(0.0, 0.0);
+        Slopes {
+            m,
+            lu: LuSolver::new(m),
+            inverse: vec![zero; m * m],
+            vectors: vec![zero; m * m],
+            values: vec![zero; m],
+            product: vec![zero; m * m],
+            projected: vec![zero; m * m],
+            members: Vec::with_capacity(m),
+            block: Vec::with_capacity(m * m),
+            block_values: Vec::with_capacity(m),
+        }
+    }
+
+    /// Takes the eigen-decomposition (values, row-major vectors with one per
+    /// column) of A; false when X is singular or κ₁(X) exceeds 10⁶.
+    pub fn set(&mut self, values: &[C64], vectors: &[C64]) -> bool {
+        let m = self.m;
+        if m > 64 {
+            return false; // the cluster bookkeeping holds one bit per eigenvalue
+        }
+        self.values.copy_from_slice(values);
+        self.vectors.copy_from_slice(vectors);
+        self.inverse.fill(C64::new(0.0, 0.0));
+        for i in 0..m {
+            self.inverse[i * m + i] = C64::new(1.0, 0.0);
+        }
+        if self.lu.solve(vectors, &mut self.inverse, m).is_err() {
+            return false;
+        }
+        let norm1 = |a: &[C64]| {
+            (0..m)
+                .map(|c| (0..m).map(|r| a[r * m + c].norm()).sum::<f64>())
+                .fold(0.0, f64::max)
+        };
+        let condition = norm1(&self.vectors) * norm1(&self.inverse);
+        condition.is_finite() && condition <= MAX_CONDITION
+    }
+
+    /// The derivative of each eigenvalue (in the order of the values given to
+    /// [`Slopes::set`]) for the derivative matrix A′ (row-major); false when a
+    /// cluster's block has no eigenvalues.
+    pub fn slopes(&mut self, derivative: &[C64], out: &mut [C64]) -> bool {
+        let m = self.m;
+        // product = A′ X, projected = X⁻¹ A′ X
+        multiply(derivative, &self.vectors, &mut self.product, m);
+        multiply(&self.inverse, &self.product, &mut self.projected, m);
+        let scale = self.values.iter().map(|z| z.norm()).fold(0.0, f64::max);
+        let mut done = 0u64;
+        for k in 0..m {
+            if done & (1 << k) != 0 {
+                continue;
+            }
+            self.members.clear();
+            for j in k..m {
+                if (self.values[j] - self.values[k]).norm() <= CLUSTER * scale {
+                    self.members.push(j);
+                    done |= 1 << j;
+                }
+            }
+            let s = self.members.len();
+            if s == 1 {
+                out[k] = self.projected[k * m + k];
+                continue;
+            }
+            self.block.clear();
+            for &r in &self.members {
+                for &c in &self.members {
+                    self.block.push(self.projected[r * m + c]);
+                }
+            }
+            self.block_values.clear();
+            self.block_values.resize(s, C64::new(0.0, 0.0));
+            if EigSolver::new(s)
+                .eigenvalues(&self.block, &mut self.block_values)
+                .is_err()
+            {
+                return false;
+            }
+            // ascending real part, so that a cluster's slopes come out in a
+            // fixed order whatever basis of its eigenspace the kernel chose
+            self.block_values
+                .sort_by(|a, b| a.re.total_cmp(&b.re).then(a.im.total_cmp(&b.im)));
+            for (&j, v) in self.members.iter().zip(&self.block_values) {
+                out[j] = *v;
+            }
+        }
+        true
+    }
+}
+
+/// c = a b for row-major m×m matrices.
+fn multiply(a: &[C64], b: &[C64], c: &mut [C64], m: usize) {
+    for i in 0..m {
+        for j in 0..m {
+            let mut acc = C64::new(0.0, 0.0);
+            for k in 0..m {
+                acc += a[i * m + k] * b[k * m + j];
+            }
+            c[i * m + j] = acc;
+        }
+    }
+}
