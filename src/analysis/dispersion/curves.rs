@@ -8,7 +8,9 @@
 //! mode needs is found from these curves in [`super::resolution`].
 
 use super::frequencies::Frequencies;
+use super::node::{NodeSlots, NodeWork};
 use super::{decay_ratio, group_ratio, phase_ratio};
+use num_complex::Complex64 as C64;
 use std::f64::consts::PI;
 
 /// Points per wavelength of a wavevector in θ-space: 2π/max_d |θ_d| (cells per
@@ -55,7 +57,8 @@ pub fn theta_at(n: &[f64], spacing: &[f64], ppw: f64) -> Vec<f64> {
 }
 
 /// Dispersion and dissipation curves along one physical direction n, per
-/// sample and mode.
+/// sample and mode (each sample computed like a node of the maps, by
+/// [`NodeWork`]).
 pub fn curve(f: &Frequencies, n: &[f64], dt: f64) -> Curve {
     let spacing = &f.problem().spacing;
     let ppw = curve_ppw();
@@ -63,13 +66,29 @@ pub fn curve(f: &Frequencies, n: &[f64], dt: f64) -> Curve {
         ppw: ppw.clone(),
         ..Curve::default()
     };
+    let (m, d) = (f.problem().system.size(), n.len());
+    let mut work = NodeWork::new(m, d);
+    let zero = C64::new(0.0, 0.0);
+    let (mut num, mut exact) = (vec![zero; m], vec![zero; m]);
+    let mut disc = vec![zero; m];
+    let (mut gn, mut ge, mut gd) = (vec![0.0; m * d], vec![0.0; m * d], vec![0.0; m * d]);
     for p in &ppw {
         let theta = theta_at(n, spacing, *p);
-        let (num, exact) = f.matched(&theta);
+        work.evaluate(
+            f,
+            &theta,
+            dt,
+            NodeSlots {
+                numerical: &mut num,
+                exact: &mut exact,
+                discrete: &mut disc,
+                group: &mut gn,
+                group_exact: &mut ge,
+                group_discrete: &mut gd,
+            },
+        );
         let scale = frequency_scale(&exact);
-        let disc = f.discrete(&theta, &num, dt);
-        let (gn, ge) = f.group_velocities(&theta, &num, &exact);
-        let ratios = |w: &[num_complex::Complex64], ratio: fn(_, _, f64) -> f64| -> Vec<f64> {
+        let ratios = |w: &[C64], ratio: fn(_, _, f64) -> f64| -> Vec<f64> {
             w.iter()
                 .zip(&exact)
                 .map(|(a, b)| ratio(*a, *b, scale))
@@ -80,8 +99,8 @@ pub fn curve(f: &Frequencies, n: &[f64], dt: f64) -> Curve {
         c.decay.push(ratios(&num, decay_ratio));
         c.decay_discrete.push(ratios(&disc, decay_ratio));
         c.group.push(
-            gn.iter()
-                .zip(&ge)
+            gn.chunks(d)
+                .zip(ge.chunks(d))
                 .map(|(a, b)| group_ratio(a, b).0)
                 .collect(),
         );
@@ -91,7 +110,7 @@ pub fn curve(f: &Frequencies, n: &[f64], dt: f64) -> Curve {
 
 /// The largest |ω| of the exact modes (the scale below which a mode counts as
 /// not moving).
-pub fn frequency_scale(exact: &[num_complex::Complex64]) -> f64 {
+pub fn frequency_scale(exact: &[C64]) -> f64 {
     exact
         .iter()
         .map(|w| w.norm())
