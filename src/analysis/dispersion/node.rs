@@ -115,8 +115,8 @@ impl NodeWork {
         self.frequencies_of_matrix();
     }
 
-    /// The continuous symbol at the physical wavevector of `theta` into `self.matrix`.
-    fn continuous_symbol(&mut self, f: &Frequencies, theta: &[f64]) {
+    /// The physical wavevector k_d = θ_d/h_d of `theta` into `self.wavevector`.
+    fn set_wavevector(&mut self, f: &Frequencies, theta: &[f64]) {
         for ((k, t), h) in self
             .wavevector
             .iter_mut()
@@ -125,6 +125,11 @@ impl NodeWork {
         {
             *k = t / h;
         }
+    }
+
+    /// The continuous symbol at the physical wavevector of `theta` into `self.matrix`.
+    fn continuous_symbol(&mut self, f: &Frequencies, theta: &[f64]) {
+        self.set_wavevector(f, theta);
         f.problem()
             .system
             .continuous_symbol_into(&self.wavevector, &mut self.matrix);
@@ -223,14 +228,7 @@ impl NodeWork {
             *w = i * mu;
         }
         nearest_into(exact, &self.raw, &mut self.exact_index);
-        for ((k, t), h) in self
-            .wavevector
-            .iter_mut()
-            .zip(theta)
-            .zip(&f.problem().spacing)
-        {
-            *k = t / h;
-        }
+        self.set_wavevector(f, theta);
         for a in 0..d {
             f.problem()
                 .system
@@ -290,18 +288,10 @@ impl NodeWork {
             for side in 0..2 {
                 shifted[ax] = theta[ax] + if side == 0 { DELTA } else { -DELTA };
                 self.numerical_raw(f, &shifted);
-                let slots = if side == 0 {
-                    &mut self.plus
-                } else {
-                    &mut self.minus
-                };
+                let slots = pick(&mut self.plus, &mut self.minus, side);
                 pair_into(num, &self.raw, &mut slots[0]);
                 self.exact_raw(f, &shifted);
-                let slots = if side == 0 {
-                    &mut self.plus
-                } else {
-                    &mut self.minus
-                };
+                let slots = pick(&mut self.plus, &mut self.minus, side);
                 pair_into(exact, &self.raw, &mut slots[1]);
                 let w = f.discrete(&shifted, &slots[0], dt);
                 pair_into(&disc[..m], &w[..m], &mut slots[2]);
@@ -390,6 +380,19 @@ fn nearest_into(wanted: &[C64], have: &[C64], out: &mut [usize]) {
         }
         taken |= 1 << best.0;
         *o = best.0;
+    }
+}
+
+/// The paired spectra of side 0 (θ + δ) or side 1 (θ − δ).
+fn pick<'a>(
+    plus: &'a mut [Vec<C64>; 3],
+    minus: &'a mut [Vec<C64>; 3],
+    side: usize,
+) -> &'a mut [Vec<C64>; 3] {
+    if side == 0 {
+        plus
+    } else {
+        minus
     }
 }
 
