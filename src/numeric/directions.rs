@@ -45,17 +45,47 @@ pub fn lattice_3d() -> Vec<[f64; 3]> {
     out
 }
 
+/// The unit vector at angle 2πj/D on the circle, with the axes exact
+/// (cos(π/2) is 6.1e-17 in floating point, and a ray θ = s n off the axis by
+/// that much is no longer neutral by construction for a scheme upwinded across
+/// the axis: its real part is then lost in rounding) and the diagonals'
+/// components exactly ±1/√2. The angle is reduced to a quarter turn and the
+/// quarter turns are applied exactly.
+fn circle_point(j: usize, count: usize) -> [f64; 2] {
+    let quarter = count / 4;
+    if count % 4 != 0 || quarter == 0 {
+        let a = 2.0 * PI * j as f64 / count as f64;
+        return [a.cos(), a.sin()];
+    }
+    let (turns, r) = (j / quarter, j % quarter);
+    let (c, s) = if r == 0 {
+        (1.0, 0.0)
+    } else if 2 * r == quarter {
+        (std::f64::consts::FRAC_1_SQRT_2, std::f64::consts::FRAC_1_SQRT_2)
+    } else {
+        let a = 2.0 * PI * r as f64 / count as f64;
+        (a.cos(), a.sin())
+    };
+    match turns % 4 {
+        0 => [c, s],
+        1 => [-s, c],
+        2 => [-c, -s],
+        _ => [s, -c],
+    }
+}
+
 /// Unit vectors for a dimension: ±x in 1-D; in 2-D `count` angles rounded up
-/// to a multiple of 8, so that the axes and diagonals are in the set; in 3-D
+/// to a multiple of 8, so that the axes and diagonals are in the set (exactly,
+/// see [`circle_point`]); in 3-D
 /// the 26 lattice directions (axes, face and body diagonals; the first `count`
 /// of them when fewer are asked for) followed by `count − 26` Fibonacci points.
 pub fn unit_vectors(dims: usize, count: usize) -> Vec<Vec<f64>> {
     match dims {
         1 => vec![vec![1.0], vec![-1.0]],
-        2 => circle(count.max(1).div_ceil(8) * 8)
-            .into_iter()
-            .map(|a| vec![a.cos(), a.sin()])
-            .collect(),
+        2 => {
+            let d = count.max(1).div_ceil(8) * 8;
+            (0..d).map(|j| circle_point(j, d).to_vec()).collect()
+        }
         _ => {
             let mut v: Vec<Vec<f64>> = lattice_3d().into_iter().map(|v| v.to_vec()).collect();
             v.truncate(count);
@@ -69,6 +99,24 @@ pub fn unit_vectors(dims: usize, count: usize) -> Vec<Vec<f64>> {
 #[cfg(test)]
 mod tests {
     use super::*;
+
+    #[test]
+    fn circle_points_are_the_angles_with_exact_axes_and_diagonals() {
+        for d in [8, 16, 32, 184] {
+            let set = unit_vectors(2, d);
+            for (j, v) in set.iter().enumerate() {
+                let a = 2.0 * PI * j as f64 / d as f64;
+                assert!((v[0] - a.cos()).abs() < 2e-15 && (v[1] - a.sin()).abs() < 2e-15);
+                if 4 * j % d == 0 {
+                    assert!(v.iter().filter(|x| **x == 0.0).count() == 1, "{j}/{d}: {v:?}");
+                    assert!(v.iter().any(|x| x.abs() == 1.0));
+                }
+                if 8 * j % d == 0 && 4 * j % d != 0 {
+                    assert!(v.iter().all(|x| x.abs() == std::f64::consts::FRAC_1_SQRT_2));
+                }
+            }
+        }
+    }
 
     #[test]
     fn sets_hold_the_axes_and_the_diagonals() {
