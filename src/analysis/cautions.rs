@@ -18,7 +18,12 @@ pub(super) fn cautions(problem: &Problem, r: &Results) -> Vec<String> {
         ));
     }
     if let Some(l) = &r.limit {
-        if l.kind == LimitKind::None {
+        if let Some((found, resolved)) = l.below_resolution {
+            c.push(format!(
+                "no usable time step: the {} method loses stability at dt = {found:.3e}, below {resolved:.3e} (1e-7 of the time scale 1/||L||), where stability cannot be verified against rounding; reported as none",
+                problem.method.name
+            ));
+        } else if l.kind == LimitKind::None {
             c.push(format!(
                 "no time step is stable: the {} method amplifies some wavevector for every dt > 0",
                 problem.method.name

@@ -171,7 +171,22 @@ pub struct LimitResult {
     pub verification: Option<Verification>,
     /// The limit by wave direction.
     pub by_direction: DirectionalLimit,
+    /// Set when a bounded limit was found below [`RESOLVED`] times the time
+    /// scale 1/‖L‖ and is reported as kind none: (the limit found, the
+    /// smallest Δt resolved).
+    pub below_resolution: Option<(f64, f64)>,
 }
+
+/// The smallest limit reported as bounded, as a fraction of the time scale
+/// 1/‖L‖ of the fastest wave. Below it ρ(G) − 1 of a growth that follows a
+/// power Δtᵖ (p ≥ 2: a scheme unstable at every Δt, forward Euler with central
+/// differences) is beneath the rounding of G, so stability there cannot be
+/// verified; such a limit is of no practical use, and a scheme whose first loss
+/// falls to 0 towards long waves as a high power of |θ| (weak high-order
+/// dissipation against a growth of lower order) shows one there when its true
+/// limit is 0. Such limits, overall or per direction, are reported as none,
+/// the safe side.
+pub const RESOLVED: f64 = 1e-7;
 
 /// Wave directions for the limit: ±x in 1-D, angles in 2-D, sphere points in 3-D.
 pub fn limit_directions(dims: usize, count: usize) -> Vec<Vec<f64>> {
@@ -281,6 +296,18 @@ fn finish(
     verification: Option<Verification>,
 ) -> LimitResult {
     let (mut dt, mut wavevector): (Vec<f64>, Vec<Vec<f64>>) = res.into_iter().unzip();
+    let resolved = RESOLVED / ctx.op.scale().max(1e-300);
+    let mut below_resolution = None;
+    if overall.kind == LimitKind::Bounded && overall.dt_max < resolved {
+        below_resolution = Some((overall.dt_max, resolved));
+        overall.kind = LimitKind::None;
+        overall.dt_max = 0.0;
+    }
+    for d in dt.iter_mut() {
+        if *d > 0.0 && *d < resolved {
+            *d = 0.0;
+        }
+    }
     // a ray through the wavevector that sets the overall limit is never above it
     let w = &overall.wavevector;
     let wn = w.iter().map(|x| x * x).sum::<f64>().sqrt();
@@ -342,6 +369,7 @@ fn finish(
         found_by,
         verification,
         by_direction,
+        below_resolution,
     }
 }
 

@@ -111,6 +111,13 @@ impl Section for Limit {
                 "meaning": "stable for every dt in (0, dt_lo] at every wavevector examined (grid, continuous refinement, long waves and the corners of the box); unstable just above dt_hi; dt_max = dt_lo",
             });
         }
+        if let Some((found, resolved)) = l.below_resolution {
+            limit["below_resolution"] = json!({
+                "dt_found": num(found),
+                "dt_resolved": num(resolved),
+                "meaning": "a first loss of stability was found at dt_found, below dt_resolved = 1e-7 times the time scale 1/||L|| of the fastest wave, where growth of the amplification factor is beneath its rounding and stability cannot be verified; the limit is reported as none (no usable stable dt)",
+            });
+        }
         if let Some(v) = l.verification {
             limit["verified_below"] = json!({
                 "dt_steps_scanned": v.steps_scanned,
@@ -142,10 +149,16 @@ impl Section for Limit {
         };
         let v = match l.kind {
             LimitKind::Unconditional => "unconditional: stable for every dt > 0".to_string(),
-            LimitKind::None => format!(
-                "none: unstable for every dt > 0 (e.g. at theta = {})",
-                theta(&l.wavevector)
-            ),
+            LimitKind::None => match l.below_resolution {
+                Some((found, resolved)) => format!(
+                    "none: no stable dt above {resolved:.3e} (1e-7 of the time scale 1/||L||); stability is lost at {found:.3e} at theta = {}",
+                    theta(&l.wavevector)
+                ),
+                None => format!(
+                    "none: unstable for every dt > 0 (e.g. at theta = {})",
+                    theta(&l.wavevector)
+                ),
+            },
             LimitKind::Bounded => {
                 let c = l
                     .courant_max
