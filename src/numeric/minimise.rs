@@ -1,5 +1,5 @@
-//! Derivative-free local minimisation: golden-section search on an interval and
-//! a compass (pattern) search in a few dimensions. Both suit the functions kgain
+//! Derivative-free local minimisation: golden-section search on an interval, a
+//! compass search and a Hooke–Jeeves pattern search in a few dimensions. Both suit the functions kgain
 //! minimises — minima over modes of first-exit times, smooth per mode with kinks
 //! where modes cross (Nocedal & Wright, Numerical Optimization, §9; Kolda, Lewis
 //! & Torczon, SIAM Review 45, 2003, for the compass search).
@@ -90,6 +90,67 @@ pub fn compass_min(
     (x, fx)
 }
 
+/// Hooke–Jeeves pattern search for a local minimum of `f` from `x0` (Hooke &
+/// Jeeves, J. ACM 8, 1961): an exploratory move polls ±h along each axis in
+/// turn, keeping every improvement; after a successful one the pattern move
+/// jumps by the same displacement again and explores there, repeatedly while it
+/// improves, so that the search runs along a narrow valley oblique to the axes
+/// (where a compass search stalls after a few steps); otherwise h halves. Stops
+/// when h falls below `min_step` or after `max_evals` evaluations; returns the
+/// best point and value (never worse than `x0`).
+pub fn pattern_min(
+    f: &dyn Fn(&[f64]) -> f64,
+    x0: &[f64],
+    step: f64,
+    min_step: f64,
+    max_evals: usize,
+) -> (Vec<f64>, f64) {
+    let evals = std::cell::Cell::new(0usize);
+    let eval = |x: &[f64]| {
+        evals.set(evals.get() + 1);
+        f(x)
+    };
+    let explore = |start: &[f64], f_start: f64, h: f64| -> (Vec<f64>, f64) {
+        let mut x = start.to_vec();
+        let mut fx = f_start;
+        for k in 0..x.len() {
+            for sign in [1.0, -1.0] {
+                x[k] += sign * h;
+                let ft = eval(&x);
+                if ft < fx {
+                    fx = ft;
+                    break;
+                }
+                x[k] -= sign * h;
+            }
+        }
+        (x, fx)
+    };
+    let mut base = x0.to_vec();
+    let mut f_base = eval(&base);
+    let mut h = step;
+    while h > min_step && evals.get() < max_evals {
+        let (mut x, mut fx) = explore(&base, f_base, h);
+        if fx >= f_base {
+            h *= 0.5;
+            continue;
+        }
+        while evals.get() < max_evals {
+            let jump: Vec<f64> = x.iter().zip(&base).map(|(a, b)| 2.0 * a - b).collect();
+            base.clone_from(&x);
+            f_base = fx;
+            let f_jump = eval(&jump);
+            let (y, fy) = explore(&jump, f_jump, h);
+            if fy < f_base {
+                (x, fx) = (y, fy);
+            } else {
+                break;
+            }
+        }
+    }
+    (base, f_base)
+}
+
 #[cfg(test)]
 mod tests {
     use super::*;
@@ -100,6 +161,19 @@ mod tests {
         let (x, v) = compass_min(&f, &[0.0, 0.0], 0.1, 1e-12, 10_000);
         assert!((x[0] - 0.3).abs() < 1e-9 && (x[1] + 1.2).abs() < 1e-9);
         assert!((v - 5.0).abs() < 1e-15);
+    }
+
+    #[test]
+    fn pattern_search_follows_a_narrow_oblique_valley() {
+        // Rosenbrock's banana valley (minimum 0 at (1, 1)), from the usual start
+        let f = |x: &[f64]| 100.0 * (x[1] - x[0] * x[0]).powi(2) + (1.0 - x[0]).powi(2);
+        let (x, v) = pattern_min(&f, &[-1.2, 1.0], 0.1, 1e-12, 200_000);
+        assert!(v < 1e-12, "{x:?} {v}");
+        assert!((x[0] - 1.0).abs() < 1e-6 && (x[1] - 1.0).abs() < 1e-6);
+        // a compass search with the same budget stalls well above it
+        let (_, vc) = compass_min(&f, &[-1.2, 1.0], 0.1, 1e-12, 2_000);
+        let (_, vp) = pattern_min(&f, &[-1.2, 1.0], 0.1, 1e-12, 2_000);
+        assert!(vp < vc, "pattern {vp} compass {vc}");
     }
 
     #[test]

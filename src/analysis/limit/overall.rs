@@ -11,7 +11,7 @@ use super::first_exit::ExitTimes;
 use super::longwave;
 use super::loss::{Exact, FirstLoss};
 use super::Limit;
-use crate::numeric::minimise::compass_min;
+use crate::numeric::minimise::{compass_min, pattern_min};
 use crate::operator::{Operator, Spectrum};
 use crate::sample::Grid;
 use num_complex::Complex64 as C64;
@@ -129,7 +129,11 @@ pub fn overall(
     for c in separated(grid, screen) {
         let (x, v) = compass_min(&g, &grid.theta(&c), step, 1e-12, 3000);
         evidence.offer(v, &x);
+        // continued along a valley oblique to the axes, where compass steps stall
+        let (x, v) = pattern_min(&g, &x, 0.25 * step, 1e-12, 1500);
+        evidence.offer(v, &x);
     }
+    super::composite::polish(&mut evidence, &g, step);
     for o in longwave::origins(dims) {
         if degenerate(op, tolerance, &o) {
             let lw = longwave::overall(&f, &o);
