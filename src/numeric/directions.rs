@@ -53,7 +53,7 @@ pub fn lattice_3d() -> Vec<[f64; 3]> {
 /// quarter turns are applied exactly.
 fn circle_point(j: usize, count: usize) -> [f64; 2] {
     let quarter = count / 4;
-    if count % 4 != 0 || quarter == 0 {
+    if !count.is_multiple_of(4) || quarter == 0 {
         let a = 2.0 * PI * j as f64 / count as f64;
         return [a.cos(), a.sin()];
     }
@@ -61,7 +61,10 @@ fn circle_point(j: usize, count: usize) -> [f64; 2] {
     let (c, s) = if r == 0 {
         (1.0, 0.0)
     } else if 2 * r == quarter {
-        (std::f64::consts::FRAC_1_SQRT_2, std::f64::consts::FRAC_1_SQRT_2)
+        (
+            std::f64::consts::FRAC_1_SQRT_2,
+            std::f64::consts::FRAC_1_SQRT_2,
+        )
     } else {
         let a = 2.0 * PI * r as f64 / count as f64;
         (a.cos(), a.sin())
@@ -108,7 +111,10 @@ mod tests {
                 let a = 2.0 * PI * j as f64 / d as f64;
                 assert!((v[0] - a.cos()).abs() < 2e-15 && (v[1] - a.sin()).abs() < 2e-15);
                 if 4 * j % d == 0 {
-                    assert!(v.iter().filter(|x| **x == 0.0).count() == 1, "{j}/{d}: {v:?}");
+                    assert!(
+                        v.iter().filter(|x| **x == 0.0).count() == 1,
+                        "{j}/{d}: {v:?}"
+                    );
                     assert!(v.iter().any(|x| x.abs() == 1.0));
                 }
                 if 8 * j % d == 0 && 4 * j % d != 0 {

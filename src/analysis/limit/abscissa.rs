@@ -9,7 +9,7 @@
 //! compass search; a trusted positive maximum ([`crate::operator::Spectrum`]) is
 //! the witness of a scheme that no Δt makes stable.
 
-use crate::numeric::minimise::compass_min;
+use crate::numeric::minimise::{compass_min, golden_max};
 use crate::operator::{Operator, Spectrum};
 use crate::sample::{ray_length, Grid};
 use num_complex::Complex64 as C64;
@@ -105,7 +105,8 @@ pub fn unstable_wavevector(op: &Operator, tolerance: f64, grid: &Grid) -> Option
 
 /// A wavevector on the ray θ = s n (0 ≤ s to the box boundary) where L(θ) has
 /// an eigenvalue with a positive real part beyond rounding, among `samples`
-/// uniform samples (s = 0 included); None when none is found. A direction whose
+/// uniform samples (s = 0 included) and geometric ones inside the first; None
+/// when none is found. A direction whose
 /// ray meets such a wavevector has no stable Δt, however small the rounding
 /// tolerance lets the first exit look. The samples are not refined: between
 /// them, and close to s = 0 where L is nearly zero and a degenerate cluster
@@ -119,9 +120,64 @@ pub fn unstable_on_ray(
 ) -> Option<Vec<f64>> {
     let smax = ray_length(n);
     let at = |s: f64| -> Vec<f64> { n.iter().map(|x| x * s).collect() };
-    let mut spectrum = Spectrum::new(op, tolerance);
-    let mut eig = vec![C64::new(0.0, 0.0); op.m];
-    (0..=samples)
-        .map(|k| at(smax * k as f64 / samples as f64))
-        .find(|theta| abscissa(&mut spectrum, &mut eig, theta) > 0.0)
+    let work =
+        std::cell::RefCell::new((Spectrum::new(op, tolerance), vec![C64::new(0.0, 0.0); op.m]));
+    let alpha = |s: f64| {
+        let mut w = work.borrow_mut();
+        let (spectrum, eig) = &mut *w;
+        abscissa(spectrum, eig, &at(s))
+    };
+    let s_of = |k: usize| smax * k as f64 / samples as f64;
+    let uniform: Vec<f64> = (0..=samples).map(|k| alpha(s_of(k))).collect();
+    if let Some(k) = uniform.iter().position(|a| *a > 0.0) {
+        return Some(at(s_of(k)));
+    }
+    // Between samples: the abscissa maximised around its largest local maxima
+    // (an unstable window narrower than the sample spacing near the end of
+    // the ray, seed 9537).
+    let mut peaks: Vec<usize> = (1..samples)
+        .filter(|&k| {
+            uniform[k].is_finite() && uniform[k] >= uniform[k - 1] && uniform[k] >= uniform[k + 1]
+        })
+        .collect();
+    if samples >= 1 && uniform[samples].is_finite() && uniform[samples] >= uniform[samples - 1] {
+        peaks.push(samples);
+    }
+    peaks.sort_by(|a, b| uniform[*b].total_cmp(&uniform[*a]));
+    for &k in peaks.iter().take(RAY_PEAKS) {
+        let (lo, hi) = (s_of(k - 1), s_of((k + 1).min(samples)));
+        let (s, v) = golden_max(&alpha, lo, hi);
+        if v > 0.0 {
+            return Some(at(s));
+        }
+    }
+    // Inside the first sample: a weak source whose real part wins only at
+    // long waves (a rotation against the non-normal flux, seed 5084: Re μ > 0
+    // near s = 0.003). Geometric samples s₁ 2⁻ʲ towards 0, then the abscissa
+    // maximised between the neighbours of the best of them.
+    let first = smax / samples as f64;
+    let levels: Vec<f64> = (0..LONG_WAVE_LEVELS)
+        .map(|j| first * 0.5f64.powi(j as i32))
+        .collect();
+    let values: Vec<f64> = levels.iter().map(|s| alpha(*s)).collect();
+    let (j, best) =
+        values.iter().enumerate().fold(
+            (0, f64::NEG_INFINITY),
+            |b, (j, v)| if *v > b.1 { (j, *v) } else { b },
+        );
+    if best > 0.0 {
+        return Some(at(levels[j]));
+    }
+    if !best.is_finite() {
+        return None;
+    }
+    let hi = levels[j.saturating_sub(1)];
+    let lo = levels[(j + 1).min(LONG_WAVE_LEVELS - 1)];
+    let (s, v) = golden_max(&alpha, lo, hi);
+    (v > 0.0).then(|| at(s))
 }
+
+/// How many local maxima of the abscissa along a ray are refined.
+const RAY_PEAKS: usize = 4;
+/// Halvings of the first ray sample checked towards s = 0 (down to 1e-12 of it).
+const LONG_WAVE_LEVELS: usize = 40;

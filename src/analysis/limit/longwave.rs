@@ -43,6 +43,23 @@ pub struct LongWave {
 /// The limit of `f` at `origin` approached along the unit vector `n` (the
 /// long-wave limit for origin 0).
 pub fn along(f: &dyn FirstLoss, origin: &[f64], n: &[f64]) -> LongWave {
+    along_with(f, origin, n, STABLE_RUN)
+}
+
+/// Samples stable at every Δt after which [`along`] stops (s ≤ S0/32).
+const STABLE_RUN: usize = 6;
+/// The same for [`along_deep`] (s ≤ S0·2⁻¹⁵ ≈ 6e-6).
+const DEEP_RUN: usize = 16;
+
+/// [`along`], going on through samples stable at every Δt down to
+/// s = S0·2⁻¹⁵: for approaches where the limit is set in a narrow window close
+/// to the origin (a face centre of the box, where the advective part of a
+/// split scheme fades like the distance to it).
+pub fn along_deep(f: &dyn FirstLoss, origin: &[f64], n: &[f64]) -> LongWave {
+    along_with(f, origin, n, DEEP_RUN)
+}
+
+fn along_with(f: &dyn FirstLoss, origin: &[f64], n: &[f64], stable_run: usize) -> LongWave {
     let at = |s: f64| -> Vec<f64> { origin.iter().zip(n).map(|(o, x)| o + x * s).collect() };
     let mut values: Vec<f64> = Vec::new();
     let mut sample = (f64::INFINITY, at(S0));
@@ -90,14 +107,17 @@ pub fn along(f: &dyn FirstLoss, origin: &[f64], n: &[f64]) -> LongWave {
                 break;
             }
         }
-        if values.len() >= 6 && values[values.len() - 3..].iter().all(|v| v.is_infinite()) {
+        if values.len() >= stable_run && values[values.len() - 3..].iter().all(|v| v.is_infinite())
+        {
             break;
         }
         // growing geometrically from the start (each at least 1.5 times the
         // one before, as c/s for a limit set at finite θ): long waves set no limit
         if values.len() >= 5
             && estimates.is_empty()
-            && values.windows(2).all(|w| w[1] >= 1.5 * w[0])
+            && values
+                .windows(2)
+                .all(|w| w[0].is_finite() && w[1] >= 1.5 * w[0])
         {
             break;
         }
@@ -208,6 +228,10 @@ fn aitken(v: &[f64]) -> Option<f64> {
 
 /// (L, its uncertainty) from the sequence and its extrapolations.
 fn conclude(values: &[f64], estimates: &[f64]) -> (f64, f64) {
+    // trusted samples stable at every Δt all the way in: no limit from here
+    if values.len() >= 3 && values[values.len() - 3..].iter().all(|v| v.is_infinite()) {
+        return (f64::INFINITY, 0.0);
+    }
     let finite: Vec<f64> = values.iter().copied().filter(|v| v.is_finite()).collect();
     let Some(&last) = finite.last() else {
         return (f64::INFINITY, 0.0);
