@@ -92,6 +92,17 @@ impl Operator {
                 .all(|t| classify(t, self.m) != TermClass::Other)
     }
 
+    /// Whether L(θ) is neutral by construction at every θ (the constant part
+    /// and every term [`TermClass::Neutral`]): every eigenvalue is imaginary,
+    /// and no search for a positive real part can find one.
+    pub fn neutral_everywhere(&self) -> bool {
+        self.constant_splits()
+            && self
+                .terms
+                .iter()
+                .all(|t| classify(t, self.m) == TermClass::Neutral)
+    }
+
     /// Whether the constant part is zero or real skew-symmetric (neutral).
     pub fn constant_splits(&self) -> bool {
         self.constant.iter().all(|z| *z == C64::new(0.0, 0.0)) || is_skew(&self.constant, self.m)

@@ -118,6 +118,9 @@ pub fn unstable_on_ray(
     n: &[f64],
     samples: usize,
 ) -> Option<Vec<f64>> {
+    if op.neutral_everywhere() {
+        return None;
+    }
     let smax = ray_length(n);
     let at = |s: f64| -> Vec<f64> { n.iter().map(|x| x * s).collect() };
     let work =
@@ -178,6 +181,6 @@ pub fn unstable_on_ray(
 }
 
 /// How many local maxima of the abscissa along a ray are refined.
-const RAY_PEAKS: usize = 4;
-/// Halvings of the first ray sample checked towards s = 0 (down to 1e-12 of it).
-const LONG_WAVE_LEVELS: usize = 40;
+const RAY_PEAKS: usize = 2;
+/// Halvings of the first ray sample checked towards s = 0 (down to 6e-8 of it).
+const LONG_WAVE_LEVELS: usize = 24;

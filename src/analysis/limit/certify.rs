@@ -21,13 +21,18 @@ pub struct Evidence {
 }
 
 impl Evidence {
-    /// Records a first loss at θ.
+    /// Records a first loss at θ. A value lower than the witness's only by
+    /// rounding (1e-12 relative) lowers the value but keeps the witness where
+    /// it is: where the first loss is flat (at θ_d = π for central
+    /// differences) a refinement's rounding must not move an exact witness.
     pub fn offer(&mut self, dt: f64, theta: &[f64]) {
         if dt.is_nan() {
             return;
         }
-        if self.witness.as_ref().is_none_or(|w| dt < w.0) {
-            self.witness = Some((dt, theta.to_vec()));
+        match &mut self.witness {
+            Some(w) if dt < w.0 && dt >= w.0 * (1.0 - 1e-12) => w.0 = dt,
+            Some(w) if dt >= w.0 => {}
+            _ => self.witness = Some((dt, theta.to_vec())),
         }
     }
 

@@ -406,9 +406,9 @@ pub fn overall(f: &dyn FirstLoss, origin: &[f64]) -> LongWave {
     }
 }
 
-/// Directions screened with the closed form: 720 angles in 2-D, 2048 sphere
-/// points in 3-D (about 4.5° apart).
-const SCREEN_2D: usize = 720;
+/// Directions screened with the closed form: 180 angles in 2-D, 2048 sphere
+/// points in 3-D (2° and about 4.5° apart).
+const SCREEN_2D: usize = 180;
 const SCREEN_3D: usize = 2048;
 /// How many separated local minima of the screen are refined.
 const STARTS: usize = 6;

@@ -380,6 +380,11 @@ fn reconcile(overall: &mut Limit, dl: &DirectionalLimit) {
         (usize::MAX, f64::INFINITY),
         |b, (i, v)| if *v < b.1 { (i, *v) } else { b },
     );
+    // a direction lower only by rounding lowers the value, not the witness
+    if best.0 != usize::MAX && best.1 < overall.dt_max && best.1 >= overall.dt_max * (1.0 - 1e-12) {
+        overall.dt_max = best.1;
+        return;
+    }
     if best.0 != usize::MAX && (overall.dt_max.is_nan() || best.1 < overall.dt_max) {
         overall.dt_max = best.1;
         overall.wavevector = dl.wavevector[best.0].iter().map(|x| wrap(*x)).collect();

@@ -130,7 +130,7 @@ pub fn overall(
         let (x, v) = compass_min(&g, &grid.theta(&c), step, 1e-12, 3000);
         evidence.offer(v, &x);
         // continued along a valley oblique to the axes, where compass steps stall
-        let (x, v) = pattern_min(&g, &x, 0.25 * step, 1e-12, 1500);
+        let (x, v) = pattern_min(&g, &x, 0.25 * step, 1e-12, 400);
         evidence.offer(v, &x);
     }
     super::composite::polish(&mut evidence, &g, step);

@@ -94,7 +94,10 @@ fn approach(
             .map(|(o, x)| o + x * t)
             .collect()
     };
-    if lw.sample.0 < best.0 {
+    // a value lower only by rounding does not move the witness (the first loss
+    // is flat where the ray meets the box's boundary: the exact θ_d = π stays)
+    let lower = |v: f64, than: f64| v < than * (1.0 - 1e-12);
+    if lower(lw.sample.0, best.0) {
         *best = lw.sample.clone();
     }
     let t = lw
@@ -108,7 +111,7 @@ fn approach(
     if lw.sample.0.is_finite() && t > 0.0 {
         let g = |t: f64| f.at(&point(t)).bound_or_inf();
         let (t, v) = golden_min(&g, 0.5 * t, 2.0 * t);
-        if v < best.0 {
+        if lower(v, best.0) {
             *best = (v, point(t));
         }
     }
