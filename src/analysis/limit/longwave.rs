@@ -376,15 +376,10 @@ pub fn overall(f: &dyn FirstLoss, origin: &[f64]) -> LongWave {
         }
         3 if best.limit.is_finite() && best.limit > 0.0 => {
             let n = &best.direction;
-            let start = [n[2].clamp(-1.0, 1.0).acos(), n[1].atan2(n[0])];
-            let unit = |x: &[f64]| {
-                let (st, ct) = x[0].sin_cos();
-                let (sp, cp) = x[1].sin_cos();
-                vec![st * cp, st * sp, ct]
-            };
-            let g = |x: &[f64]| key(&along(f, origin, &unit(x)));
+            let start = angles_of(n);
+            let g = |x: &[f64]| key(&along(f, origin, &unit_of(x)));
             let (x, _) = minimise::compass_min(&g, &start, 0.2, 1e-7, 200);
-            pick(best, along(f, origin, &unit(&x)), any_informative)
+            pick(best, along(f, origin, &unit_of(&x)), any_informative)
         }
         _ => best,
     };
@@ -424,22 +419,6 @@ fn closed_form_minimum(f: &dyn FirstLoss, origin: &[f64]) -> Option<Vec<f64>> {
     if dims < 2 {
         return None;
     }
-    let unit = |x: &[f64]| -> Vec<f64> {
-        match dims {
-            2 => vec![x[0].cos(), x[0].sin()],
-            _ => {
-                let (st, ct) = x[0].sin_cos();
-                let (sp, cp) = x[1].sin_cos();
-                vec![st * cp, st * sp, ct]
-            }
-        }
-    };
-    let angles = |n: &[f64]| -> Vec<f64> {
-        match dims {
-            2 => vec![n[1].atan2(n[0])],
-            _ => vec![n[2].clamp(-1.0, 1.0).acos(), n[1].atan2(n[0])],
-        }
-    };
     let value = |n: &[f64]| f.long_wave(origin, n).unwrap_or(f64::INFINITY);
     let screen: Vec<Vec<f64>> = match dims {
         2 => directions::circle(SCREEN_2D)
@@ -479,11 +458,11 @@ fn closed_form_minimum(f: &dyn FirstLoss, origin: &[f64]) -> Option<Vec<f64>> {
             }
         }
     }
-    let g = |x: &[f64]| value(&unit(x));
+    let g = |x: &[f64]| value(&unit_of(x));
     let refined: Vec<(Vec<f64>, f64)> = starts
         .iter()
         .map(|n| {
-            let x0 = angles(n);
+            let x0 = angles_of(n);
             let (x, v) = match dims {
                 2 => {
                     let h = 2.0 * spacing;
@@ -492,13 +471,33 @@ fn closed_form_minimum(f: &dyn FirstLoss, origin: &[f64]) -> Option<Vec<f64>> {
                 }
                 _ => minimise::pattern_min(&g, &x0, spacing, 1e-9, 3000),
             };
-            (unit(&x), v)
+            (unit_of(&x), v)
         })
         .collect();
     refined
         .into_iter()
         .min_by(|a, b| a.1.total_cmp(&b.1))
         .map(|(n, _)| n)
+}
+
+/// A direction's angles: its angle in 2-D; polar and azimuthal angles in 3-D.
+fn angles_of(n: &[f64]) -> Vec<f64> {
+    match n.len() {
+        2 => vec![n[1].atan2(n[0])],
+        _ => vec![n[2].clamp(-1.0, 1.0).acos(), n[1].atan2(n[0])],
+    }
+}
+
+/// The unit vector of [`angles_of`]'s angles.
+fn unit_of(x: &[f64]) -> Vec<f64> {
+    match x.len() {
+        1 => vec![x[0].cos(), x[0].sin()],
+        _ => {
+            let (st, ct) = x[0].sin_cos();
+            let (sp, cp) = x[1].sin_cos();
+            vec![st * cp, st * sp, ct]
+        }
+    }
 }
 
 /// Whether a long-wave result says something: a limit known to better than its
