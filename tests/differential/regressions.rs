@@ -289,6 +289,17 @@ fn ray_end_on_a_face_centre_is_approached() {
     assert_seed_agrees(7110);
 }
 
+/// Lie-split SSPRK3 on a 2-D 2×2 advection–diffusion system: on the diagonal
+/// direction, at the ray's minimising wavevector, ρ − 1 is positive on the
+/// window [2.3539, 2.83] of Δt and below 0 again at the next rung of the
+/// per-wavevector ladder (2.8826), where another branch climbs. Once failed:
+/// the direction 7e-7 too large (the ladder stepped over the window and
+/// bisected the later crossing, 2.883, at one floor of the ladder).
+#[test]
+fn unstable_window_between_ladder_rungs_is_found() {
+    assert_seed_agrees(1282);
+}
+
 /// IMEX CNAB2 with weak eighth-order dissipation on 3-D advection: the first
 /// loss falls like |θ|^(4/3), and every sampled crossing is beneath rounding,
 /// so the engine reports the bounded 1.17e-4 where growth emerges from

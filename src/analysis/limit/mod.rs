@@ -13,6 +13,7 @@ pub mod first_exit;
 pub mod longwave;
 pub mod loss;
 pub mod overall;
+pub mod per_theta;
 pub mod rays;
 pub mod search;
 
@@ -235,7 +236,7 @@ pub(super) fn by_search(ctx: &Context, ev: &CompositeEval, count: usize) -> Limi
         if let Some(theta) = abscissa::unstable_on_ray(&ctx.op, ctx.plan.tolerance, n, per_ray) {
             return (0.0, theta);
         }
-        rays::ray_limit(&search::PerTheta::new(ev, floor), n, per_ray, certified)
+        rays::ray_limit(&per_theta::PerTheta::new(ev, floor), n, per_ray, certified)
     });
     finish(
         ctx,

@@ -10,17 +10,16 @@
 //!    differences: ρ² − 1 ∝ Δt²), no Δt is stable (kind "none");
 //! 2. otherwise the first loss over the grid is bracketed upward from a stable
 //!    Δt and bisected with sweeps that stop at the first unstable wavevector;
-//! 3. per wavevector, the first loss is a root of ρ(G(θ, ·)) − 1 ([`PerTheta`]),
+//! 3. per wavevector, the first loss is a root of ρ(G(θ, ·)) − 1
+//!    ([`super::per_theta::PerTheta`]),
 //!    found by a ladder from a Δt known to be stable and bisection; the
 //!    limit's neighbourhood is refined with it in continuous θ ([`super::refine`])
 //!    and long waves are handled by [`super::longwave`];
 //! 4. a uniform scan of Δt below the limit over the grid makes sure that a
 //!    stable window does not hide an earlier loss of stability.
 
-use super::loss::{FirstLoss, Loss};
 use crate::linalg;
 use crate::numeric::bracket::bisect;
-use crate::numeric::minimise::golden_max;
 use crate::operator::Operator;
 use crate::problem::Problem;
 use crate::time::composite::{self, Composite};
@@ -32,9 +31,9 @@ use std::sync::atomic::{AtomicUsize, Ordering};
 
 /// How many uniformly spaced time steps below the limit are checked.
 pub const VERIFY_STEPS: usize = 32;
-const BISECTIONS: usize = 80;
+pub(super) const BISECTIONS: usize = 80;
 /// Halvings of Δt in the test for instability at every Δt.
-const SMALL_DT_LEVELS: usize = 48;
+pub(super) const SMALL_DT_LEVELS: usize = 48;
 
 /// ρ(G(θ, Δt)) of a composite scheme.
 pub struct CompositeEval<'a> {
@@ -172,7 +171,7 @@ impl<'a> CompositeEval<'a> {
         growth - noise
     }
 
-    fn unstable(&self, theta: &[f64], dt: f64) -> bool {
+    pub(super) fn unstable(&self, theta: &[f64], dt: f64) -> bool {
         self.excess(theta, dt) > 0.0
     }
 
@@ -282,7 +281,11 @@ pub enum SmallDt {
 /// clear of its rounding (16 times over) must give three successive ratios that
 /// agree to 10%. A scheme that merely crosses into stability near Δt (growth ≈
 /// c(Δt − Δt*)) gives ratios 1/3, 3/7, 7/15 and is not mistaken for one.
-fn power_law(trail: &[(f64, usize)], growth_at: impl Fn(f64) -> (f64, f64), dt: f64) -> bool {
+pub(super) fn power_law(
+    trail: &[(f64, usize)],
+    growth_at: impl Fn(f64) -> (f64, f64),
+    dt: f64,
+) -> bool {
     let mut e: Vec<f64> = Vec::with_capacity(4);
     for k in 1..=trail.len() {
         let (g, noise) = growth_at(dt * 2f64.powi(k as i32));
@@ -300,124 +303,4 @@ fn power_law(trail: &[(f64, usize)], growth_at: impl Fn(f64) -> (f64, f64), dt: 
     }
     let r: Vec<f64> = e.windows(2).map(|w| w[0] / w[1]).collect();
     r[0] > 1e-3 && r[0] < 0.9 && (r[0] / r[1] - 1.0).abs() < 0.1 && (r[1] / r[2] - 1.0).abs() < 0.1
-}
-
-/// Ratio of successive rungs of the per-wavevector ladder.
-const LADDER: f64 = 1.25;
-
-/// The first loss of a composite scheme at one wavevector: a ladder upward from
-/// `floor` (a Δt stable at every point of the grid) and bisection; below the
-/// floor when the point is already unstable there.
-pub struct PerTheta<'a> {
-    ev: &'a CompositeEval<'a>,
-    floor: f64,
-}
-
-impl<'a> PerTheta<'a> {
-    /// For `ev`, starting from `floor`.
-    pub fn new(ev: &'a CompositeEval<'a>, floor: f64) -> Self {
-        PerTheta { ev, floor }
-    }
-}
-
-impl FirstLoss for PerTheta<'_> {
-    fn at(&self, theta: &[f64]) -> Loss {
-        let unstable = |dt: f64| self.ev.unstable(theta, dt);
-        let (mut lo, mut hi) = (self.floor, self.floor);
-        if unstable(lo) {
-            let mut trail: Vec<(f64, usize)> = Vec::new();
-            while unstable(lo) {
-                trail.push((0.0, 0));
-                hi = lo;
-                lo *= 0.5;
-                if trail.len() > SMALL_DT_LEVELS {
-                    return Loss::exact(0.0);
-                }
-            }
-            // unstable down to the rounding level, decaying as a power of Δt:
-            // unstable for every Δt > 0 at this wavevector
-            if power_law(&trail, |d| self.ev.growth_and_noise(theta, d), lo) {
-                return Loss::exact(0.0);
-            }
-        } else {
-            // A ladder of ratio 1.25 that watches ρ − 1 − rounding: where it has a
-            // local maximum below 0 between rungs, the maximum is found by
-            // golden-section search, so that an unstable window of Δt narrower
-            // than a rung (a mode that turns unstable and stable again) is not
-            // stepped over.
-            let excess = |dt: f64| self.ev.excess(theta, dt);
-            let mut k = 0;
-            let mut prev = (lo, excess(lo));
-            let mut before: Option<(f64, f64)> = None;
-            hi = lo * LADDER;
-            loop {
-                let e = excess(hi);
-                if e > 0.0 {
-                    break;
-                }
-                if let Some(b) = before {
-                    if prev.1 > b.1 && prev.1 > e {
-                        let (t, v) = golden_max(&excess, b.0, hi);
-                        if v > 0.0 {
-                            // the window opens between b and t
-                            let (l, h) = bisect(|dt| !unstable(dt), b.0, t, 1e-13, BISECTIONS);
-                            return self.refined(theta, l, h);
-                        }
-                    }
-                }
-                before = Some(prev);
-                prev = (hi, e);
-                lo = hi;
-                hi *= LADDER;
-                k += 1;
-                // 1.25^145 ≈ 1e14 times the floor: stable that far is unconditional
-                if k > 145 {
-                    return Loss::exact(f64::INFINITY);
-                }
-            }
-        }
-        let (lo, hi) = bisect(|dt| !unstable(dt), lo, hi, 1e-13, BISECTIONS);
-        let loss = self.refined(theta, lo, hi);
-        // A crossing where ρ − 1 only creeps past its rounding level (not
-        // trusted), at a wavevector where L has no real part by construction,
-        // and grows above it like a power of Δt is no limit: without a real part
-        // nothing damps the growth C·Δtᵖ as Δt → 0, it runs on below the
-        // rounding level (AB2's explicit part on an exactly imaginary μ:
-        // ρ − 1 ≈ (Δt|μ|)⁴/4). With damping (Re μ < 0, however small) the
-        // crossing is real, even when the growth above it looks like a power.
-        let trail = [(0.0, 0); 8];
-        if !loss.trusted
-            && self.ev.exactly_imaginary(theta)
-            && power_law(&trail, |d| self.ev.growth_and_noise(theta, d), hi)
-        {
-            return Loss::exact(0.0);
-        }
-        loss
-    }
-}
-
-impl PerTheta<'_> {
-    /// The loss from a bisected bracket [lo, hi] of the first crossing.
-    fn refined(&self, theta: &[f64], lo: f64, hi: f64) -> Loss {
-        // The bisection finds where ρ − 1 rises past its rounding level δ, which
-        // is above the crossing of ρ − 1 with 0 by about δ/slope. The slope of
-        // ρ − 1 (per unit relative change of Δt) is measured over 1e-6 beyond,
-        // the value is moved down by twice that offset (to where the linear model
-        // reaches −δ: the safe end of what rounding allows), and it is trusted
-        // when ρ − 1 grows past 10δ within 1e-6 (an offset of at most 1e-7).
-        let (g0, noise) = self.ev.growth_and_noise(theta, hi);
-        let (g1, _) = self.ev.growth_and_noise(theta, hi * (1.0 + 1e-6));
-        let slope = (g1 - g0) / 1e-6;
-        let trusted = g1 > 10.0 * noise && slope > 0.0;
-        let offset = if trusted {
-            (2.0 * noise / slope).min(1e-6)
-        } else {
-            0.0
-        };
-        Loss {
-            dt: lo * (1.0 - offset),
-            trusted,
-            bound: true,
-        }
-    }
 }
