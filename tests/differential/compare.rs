@@ -97,7 +97,9 @@ pub fn judge(what: &str, engine_kind: Kind, engine_dt: f64, r: &Reference) -> Ve
     if decidable_bounded && rel > ABOVE + u {
         return Verdict::Fail(format!("too large by {rel:.3e} relative; {numbers}"));
     }
-    if decidable_bounded && rel < -(BELOW + u) {
+    // the reference's allowance lifts its crossing: below it by that much
+    // more is still within BELOW of where ρ − 1 crosses 0
+    if decidable_bounded && rel < -(BELOW + u + r.allowance_bias) {
         return Verdict::Fail(format!("too small by {:.3e} relative; {numbers}", -rel));
     }
     // An inconclusive reference that the engine agrees with (both find no
@@ -197,7 +199,8 @@ pub fn check_seed(seed: u64, directions: usize) -> Outcome {
         // the engine's dt_hi is unstable beyond its rounding; a reference stable a
         // little above it (within the accuracy asked of the limit) resolves the
         // crossing less finely, which is not a contradiction
-        if r.kind == Kind::Bounded && (r.dt < lo * (1.0 - ABOVE) || r.dt > hi * (1.0 + BELOW)) {
+        let above_hi = hi * (1.0 + BELOW + r.allowance_bias);
+        if r.kind == Kind::Bounded && (r.dt < lo * (1.0 - ABOVE) || r.dt > above_hi) {
             overall_verdict = Verdict::Fail(format!(
                 "reference {:.15e} outside the certified bracket [{lo:.15e}, {hi:.15e}]",
                 r.dt

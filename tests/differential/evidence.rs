@@ -23,6 +23,7 @@ pub fn improved_with(scheme: &Scheme, r: &Reference, theta: &[f64], engine_dt: f
             dt: t,
             witness: theta.to_vec(),
             uncertainty: 0.0,
+            allowance_bias: crate::search::allowance_bias(scheme, theta, t),
             note: format!("{}; improved at the engine's wavevector", r.note),
             ..r.clone()
         },

@@ -54,37 +54,69 @@ fn neville(x: &[f64], y: &[f64]) -> (f64, f64) {
     (last, deviation)
 }
 
+/// Longest run of first losses extrapolated.
+const RUN: usize = 10;
 /// Smallest crossing clarity: ρ − 1 at 1.01·Δt*(s) below this is roundoff.
 const CLARITY: f64 = 2e-15;
+/// The same for a point of the trend, at twice its first loss: a first loss
+/// found where ρ − 1 barely leaves roundoff is biased low, which would bend
+/// the trend's last slopes.
+const TREND_CLARITY: f64 = 16.0 * CLARITY;
 
-/// Δt*(0⁺ n) along one direction, if it lies below 1.5·`cap`: first losses at
-/// s = 0.6·0.8^j for as long as the crossing stays clear of roundoff (at least
-/// four of them), extrapolated to s = 0.
+/// Δt*(0⁺ n) along one direction: first losses below 1.5·`cap` at
+/// s = 0.6·0.8^j (from the first below it) for as long as the crossing
+/// stays clear of roundoff (at least four of them), extrapolated to s = 0.
+/// A trend is followed from the first loss below 8·`cap` and a little
+/// further in, for as long as ρ − 1 at twice the first loss is clear of
+/// roundoff: first losses that fall like a power of s there sink to 0 (no
+/// stable Δt), however few of them are accurate.
 pub fn along(s: &Scheme, n: &[f64], cap: f64) -> Option<LongWave> {
-    let mut xs = Vec::new();
-    let mut ys: Vec<f64> = Vec::new();
-    for j in 0..10 {
+    let (mut xs, mut ys): (Vec<f64>, Vec<f64>) = (Vec::new(), Vec::new());
+    let (mut trend_x, mut trend_y): (Vec<f64>, Vec<f64>) = (Vec::new(), Vec::new());
+    let mut closed = false;
+    for j in 0..24 {
         let mag = 0.6 * 0.8f64.powi(j);
         let p = Point::new(s, n.iter().map(|v| v * mag).collect(), ALLOWANCE);
-        let t = match ys.last() {
-            None => p.first_loss_from(0.25 * cap, 1.5 * cap, 24, 20),
+        let t = match trend_y.last() {
+            None => p.first_loss_from(0.25 * cap, 8.0 * cap, 24, 20),
             Some(prev) => p
                 .first_loss_from(0.97 * prev, 1.03 * prev, 6, 20)
                 .or_else(|| p.first_loss_from(0.5 * prev, 2.0 * prev, 12, 20)),
         };
-        let clear = t.is_some_and(|t| t > 0.0 && p.excess(1.01 * t) > CLARITY);
-        match t {
-            Some(t) if clear => {
-                xs.push(mag * mag);
-                ys.push(t);
+        let clear_at = |k: f64, floor: f64| t.is_some_and(|t| t > 0.0 && p.excess(k * t) > floor);
+        let Some(t) = t.filter(|_| clear_at(2.0, TREND_CLARITY)) else {
+            if trend_y.is_empty() && t.is_none() {
+                // above the cap at the longest waves tried: a first loss that
+                // falls with s may come below it further in
+                continue;
             }
-            _ if ys.len() >= 4 => break,
-            _ => return None,
+            break;
+        };
+        trend_x.push(mag * mag);
+        trend_y.push(t);
+        // the extrapolated run: from the first point below 1.5·cap, unbroken,
+        // at most RUN points (further in, rounding enters the crossings)
+        if clear_at(1.01, CLARITY) && t <= 1.5 * cap && !closed && ys.len() < RUN {
+            xs.push(mag * mag);
+            ys.push(t);
+        } else if !ys.is_empty() {
+            closed = true;
         }
     }
+    let falling = |y: &[f64]| y.windows(2).all(|w| w[1] < w[0]);
+    if falling(&trend_y) && power_law(&trend_x, &trend_y) {
+        return Some(LongWave {
+            dt: 0.0,
+            direction: n.to_vec(),
+            converged: true,
+            spread: 0.0,
+        });
+    }
+    if ys.len() < 4 {
+        return None;
+    }
     let (value, deviation) = neville(&xs, &ys);
-    let decreasing = ys.windows(2).all(|w| w[1] < w[0]);
-    if decreasing && value < 1e-3 * ys[0] {
+    if falling(&ys) && value < 1e-3 * ys[0] {
         // the first loss sinks to zero with the wavenumber: no stable Δt
         return Some(LongWave {
             dt: 0.0,
@@ -100,6 +132,26 @@ pub fn along(s: &Scheme, n: &[f64], cap: f64) -> Option<LongWave> {
         converged: spread < CONVERGED,
         spread,
     })
+}
+
+/// Whether the first losses y at x = s² fall like a power of s down to the
+/// last: the last three local slopes d ln y / d ln s agree to 10 % and are
+/// above 0.1 (a first loss tending to a constant c + d s² has slopes
+/// 2ds²/(c + ds²), which shrink by 0.64 a step once ds² < c; where ds² ≫ c
+/// at every resolved s, c is beneath everything the samples can show). AB2
+/// with sixth-order dissipation: y ∝ s^(2/3).
+fn power_law(xs: &[f64], ys: &[f64]) -> bool {
+    if xs.len() < 4 {
+        return false;
+    }
+    let slopes: Vec<f64> = xs
+        .windows(2)
+        .zip(ys.windows(2))
+        .map(|(x, y)| 2.0 * (y[0] / y[1]).ln() / (x[0] / x[1]).ln())
+        .collect();
+    let last = &slopes[slopes.len() - 3..];
+    let p = last[2];
+    p > 0.1 && last.iter().all(|q| (q / p - 1.0).abs() < 0.1)
 }
 
 fn direction_of(dims: usize, x: &[f64]) -> Vec<f64> {

@@ -300,6 +300,46 @@ fn unstable_window_between_ladder_rungs_is_found() {
     assert_seed_agrees(1282);
 }
 
+/// AB2 with compact fourth-order differences and weak fourth-order
+/// dissipation (2-D advection): long waves set a finite limit (damping and
+/// AB2's growth both of order four). Once failed: reported none, from exact
+/// first exits at |θ| ≈ 1e-10, where the eigenvalue lies 1e-31 rad off the
+/// imaginary axis and AB2's boundary locus cannot be resolved in double
+/// precision (17 % off already at 2e-23 rad); such exits are now untrusted
+/// and the long-wave closed form decides.
+#[test]
+fn multistep_exit_next_to_the_imaginary_axis_is_not_trusted() {
+    assert_seed_agrees(1101);
+}
+
+/// AB2 with eighth-order dissipation (2-D advection): damping of order eight
+/// cannot hold AB2's growth of order four, so no Δt is stable along any
+/// direction the waves move in. Once failed: directions bounded (with every
+/// long-wave sample untrusted, the long waves were read as setting no limit
+/// and the closed form, 0, was not used).
+#[test]
+fn closed_form_decides_a_ray_without_trusted_long_wave_samples() {
+    assert_seed_agrees(1719);
+}
+
+/// AB2 with sixth-order dissipation (2-D advection): the first loss falls like
+/// |θ|^(2/3). Once failed against the reference, which missed the power law
+/// (its long-wave run stopped where the first loss was above its cap).
+#[test]
+fn first_loss_falling_like_a_power_is_none_for_the_reference_too() {
+    assert_seed_agrees(1674);
+}
+
+/// AB2 with weak dissipation (2-D): the limit sits where the eigenvalue is
+/// 2e-6 rad off the imaginary axis and ρ − 1 rises slowly (1.4e-7 per unit
+/// relative change of Δt). Once failed: the engine 1.2e-6 "too small"; its
+/// value is the exact crossing (checked in 40-digit arithmetic) and the
+/// reference's roundoff allowance had lifted its own by 7e-7, now allowed for.
+#[test]
+fn reference_allowance_lift_is_not_a_failure() {
+    assert_seed_agrees(1988);
+}
+
 /// IMEX CNAB2 with weak eighth-order dissipation on 3-D advection: the first
 /// loss falls like |θ|^(4/3), and every sampled crossing is beneath rounding,
 /// so the engine reports the bounded 1.17e-4 where growth emerges from

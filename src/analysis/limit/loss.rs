@@ -105,11 +105,19 @@ impl FirstLoss for Exact<'_> {
                 trusted: false,
                 bound: false,
             },
-            Ok(trusted) => Loss {
-                dt: min_over_modes(eig, |mu| self.exits.exact(mu)).0,
-                trusted,
-                bound: trusted,
-            },
+            Ok(trusted) => {
+                let dt = min_over_modes(eig, |mu| self.exits.exact(mu)).0;
+                // the modes that set the value must have resolved exits
+                let resolved = eig
+                    .iter()
+                    .filter(|mu| !self.exits.resolved(**mu))
+                    .all(|mu| self.exits.exact(*mu) > dt);
+                Loss {
+                    dt,
+                    trusted: trusted && resolved,
+                    bound: trusted && resolved,
+                }
+            }
         }
     }
 
