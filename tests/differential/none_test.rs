@@ -52,7 +52,29 @@ pub fn descend(set: &PointSet, scale: f64) -> Result<f64, NoneVerdict> {
                     ));
                 }
             }
-            return Ok(dt);
+            // stable here, but every smaller Δt must be too: an eigenvalue
+            // of L with a small positive real part is unstable for the small
+            // Δt of A-stable methods and stable for larger ones (BDF2 on a
+            // non-hyperbolic system, seed 1320); the descent goes on from
+            // the first unstable Δt below (Δt/4, Δt/16, … down to 1e-8 Δt)
+            let mut below = (1..=13).map(|k| dt * 0.25f64.powi(k));
+            match below.find(|d| set.max_excess(*d).0 > 0.0) {
+                Some(d) if d >= 1e-7 * scale => {
+                    (dt, seen, slopes) = (d, Vec::new(), Vec::new());
+                    continue;
+                }
+                Some(d) => {
+                    let (_, i) = set.max_excess(d);
+                    return Err(verdict(
+                        set,
+                        i,
+                        false,
+                        &seen,
+                        "stable at some Δt, unstable again below 1e-7 scales",
+                    ));
+                }
+                None => return Ok(dt),
+            }
         }
         if let Some((_, last)) = seen.last() {
             slopes.push((last / e).log2());

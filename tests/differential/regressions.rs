@@ -340,6 +340,33 @@ fn reference_allowance_lift_is_not_a_failure() {
     assert_seed_agrees(1988);
 }
 
+/// Strang-split Crank–Nicolson on 2-D advection with central differences:
+/// each factor is unitary, so every Δt is stable. Once failed: reported none,
+/// where the x and y parts of L cancel (|L| small, each part large) and the
+/// rounding of the split product, ε(ΔtΣ‖L_k‖)², was measured against |L|.
+#[test]
+fn split_product_rounding_is_measured_against_its_parts() {
+    assert_seed_agrees(1760);
+}
+
+/// Lax–Wendroff (1-D advection) with an upwind-biased user stencil, which
+/// Lax–Wendroff's own G does not use. Once failed: reported none, from the
+/// real part of L(θ) with that stencil along the ray.
+#[test]
+fn lax_wendroff_is_not_judged_by_an_operator_it_does_not_use() {
+    assert_seed_agrees(1235);
+}
+
+/// BDF2 on a non-hyperbolic 2-D system: along one direction L has Re μ ≈ 2e-3
+/// (beyond the source's damping), unstable for small Δt and stable for large
+/// ones. Once failed against the reference, which started its ladder at a
+/// stable Δt = 0.25 and never looked below it (engine: none, the reference
+/// unconditional).
+#[test]
+fn reference_checks_every_dt_below_its_stable_start() {
+    assert_seed_agrees(1320);
+}
+
 /// IMEX CNAB2 with weak eighth-order dissipation on 3-D advection: the first
 /// loss falls like |θ|^(4/3), and every sampled crossing is beneath rounding,
 /// so the engine reports the bounded 1.17e-4 where growth emerges from

@@ -233,8 +233,15 @@ pub(super) fn by_search(ctx: &Context, ev: &CompositeEval, count: usize) -> Limi
         if overall.kind == LimitKind::None && overall.wavevector.iter().all(|x| *x == 0.0) {
             return (0.0, vec![0.0; n.len()]);
         }
-        if let Some(theta) = abscissa::unstable_on_ray(&ctx.op, ctx.plan.tolerance, n, per_ray) {
-            return (0.0, theta);
+        // an unstable L sinks every scheme whose G tends to I + ΔtL; not
+        // Lax–Wendroff, Lax–Friedrichs or a filtered step, whose G is built
+        // otherwise (seed 1235: Lax–Wendroff with an upwind-biased stencil
+        // its G does not use was reported none)
+        if ev.tends_to_identity() {
+            if let Some(theta) = abscissa::unstable_on_ray(&ctx.op, ctx.plan.tolerance, n, per_ray)
+            {
+                return (0.0, theta);
+            }
         }
         rays::ray_limit(&per_theta::PerTheta::new(ev, floor), n, per_ray, certified)
     });

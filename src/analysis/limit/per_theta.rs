@@ -264,3 +264,48 @@ mod tests {
         );
     }
 }
+#[cfg(test)]
+mod trace_tmp {
+    use super::*;
+    #[test]
+    #[ignore]
+    fn trace() {
+        let var = |k: &str| std::env::var(k).unwrap();
+        let case = crate::case::Case::load(std::path::Path::new(&var("TR_CASE")), &[]).unwrap();
+        let p = &case.problem;
+        let op = p.operator();
+        let scheme = p.method.composite().unwrap();
+        let ev = CompositeEval::new(p, &op, scheme);
+        let th: Vec<f64> = var("TR_THETA")
+            .split(',')
+            .map(|x| x.parse().unwrap())
+            .collect();
+        let floor: f64 = var("TR_FLOOR").parse().unwrap();
+        let per = PerTheta::new(&ev, floor);
+        let l = per.at(&th);
+        eprintln!("loss {:?}", l);
+        let nn: f64 = th.iter().map(|x| x * x).sum::<f64>().sqrt();
+        let n: Vec<f64> = th.iter().map(|x| x / nn).collect();
+        let origin: Vec<f64> = std::env::var("TR_ORIGIN")
+            .map(|o| o.split(',').map(|x| x.parse().unwrap()).collect())
+            .unwrap_or(vec![0.0; n.len()]);
+        let lw = super::super::longwave::overall(&per, &origin);
+        eprintln!("lw {:?} {:?} {:?}", lw.limit, lw.uncertainty, lw.direction);
+        let n: Vec<f64> = std::env::var("TR_DIR")
+            .map(|o| o.split(',').map(|x| x.parse().unwrap()).collect())
+            .unwrap_or(lw.direction.clone());
+        let lw = super::super::longwave::along(&per, &origin, &n);
+        eprintln!("along {:?} {:?} {:?}", lw.limit, lw.uncertainty, lw.sample);
+        for j in 0..24 {
+            let s = 0.1 * 0.5f64.powi(j);
+            let pt: Vec<f64> = n.iter().zip(&origin).map(|(x, o)| o + x * s).collect();
+            eprintln!("s {s:e} {:?}", per.at(&pt));
+        }
+        let (a, b): (f64, f64) = (var("TR_A").parse().unwrap(), var("TR_B").parse().unwrap());
+        for k in 0..=20 {
+            let dt = a + (b - a) * k as f64 / 20.0;
+            let (g, n) = ev.growth_and_noise(&th, dt);
+            eprintln!("{dt:.10e} growth {g:e} noise {n:e}");
+        }
+    }
+}

@@ -100,14 +100,22 @@ impl<'a> CompositeEval<'a> {
         if let Some(e) =
             increment::increment(self.scheme, &p.system, self.op, &p.spacing, theta, dt)
         {
+            let (norm, parts) = self.theta_scales(theta);
+            // a split step's increment is built from products E_k E of the
+            // parts' increments, each rounded relative to their sizes: where
+            // the parts cancel (advection along x against y) the product is
+            // far smaller than its rounding, ε(Δt Σ‖L_k‖)² (bounded, as the
+            // parts' increments are, for the stable inner methods that matter)
+            let products = parts.map_or(0.0, |p| f64::EPSILON * (dt * p).powi(2).min(16.0));
             if e.nrows() == 1 {
-                return self.scalar_growth(e[(0, 0)], theta, dt);
+                let (growth, noise) = self.scalar_growth(e[(0, 0)], theta, dt);
+                return (growth, noise + 8.0 * products);
             }
             // implicit solves with I − ΔtL carry rounding relative to its
             // condition, about max(1, Δt‖L‖)
             let (growth, noise) = growth_of_increment(&e);
-            let operand = dt * self.symbol_frobenius(theta);
-            return (growth, noise * operand.max(1.0));
+            let operand = dt * norm;
+            return (growth, (noise + 64.0 * products) * operand.max(1.0));
         }
         let cnab2 = matches!(self.scheme, Composite::Imex(composite::Imex::Cnab2));
         if let Some((s, rest)) = cnab2
@@ -123,23 +131,42 @@ impl<'a> CompositeEval<'a> {
         (rho - 1.0, 64.0 * f64::EPSILON * size)
     }
 
-    /// ‖L(θ)‖_F, which depends on θ only: the searches on Δt call
-    /// [`CompositeEval::growth_and_noise`] many times at one θ, so the last value
-    /// of each thread is kept (keyed by this evaluator's id and θ; the same
-    /// number as computing it afresh).
-    fn symbol_frobenius(&self, theta: &[f64]) -> f64 {
+    /// ‖L(θ)‖_F and, for a split scheme, the sum of its parts' ‖L_k(θ)‖_F
+    /// (axes and source), which depend on θ only: the searches on Δt call
+    /// [`CompositeEval::growth_and_noise`] many times at one θ, so the last
+    /// values of each thread are kept (keyed by this evaluator's id and θ; the
+    /// same numbers as computing them afresh).
+    fn theta_scales(&self, theta: &[f64]) -> (f64, Option<f64>) {
         use std::cell::RefCell;
+        type Last = (usize, Vec<f64>, f64, Option<f64>);
         thread_local! {
-            static LAST: RefCell<(usize, Vec<f64>, f64)> = const { RefCell::new((0, Vec::new(), 0.0)) };
+            static LAST: RefCell<Last> = const { RefCell::new((0, Vec::new(), 0.0, None)) };
         }
         let key = self.id;
         LAST.with(|last| {
             let mut last = last.borrow_mut();
             if last.0 != key || last.1.as_slice() != theta {
                 let f = linalg::dense::frobenius(&self.op.symbol_matrix(theta));
-                *last = (key, theta.to_vec(), f);
+                let parts = matches!(self.scheme, Composite::Split { .. }).then(|| {
+                    use crate::operator::TermKind;
+                    let norm = |m: nalgebra::DMatrix<C64>| linalg::dense::frobenius(&m);
+                    let axes: f64 = (0..self.op.dims)
+                        .map(|d| {
+                            norm(self.op.part_matrix(
+                                theta,
+                                |t| t.axis == d && t.kind != TermKind::Source,
+                                false,
+                            ))
+                        })
+                        .sum();
+                    axes + norm(
+                        self.op
+                            .part_matrix(theta, |t| t.kind == TermKind::Source, true),
+                    )
+                });
+                *last = (key, theta.to_vec(), f, parts);
             }
-            last.2
+            (last.2, last.3)
         })
     }
 
