@@ -62,6 +62,19 @@ fn one_step_increment(m: &Method, z: &DMatrix<C64>) -> DMatrix<C64> {
     solve(poly(&os.q, z), &top)
 }
 
+/// The parts of L(θ) a split step applies one after another: the terms along
+/// each axis (sources excluded), then the sources when there are any.
+pub fn split_parts(op: &Operator, theta: &[f64]) -> Vec<DMatrix<C64>> {
+    let mut parts: Vec<DMatrix<C64>> = (0..op.dims)
+        .map(|d| op.part_matrix(theta, |t| t.axis == d && t.kind != TermKind::Source, false))
+        .collect();
+    let src = op.part_matrix(theta, |t| t.kind == TermKind::Source, true);
+    if src.iter().any(|z| z.norm() != 0.0) {
+        parts.push(src);
+    }
+    parts
+}
+
 /// G(θ, Δt) − I of a one-level composite scheme (None for CNAB2).
 pub fn increment(
     c: &Composite,
@@ -87,15 +100,7 @@ pub fn increment(
             solve(&id - &n * dtc, &(&l * dtc))
         }
         Composite::Split { kind, inner } => {
-            let mut parts: Vec<DMatrix<C64>> = (0..op.dims)
-                .map(|d| {
-                    op.part_matrix(theta, |t| t.axis == d && t.kind != TermKind::Source, false)
-                })
-                .collect();
-            let src = op.part_matrix(theta, |t| t.kind == TermKind::Source, true);
-            if src.iter().any(|z| z.norm() != 0.0) {
-                parts.push(src);
-            }
+            let parts = split_parts(op, theta);
             let step =
                 |p: &DMatrix<C64>, f: f64| one_step_increment(inner, &(p * C64::new(dt * f, 0.0)));
             // (I + E_k)(I + E) − I = E_k + E + E_k E

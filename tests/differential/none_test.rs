@@ -57,14 +57,16 @@ pub fn descend(set: &PointSet, scale: f64) -> Result<f64, NoneVerdict> {
             // Δt of A-stable methods and stable for larger ones (BDF2 on a
             // non-hyperbolic system, seed 1320); the descent goes on from
             // the first unstable Δt below (Δt/4, Δt/16, … down to 1e-8 Δt)
-            let mut below = (1..=13).map(|k| dt * 0.25f64.powi(k));
-            match below.find(|d| set.max_excess(*d).0 > 0.0) {
-                Some(d) if d >= 1e-7 * scale => {
+            let unstable_below = (1..=13).map(|k| dt * 0.25f64.powi(k)).find_map(|d| {
+                let (e, i) = set.max_excess(d);
+                (e > 0.0).then_some((d, i))
+            });
+            match unstable_below {
+                Some((d, _)) if d >= 1e-7 * scale => {
                     (dt, seen, slopes) = (d, Vec::new(), Vec::new());
                     continue;
                 }
-                Some(d) => {
-                    let (_, i) = set.max_excess(d);
+                Some((_, i)) => {
                     return Err(verdict(
                         set,
                         i,

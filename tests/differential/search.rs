@@ -56,8 +56,9 @@ pub fn allowance_bias(s: &Scheme, witness: &[f64], dt: f64) -> f64 {
     let exact = Point::new(s, witness.to_vec(), 0.0);
     let judged = Point::new(s, witness.to_vec(), ROUNDOFF);
     let above = dt * (1.0 + 1e-6);
-    let slope = (exact.excess(above) - exact.excess(dt)) / 1e-6;
-    let allowance = exact.excess(above) - judged.excess(above);
+    let at_above = exact.excess(above);
+    let slope = (at_above - exact.excess(dt)) / 1e-6;
+    let allowance = at_above - judged.excess(above);
     if slope > 0.0 && allowance > 0.0 {
         (allowance / slope).min(1e-3)
     } else {

@@ -106,12 +106,25 @@ impl FirstLoss for Exact<'_> {
                 bound: false,
             },
             Ok(trusted) => {
-                let dt = min_over_modes(eig, |mu| self.exits.exact(mu)).0;
-                // the modes that set the value must have resolved exits
-                let resolved = eig
-                    .iter()
-                    .filter(|mu| !self.exits.resolved(**mu))
-                    .all(|mu| self.exits.exact(*mu) > dt);
+                // the smallest exit, and the smallest of the unresolved ones
+                // (−∞ for a NaN): the modes that set the value must have
+                // resolved exits; each exit computed once
+                let (mut dt, mut unresolved, mut any) = (f64::INFINITY, f64::INFINITY, false);
+                for &mu in eig.iter() {
+                    let t = self.exits.exact(mu);
+                    if t < dt {
+                        dt = t;
+                    }
+                    if !self.exits.resolved(mu) {
+                        any = true;
+                        unresolved = if t.is_nan() {
+                            f64::NEG_INFINITY
+                        } else {
+                            unresolved.min(t)
+                        };
+                    }
+                }
+                let resolved = !any || unresolved > dt;
                 Loss {
                     dt,
                     trusted: trusted && resolved,

@@ -148,21 +148,10 @@ impl<'a> CompositeEval<'a> {
             if last.0 != key || last.1.as_slice() != theta {
                 let f = linalg::dense::frobenius(&self.op.symbol_matrix(theta));
                 let parts = matches!(self.scheme, Composite::Split { .. }).then(|| {
-                    use crate::operator::TermKind;
-                    let norm = |m: nalgebra::DMatrix<C64>| linalg::dense::frobenius(&m);
-                    let axes: f64 = (0..self.op.dims)
-                        .map(|d| {
-                            norm(self.op.part_matrix(
-                                theta,
-                                |t| t.axis == d && t.kind != TermKind::Source,
-                                false,
-                            ))
-                        })
-                        .sum();
-                    axes + norm(
-                        self.op
-                            .part_matrix(theta, |t| t.kind == TermKind::Source, true),
-                    )
+                    increment::split_parts(self.op, theta)
+                        .iter()
+                        .map(linalg::dense::frobenius)
+                        .sum()
                 });
                 *last = (key, theta.to_vec(), f, parts);
             }
