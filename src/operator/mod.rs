@@ -24,6 +24,7 @@
 
 pub mod classes;
 mod collocated;
+mod perturbed;
 mod space;
 pub mod spectrum;
 mod staggered;

@@ -10,9 +10,14 @@
 //! and only real parts within its roundoff level 64ε‖L‖_F are set to zero
 //! (backward-stable eigenvalue algorithms perturb each eigenvalue by about
 //! ε‖L‖, so a smaller real part cannot be told from zero). In both cases an
-//! eigenvalue within the roundoff level of zero is exactly zero.
+//! eigenvalue within the roundoff level of zero is exactly zero. Where a real
+//! part of a system's eigenvalue is too small to be trusted this way, it may
+//! still be certified from a similarity that keeps it apart from the
+//! imaginary parts ([`super::perturbed`]: hyperbolic long waves with biased
+//! stencils, whose real parts vanish like θ⁴ or θ⁶).
 
 use super::classes::{classify, TermClass};
+use super::perturbed;
 use super::Operator;
 use crate::linalg::{EigSolver, LinalgError};
 use num_complex::Complex64 as C64;
@@ -146,6 +151,15 @@ impl<'a> Spectrum<'a> {
                 mu.re = 0.0;
             }
             mu.re += shift;
+        }
+        // real parts below the eigenvalue computation's rounding, read off a
+        // similarity that keeps them apart from the imaginary parts
+        if let (false, false, Some(theta)) = (trusted, split, theta) {
+            if let Some(refined) = perturbed::certified(&self.sym, op.m, op.real_noise(theta), out)
+            {
+                out.copy_from_slice(&refined);
+                return Ok(true);
+            }
         }
         // A 1×1 symbol is its own eigenvalue, but its real part carries the
         // rounding of the stencil sums behind it: a biased stencil's real part

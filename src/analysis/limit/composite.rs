@@ -82,7 +82,7 @@ pub fn overall(
         }
     }
     evidence.offer(hi, &points[worst]);
-    let per = PerTheta::new(ev, 0.5 * lo);
+    let per = PerTheta::new(ev, 0.5 * lo, tolerance);
     let step = (0..dims)
         .map(|d| grid.step(d))
         .fold(f64::INFINITY, f64::min);

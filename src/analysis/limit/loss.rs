@@ -26,6 +26,9 @@ pub struct Loss {
     /// that the value bounds the true first loss from above even when it is not
     /// accurate (a composite scheme's crossing of ρ − 1 with its rounding level).
     pub bound: bool,
+    /// Not trusted, but ρ − 1 rises clear of its rounding within 1e-4 of the
+    /// value: a sample a long-wave approach with no trusted one may use.
+    pub rough: bool,
 }
 
 impl Loss {
@@ -35,6 +38,7 @@ impl Loss {
             dt,
             trusted: true,
             bound: true,
+            rough: false,
         }
     }
 
@@ -104,6 +108,7 @@ impl FirstLoss for Exact<'_> {
                 dt: f64::NAN,
                 trusted: false,
                 bound: false,
+                rough: false,
             },
             Ok(trusted) => {
                 // the smallest exit, and the smallest of the unresolved ones
@@ -129,6 +134,7 @@ impl FirstLoss for Exact<'_> {
                     dt,
                     trusted: trusted && resolved,
                     bound: trusted && resolved,
+                    rough: false,
                 }
             }
         }

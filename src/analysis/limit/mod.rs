@@ -10,6 +10,7 @@ pub mod certify;
 pub mod closed_form;
 pub mod composite;
 pub mod first_exit;
+pub mod growth_orders;
 pub mod longwave;
 pub mod loss;
 pub mod overall;
@@ -243,7 +244,12 @@ pub(super) fn by_search(ctx: &Context, ev: &CompositeEval, count: usize) -> Limi
                 return (0.0, theta);
             }
         }
-        rays::ray_limit(&per_theta::PerTheta::new(ev, floor), n, per_ray, certified)
+        rays::ray_limit(
+            &per_theta::PerTheta::new(ev, floor, ctx.plan.tolerance),
+            n,
+            per_ray,
+            certified,
+        )
     });
     finish(
         ctx,

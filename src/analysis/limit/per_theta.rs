@@ -17,6 +17,7 @@
 //! at its limit) carry errors of order √ε, far above the rounding level, and
 //! cutting it finer finds those slivers instead of the crossing.
 
+use super::growth_orders;
 use super::loss::{FirstLoss, Loss};
 use super::search::{power_law, CompositeEval, BISECTIONS, SMALL_DT_LEVELS};
 use crate::numeric::bracket::bisect;
@@ -24,6 +25,11 @@ use crate::numeric::minimise::golden_max;
 
 /// Ratio of successive rungs of the per-wavevector ladder.
 const LADDER: f64 = 1.25;
+/// Relative steps over which a crossing's rise past ten times its rounding is
+/// looked for: within the first the crossing is trusted; within a later one it
+/// is rough, a sample of a long-wave approach that has no trusted one (IMEX
+/// CNAB2 with fourth-order dissipation, seed 1314: every crossing rises slowly).
+const RISE_STEPS: [f64; 3] = [1e-6, 1e-5, 1e-4];
 /// Pieces a suspicious stretch is cut into, per level.
 const PIECES: usize = 8;
 /// Levels of cutting (8³ = 512 pieces of a rung at the finest).
@@ -40,12 +46,18 @@ const SLOPE_CLARITY: f64 = 16.0;
 pub struct PerTheta<'a> {
     ev: &'a CompositeEval<'a>,
     floor: f64,
+    tolerance: f64,
 }
 
 impl<'a> PerTheta<'a> {
-    /// For `ev`, starting from `floor`.
-    pub fn new(ev: &'a CompositeEval<'a>, floor: f64) -> Self {
-        PerTheta { ev, floor }
+    /// For `ev`, starting from `floor`, with the stability tolerance of the
+    /// imaginary-axis rule (for the long-wave orders of L).
+    pub fn new(ev: &'a CompositeEval<'a>, floor: f64, tolerance: f64) -> Self {
+        PerTheta {
+            ev,
+            floor,
+            tolerance,
+        }
     }
 }
 
@@ -125,6 +137,12 @@ impl FirstLoss for PerTheta<'_> {
         }
         loss
     }
+
+    fn long_wave(&self, origin: &[f64], n: &[f64]) -> Option<f64> {
+        let op = self.ev.operator();
+        growth_orders::imex_closed_form(self.ev, op, self.tolerance, origin, n)
+            .or_else(|| growth_orders::verdict(self.ev, op, self.tolerance, origin, n))
+    }
 }
 
 impl PerTheta<'_> {
@@ -143,19 +161,23 @@ impl PerTheta<'_> {
         // the value is moved down by twice that offset (to where the linear model
         // reaches −δ: the safe end of what rounding allows), and it is trusted
         // when ρ − 1 grows past 10δ within 1e-6 (an offset of at most 1e-7).
+        // One that does so only within a longer step is rough: unmoved, and
+        // used only by an approach with no trusted sample at all.
         let (g0, noise) = self.ev.growth_and_noise(theta, hi);
-        let (g1, _) = self.ev.growth_and_noise(theta, hi * (1.0 + 1e-6));
-        let slope = (g1 - g0) / 1e-6;
-        let trusted = g1 > 10.0 * noise && slope > 0.0;
-        let offset = if trusted {
-            (2.0 * noise / slope).min(1e-6)
-        } else {
-            0.0
+        let rises = |step: f64| {
+            let (g1, _) = self.ev.growth_and_noise(theta, hi * (1.0 + step));
+            let slope = (g1 - g0) / step;
+            (g1 > 10.0 * noise && slope > 0.0).then_some(slope)
         };
+        let first = rises(RISE_STEPS[0]);
+        let trusted = first.is_some();
+        let rough = !trusted && RISE_STEPS[1..].iter().any(|h| rises(*h).is_some());
+        let offset = first.map_or(0.0, |slope| (2.0 * noise / slope).min(1e-6));
         Loss {
             dt: lo * (1.0 - offset),
             trusted,
             bound: true,
+            rough,
         }
     }
 }

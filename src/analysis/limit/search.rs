@@ -83,6 +83,16 @@ impl<'a> CompositeEval<'a> {
         )
     }
 
+    /// The scheme.
+    pub fn scheme(&self) -> &Composite {
+        self.scheme
+    }
+
+    /// The spatial operator the scheme advances.
+    pub fn operator(&self) -> &Operator {
+        self.op
+    }
+
     /// The natural time scale 1/‖L‖.
     pub fn scale(&self) -> f64 {
         1.0 / self.op.scale().max(1e-300)
