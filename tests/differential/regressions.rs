@@ -450,7 +450,7 @@ fn composite_first_loss_beneath_rounding_everywhere_is_none() {
 /// θ = 0.025, 6.2024683e-3 at θ = 1e-3. Once failed: the engine took rounded
 /// samples to 6.20272e-3, 4e-5 too large, and the reference agrees with that
 /// (its own samples carry the same rounding); the engine now uses the closed
-/// form, less its 1e-8 uncertainty.
+/// form (AB2's c = 1/2 from the series of its principal root).
 #[test]
 fn cnab2_long_wave_limit_is_the_ab2_closed_form() {
     let (ux, uy): (f64, f64) = (-0.42806615871095544, -1.7164528551408733);
@@ -556,7 +556,7 @@ fn long_wave_limit_along_an_axis_is_the_closed_form() {
     for (n, dt) in by.directions.iter().zip(&by.dt) {
         if n[0].abs() < 1e-12 && n[2].abs() < 1e-12 {
             let exact = closed_form::long_wave_limit(os, &op, 1e-12, &[0.0; 3], n).unwrap();
-            // the engine takes the closed form less its uncertainty (1e-8)
+            // the engine takes the closed form less its uncertainty (1e-12)
             assert!(
                 *dt <= exact * (1.0 + 1e-9) && *dt >= exact * (1.0 - 2e-8),
                 "direction {n:?}: engine {dt}, closed form {exact}"

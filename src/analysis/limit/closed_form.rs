@@ -19,7 +19,6 @@
 //! an order that does not settle, a positive real part) gives None and the
 //! numerical extrapolation stands.
 
-use crate::linalg::poly;
 use crate::operator::{Operator, Spectrum};
 use crate::time::{Multistep, OneStep};
 use num_complex::Complex64 as C64;
@@ -62,59 +61,11 @@ pub fn imaginary_axis(os: &OneStep) -> Option<(usize, f64)> {
 }
 
 /// (k, c) of a linear multistep method's principal root:
-/// |ζ₁(iy)|² − 1 = c yᵏ + O(y^{k+2}), from the root nearest e^{iy} at
-/// y = 0.1·2⁻ʲ (k the settled log₂ ratio of successive values, c by
-/// Richardson extrapolation); None when the principal root stays on the unit
-/// circle to rounding (leapfrog) or the order does not settle. AB2: k = 4,
-/// c = 1/2.
+/// |ζ₁(iy)|² − 1 = c yᵏ + O(y^{k+2}), from its power series
+/// ([`super::principal_root`]); None when the principal root stays on the unit
+/// circle (leapfrog). AB2: k = 4, c = 1/2.
 pub fn imaginary_axis_multistep(ms: &Multistep) -> Option<(usize, f64)> {
-    let excess = |y: f64| -> Option<f64> {
-        let z = C64::new(0.0, y);
-        let c: Vec<C64> = ms
-            .alpha
-            .iter()
-            .zip(&ms.beta)
-            .map(|(a, b)| C64::new(*a, 0.0) - z * b)
-            .collect();
-        let roots = poly::roots(&c).ok()?;
-        let target = C64::from_polar(1.0, y);
-        let r = roots
-            .iter()
-            .min_by(|a, b| (**a - target).norm().total_cmp(&(**b - target).norm()))?;
-        Some(r.norm_sqr() - 1.0)
-    };
-    let ys: Vec<f64> = (0..6).map(|j| 0.1 * 0.5f64.powi(j)).collect();
-    let g: Vec<f64> = ys.iter().map(|y| excess(*y)).collect::<Option<_>>()?;
-    if g.iter().all(|v| v.abs() < 1e-12) {
-        return None;
-    }
-    if g.iter().any(|v| v.signum() != g[0].signum() || *v == 0.0) {
-        return None;
-    }
-    let orders: Vec<f64> = g.windows(2).map(|w| (w[0] / w[1]).log2()).collect();
-    let k = orders[orders.len() - 1].round();
-    if !(2.0..=16.0).contains(&k)
-        || k % 2.0 != 0.0
-        || orders[orders.len() - 2..]
-            .iter()
-            .any(|o| (o - k).abs() > 0.05)
-    {
-        return None;
-    }
-    // c from the four largest levels, extrapolated to y = 0 in y² (Neville):
-    // the smallest levels carry rounding of 1e-16/g (2e-6 relative at
-    // y = 0.003 for AB2, where g ≈ y⁴/2), the largest truncation of order y²
-    let coefficient = |j: usize| g[j] / ys[j].powi(k as i32);
-    let (p, l) = (coefficient(ys.len() - 2), coefficient(ys.len() - 1));
-    let x: Vec<f64> = ys[..4].iter().map(|y| y * y).collect();
-    let mut t: Vec<f64> = (0..4).map(coefficient).collect();
-    for m in 1..4 {
-        for i in (m..4).rev() {
-            t[i] = (x[i] * t[i - 1] - x[i - m] * t[i]) / (x[i] - x[i - m]);
-        }
-    }
-    let c = t[3];
-    ((l - p).abs() <= 1e-2 * l.abs() && (c - l).abs() <= 1e-2 * l.abs()).then_some((k as usize, c))
+    super::principal_root::imaginary_axis(ms)
 }
 
 /// One eigenvalue branch near θ₀: μ ≈ i a s − b sʳ (r = None: no real part

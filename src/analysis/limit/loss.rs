@@ -27,8 +27,10 @@ pub struct Loss {
     /// accurate (a composite scheme's crossing of ρ − 1 with its rounding level).
     pub bound: bool,
     /// Not trusted, but ρ − 1 rises clear of its rounding within 1e-4 of the
-    /// value: a sample a long-wave approach with no trusted one may use.
-    pub rough: bool,
+    /// value: then the value's relative bias (how far above the crossing
+    /// rounding may put it), a sample a long-wave approach with no trusted
+    /// one may use; 0 otherwise.
+    pub rough: f64,
 }
 
 impl Loss {
@@ -38,7 +40,7 @@ impl Loss {
             dt,
             trusted: true,
             bound: true,
-            rough: false,
+            rough: 0.0,
         }
     }
 
@@ -108,7 +110,7 @@ impl FirstLoss for Exact<'_> {
                 dt: f64::NAN,
                 trusted: false,
                 bound: false,
-                rough: false,
+                rough: 0.0,
             },
             Ok(trusted) => {
                 // the smallest exit, and the smallest of the unresolved ones
@@ -134,7 +136,7 @@ impl FirstLoss for Exact<'_> {
                     dt,
                     trusted: trusted && resolved,
                     bound: trusted && resolved,
-                    rough: false,
+                    rough: 0.0,
                 }
             }
         }

@@ -15,6 +15,7 @@ pub mod longwave;
 pub mod loss;
 pub mod overall;
 pub mod per_theta;
+pub mod principal_root;
 pub mod rays;
 pub mod search;
 

@@ -171,7 +171,16 @@ impl PerTheta<'_> {
         };
         let first = rises(RISE_STEPS[0]);
         let trusted = first.is_some();
-        let rough = !trusted && RISE_STEPS[1..].iter().any(|h| rises(*h).is_some());
+        // a rough value's bias: the linear model's 2δ/slope over the step
+        // that shows the rise
+        let rough = if trusted {
+            0.0
+        } else {
+            RISE_STEPS[1..]
+                .iter()
+                .find_map(|h| rises(*h))
+                .map_or(0.0, |slope| 2.0 * noise / slope)
+        };
         let offset = first.map_or(0.0, |slope| (2.0 * noise / slope).min(1e-6));
         Loss {
             dt: lo * (1.0 - offset),
