@@ -1,5 +1,8 @@
-//! Long-wave verdicts of composite schemes from orders: the growth a scheme
-//! adds to a travelling long wave against the damping L gives it.
+//! Long-wave limits of composite schemes: for IMEX schemes in closed form
+//! ([`imex_closed_form`]: the explicit method's growth on the imaginary axis
+//! against L's damping, as for one-step methods), for the others a verdict from
+//! orders ([`verdict`]): the growth a scheme adds to a travelling long wave
+//! against the damping L gives it.
 //!
 //! Along θ₀ + s n, each eigenvalue branch of L behaves as μ ≈ i a s − b sʳ
 //! ([`super::closed_form::branches`]). A composite scheme whose G tends to
