@@ -14,7 +14,7 @@ use std::path::{Path, PathBuf};
 use std::process::Command;
 
 /// Estimate over measured peak must lie in [LOW, HIGH] (the target is within
-/// 10 %; the table's rows measure 0.96–1.09, and peaks vary a few per cent
+/// 10 %; the table's rows measure 0.91–1.17, and peaks vary a few per cent
 /// from run to run).
 const LOW: f64 = 0.85;
 const HIGH: f64 = 1.25;

@@ -18,9 +18,8 @@ use crate::problem::Problem;
 
 /// Program, runtime, embedded font, thread pools and the bookkeeping of a
 /// small run: the measured peak of radius-only runs on small 1-D to 3-D grids
-/// less the other terms, about 8 MiB (6 MiB measured on an earlier, smaller
-/// program; small 1-D runs then came out at 0.845 of their peak).
-const PROCESS: u128 = 8 << 20;
+/// less the other terms, about 6 MiB.
+const PROCESS: u128 = 6 << 20;
 /// One picture's RGB buffer (1000 × 800 × 3) plus the PNG encoder's and the
 /// text renderer's buffers (measured: about 1.5 MiB); pictures are drawn in
 /// parallel, one per worker thread at most (seven pictures at most).
