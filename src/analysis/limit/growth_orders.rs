@@ -26,7 +26,6 @@ use super::closed_form::{
     branches, imaginary_axis, imaginary_axis_multistep, long_wave_limit_from,
 };
 use super::search::CompositeEval;
-use crate::operator::Operator;
 
 /// First level s of the growth fit.
 const S: f64 = 0.05;
@@ -41,13 +40,8 @@ const SETTLED: f64 = 0.1;
 
 /// The long-wave limit along θ₀ + s n from the orders (0: unstable at every
 /// Δt; ∞: no limit), or None where they give no verdict.
-pub fn verdict(
-    ev: &CompositeEval,
-    op: &Operator,
-    tolerance: f64,
-    origin: &[f64],
-    n: &[f64],
-) -> Option<f64> {
+pub fn verdict(ev: &CompositeEval, tolerance: f64, origin: &[f64], n: &[f64]) -> Option<f64> {
+    let op = ev.operator();
     if !ev.tends_to_identity() {
         return None;
     }
@@ -62,7 +56,7 @@ pub fn verdict(
         .map(|b| b.r)
         .collect::<Option<Vec<u32>>>()?;
     let (r_min, r_max) = (*moving.iter().min()?, *moving.iter().max()?);
-    let q = growth_order(ev, op, origin, n)?;
+    let q = growth_order(ev, origin, n)?;
     if r_min > q {
         Some(0.0)
     } else if r_max < q {
@@ -82,11 +76,11 @@ pub fn verdict(
 /// schemes, or where a diffusion symbol has an imaginary part.
 pub fn imex_closed_form(
     ev: &CompositeEval,
-    op: &Operator,
     tolerance: f64,
     origin: &[f64],
     n: &[f64],
 ) -> Option<f64> {
+    let op = ev.operator();
     use crate::operator::TermKind;
     use crate::time::composite::{Composite, Imex};
     use crate::time::Scheme;
@@ -115,7 +109,8 @@ pub fn imex_closed_form(
 
 /// The order q in s of the growth ρ(G) − 1 ≈ β Δtᵏ s^q at a fixed small
 /// Δt|L|, when it is positive, clear of rounding, and both its orders settle.
-fn growth_order(ev: &CompositeEval, op: &Operator, origin: &[f64], n: &[f64]) -> Option<u32> {
+fn growth_order(ev: &CompositeEval, origin: &[f64], n: &[f64]) -> Option<u32> {
+    let op = ev.operator();
     let at = |s: f64| -> Vec<f64> { origin.iter().zip(n).map(|(o, x)| o + x * s).collect() };
     let size = crate::linalg::nonnormal::frobenius(op.symbol(&at(S)).into_iter());
     if !(size.is_finite() && size > 0.0) {
@@ -174,7 +169,7 @@ mod tests {
         let op = p.operator();
         let scheme = p.method.composite().unwrap();
         let ev = CompositeEval::new(&p, &op, scheme);
-        verdict(&ev, &op, 1e-12, &[0.0], &[1.0])
+        verdict(&ev, 1e-12, &[0.0], &[1.0])
     }
 
     #[test]
@@ -209,6 +204,6 @@ mod tests {
             .unwrap();
         let op = p.operator();
         let ev = CompositeEval::new(&p, &op, p.method.composite().unwrap());
-        assert_eq!(verdict(&ev, &op, 1e-12, &[0.0], &[1.0]), None);
+        assert_eq!(verdict(&ev, 1e-12, &[0.0], &[1.0]), None);
     }
 }

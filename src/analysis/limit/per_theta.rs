@@ -139,9 +139,8 @@ impl FirstLoss for PerTheta<'_> {
     }
 
     fn long_wave(&self, origin: &[f64], n: &[f64]) -> Option<f64> {
-        let op = self.ev.operator();
-        growth_orders::imex_closed_form(self.ev, op, self.tolerance, origin, n)
-            .or_else(|| growth_orders::verdict(self.ev, op, self.tolerance, origin, n))
+        growth_orders::imex_closed_form(self.ev, self.tolerance, origin, n)
+            .or_else(|| growth_orders::verdict(self.ev, self.tolerance, origin, n))
     }
 }
 
