@@ -40,3 +40,28 @@ fn print_excess_at_point() {
     );
     assert!(!rho.is_nan(), "the spectral radius is a number");
 }
+
+/// Prints the engine's limit for `KGAIN_DIFF_SEED`: the overall Δt and its
+/// wavevector, then each direction's Δt and wavevector (a helper for reading a
+/// failure).
+#[test]
+#[ignore = "a helper: prints the engine's limit of one seed"]
+fn print_engine_limit_of_seed() {
+    let seed = std::env::var("KGAIN_DIFF_SEED")
+        .ok()
+        .and_then(|v| v.parse().ok())
+        .unwrap_or(1);
+    let text = crate::render::case_text(&crate::generate::scheme(seed));
+    let l = crate::engine::engine_limit(&text).unwrap();
+    println!("{:?} dt {:.15e} at {:?}", l.kind, l.dt_max, l.wavevector);
+    for (i, ((n, dt), w)) in l
+        .directions
+        .iter()
+        .zip(&l.dt_by_direction)
+        .zip(&l.wavevector_by_direction)
+        .enumerate()
+    {
+        println!("#{i} {n:?}: dt {dt:.15e} at {w:?}");
+    }
+    assert_eq!(l.directions.len(), l.dt_by_direction.len());
+}

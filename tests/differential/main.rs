@@ -13,7 +13,9 @@
 //! each wave direction; `compare` applies the rules (engine never above the
 //! reference by more than 1e-9 relative, never below by more than 1e-6, kinds
 //! equal). `closed_forms` checks classic schemes against derived limits, and
-//! `regressions` holds one named test per failure class found so far.
+//! `regressions` holds one named test per failure class found so far, and
+//! `reference_errors` one per seed where a check outside both shows the
+//! reference wrong.
 //!
 //! CI (200 schemes and the closed forms; 20–40 s on the two-core machine):
 //!
@@ -60,6 +62,7 @@ mod pattern;
 mod probe;
 mod radius;
 mod reference;
+mod reference_errors;
 mod regressions;
 mod render;
 mod rng;

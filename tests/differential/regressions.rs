@@ -26,6 +26,36 @@ pub const KNOWN_REFERENCE_ERRORS: &[(u64, &str)] = &[
          along every moving direction, but beneath the reference's rounding on two of them; see \
          composite_first_loss_beneath_rounding_everywhere_is_none",
     ),
+    (
+        1265,
+        "AB2 3-D scalar advection, fourth-order dissipation: the reference's long-wave \
+         extrapolation from samples at the rounding level is 1.3e-5 above the closed form \
+         dt^3 = 4b/a^4; see ab2_long_wave_limit_is_the_closed_form_in_3d",
+    ),
+    (
+        1531,
+        "forward Euler 1-D 2x2, diffusion singular to rounding: a valley 3e-4 wide next to \
+         theta = pi lies between the reference's samples, its value 2.5e-6 high; see \
+         forward_euler_valley_next_to_the_corner_is_found",
+    ),
+    (
+        1661,
+        "IMEX Euler (nothing implicit) 1-D, second-order dissipation 1.4e-6: the reference's \
+         long-wave extrapolation did not settle and is 1e-4 above 2b/a^2; see \
+         forward_euler_long_wave_limit_with_weak_dissipation_is_the_closed_form",
+    ),
+    (
+        1772,
+        "Heun 2-D 2x2, DRP and third-order upwinding: rho(G) - 1 ~ 1e-17 at the limiting \
+         wavevector, beneath the reference's resolution; see \
+         heun_limit_where_growth_is_beneath_rounding_is_the_exact_first_exit",
+    ),
+    (
+        1609,
+        "random four-stage tableau 3-D 3x3 system, third-order upwinding and diffusion: the \
+         long-wave limit is the closed form 2d/((1 - 2c2)a^2); the reference's extrapolation at \
+         |theta| ~ 6e-9 is 2.4 % high; see random_tableau_long_wave_limit_is_the_closed_form",
+    ),
 ];
 
 /// Runs one seed (all directions) and asserts that the engine agrees with the
