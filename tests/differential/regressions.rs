@@ -15,6 +15,12 @@ pub const KNOWN_ENGINE_FAILURES: &[(u64, &str)] = &[];
 /// failures; each has a named test against that check.
 pub const KNOWN_REFERENCE_ERRORS: &[(u64, &str)] = &[
     (
+        1611,
+        "unsplit Lax-Wendroff 3-D: the long-wave limit (sum |u_d/h_d|^(2/3))^(-3/2) = 0.11345 \
+         has growth of 1e-10 just above it, beneath the reference's threshold, which reported a \
+         finite-theta minimum 6e-3 higher; see lax_wendroff_3d_long_wave_limit_is_the_two_thirds_law",
+    ),
+    (
         198,
         "IMEX CNAB2 2-D, fourth-order dissipation: the reference's long-wave extrapolation along x \
          is 4.1e-5 high (its first losses carry rounding of up to 6e-6); see \

@@ -67,8 +67,10 @@ fn lax_friedrichs_2d_limit_is_nu_squared_sum_one_half_engine() {
 // sinθe cross terms). Along x (θy = 0) it is the 1-D Lax–Wendroff scheme,
 // |G|² = 1 − 4νx²(1 − νx²) sin⁴(θ/2), stable iff νx ≤ 1 (Strikwerda, from memory; the formula is re-derived by
 // expanding |G|² directly):
-// Δt = h_x/a_x = 1. The overall limit has no simple closed form here: it is
-// computed by the independent reference, and the engine is compared with it.
+// Δt = h_x/a_x = 1. Long waves bound the overall limit by the two-thirds law
+// Δt ≤ (Σ_d |u_d/h_d|^{2/3})^{−3/2} (derived in `reference_errors`, seed 1611)
+// = (1 + 0.5^{2/3})^{−3/2}; the overall limit is also computed by the
+// independent reference, and the engine is compared with both.
 fn lax_wendroff_2d() -> Scheme {
     Scalar {
         spacing: &[1.0, 1.0],
@@ -109,6 +111,12 @@ fn lax_wendroff_2d_agrees_with_the_reference_search_engine() {
         "LW 2-D overall, engine against reference",
     );
     assert_limit(engine_direction(&e, &[1.0, 0.0]), 1.0, "LW along x, engine");
+    let two_thirds = (1.0 + 0.5f64.powf(2.0 / 3.0)).powf(-1.5);
+    assert!(
+        e.dt_max <= two_thirds * (1.0 + 1e-9),
+        "engine {} above the long-wave bound {two_thirds}",
+        e.dt_max
+    );
 }
 
 // ---------------------------------------------------------------------------
