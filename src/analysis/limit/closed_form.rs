@@ -15,7 +15,11 @@
 //! every Δt. The orders are read from the exact stability polynomial (k, c)
 //! and from the eigenvalues of L at s = 10⁻², 5·10⁻³, … (a and b by Richardson
 //! extrapolation, r as the rounded log₂ ratio of successive real parts, which
-//! must agree); any doubt (untrusted eigenvalues, equal speeds of two branches,
+//! must agree). The fit's own uncertainty is the error of the last Richardson
+//! value where the next term is of order s⁴: 1/15 of its distance from the
+//! value of the two levels before (for v = b + αs² + βs⁴ the two values are
+//! b − βs⁴/4 and b − 4βs⁴), carried to Δt through the exponents. It does not
+//! bound rounding at the smallest s beyond what that distance shows; any doubt (untrusted eigenvalues, equal speeds of two branches,
 //! an order that does not settle, a positive real part) gives None and the
 //! numerical extrapolation stands.
 
@@ -78,6 +82,33 @@ pub struct Branch {
     pub b: f64,
     /// Order of the damping.
     pub r: Option<u32>,
+    /// Relative uncertainty of `a` (see [`richardson`]).
+    pub a_spread: f64,
+    /// Relative uncertainty of `b`, likewise (0 with `r` None).
+    pub b_spread: f64,
+}
+
+/// A long-wave limit in closed form with its relative uncertainty.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct ClosedForm {
+    /// The limit (∞: long waves set no limit; 0: unstable at every Δt).
+    pub limit: f64,
+    /// Its relative uncertainty, from the branch fit (at least 1e-12).
+    pub uncertainty: f64,
+}
+
+/// Relative uncertainty a closed form never goes below (the rounding of the
+/// formula itself).
+pub const UNCERTAINTY_FLOOR: f64 = 1e-12;
+
+/// The Richardson value of `values(j)` (which err like s²) from the last two
+/// levels, and its relative error estimate: 1/15 of its distance from the value
+/// of the two levels before, the error of the first when the next term is s⁴.
+fn richardson(values: &dyn Fn(usize) -> f64) -> (f64, f64) {
+    let (q, p, l) = (values(LEVELS - 3), values(LEVELS - 2), values(LEVELS - 1));
+    let best = l + (l - p) / 3.0;
+    let before = p + (p - q) / 3.0;
+    (best, ((best - before) / best).abs() / 15.0)
 }
 
 /// The branches of L along `origin + s n`, or None when they cannot be told
@@ -107,15 +138,20 @@ pub fn branches(op: &Operator, tolerance: f64, origin: &[f64], n: &[f64]) -> Opt
         let speeds: Vec<f64> = (0..LEVELS)
             .map(|j| levels[j][k].im / (S * 0.5f64.powi(j as i32)))
             .collect();
-        let (p, l) = (speeds[LEVELS - 2], speeds[LEVELS - 1]);
         // odd in s for real coefficients: the error of Im μ/s is O(s²)
-        let a = l + (l - p) / 3.0;
+        let (a, a_spread) = richardson(&|j| speeds[j]);
         if k > 0 && (a - out.last().map_or(f64::NAN, |b: &Branch| b.a)).abs() <= 1e-6 * scale {
             return None;
         }
         let re: Vec<f64> = levels.iter().map(|lv| lv[k].re).collect();
         if re.iter().all(|x| *x == 0.0) {
-            out.push(Branch { a, b: 0.0, r: None });
+            out.push(Branch {
+                a,
+                b: 0.0,
+                r: None,
+                a_spread,
+                b_spread: 0.0,
+            });
             continue;
         }
         if re.iter().any(|x| *x >= 0.0) {
@@ -132,7 +168,7 @@ pub fn branches(op: &Operator, tolerance: f64, origin: &[f64], n: &[f64]) -> Opt
         }
         let coefficient = |j: usize| -re[j] / (S * 0.5f64.powi(j as i32)).powi(r as i32);
         let (p, l) = (coefficient(LEVELS - 2), coefficient(LEVELS - 1));
-        let b = l + (l - p) / 3.0;
+        let (b, b_spread) = richardson(&coefficient);
         if (l - p).abs() > 1e-3 * l {
             return None;
         }
@@ -140,6 +176,8 @@ pub fn branches(op: &Operator, tolerance: f64, origin: &[f64], n: &[f64]) -> Opt
             a,
             b,
             r: Some(r as u32),
+            a_spread,
+            b_spread,
         });
     }
     Some(out)
@@ -154,7 +192,7 @@ pub fn long_wave_limit(
     tolerance: f64,
     origin: &[f64],
     n: &[f64],
-) -> Option<f64> {
+) -> Option<ClosedForm> {
     long_wave_limit_from(imaginary_axis(os)?, op, tolerance, origin, n)
 }
 
@@ -166,10 +204,12 @@ pub fn long_wave_limit_from(
     tolerance: f64,
     origin: &[f64],
     n: &[f64],
-) -> Option<f64> {
+) -> Option<ClosedForm> {
     let all = branches(op, tolerance, origin, n)?;
     let scale = all.iter().fold(0.0_f64, |acc, b| acc.max(b.a.abs()));
     let mut limit = f64::INFINITY;
+    // the smallest of the branches' limits less their uncertainties
+    let mut lowest = f64::INFINITY;
     for br in all {
         if br.a.abs() <= 1e-9 * scale {
             // a mode that does not move along n: damping alone, or nothing
@@ -180,17 +220,27 @@ pub fn long_wave_limit_from(
         if c < 0.0 {
             continue;
         }
-        let here = match br.r {
-            None => 0.0,
-            Some(r) if (r as usize) < k => f64::INFINITY,
+        let (here, spread) = match br.r {
+            None => (0.0, 0.0),
+            Some(r) if (r as usize) < k => (f64::INFINITY, 0.0),
             Some(r) if r as usize == k => {
-                (2.0 * br.b / (c * br.a.abs().powi(k as i32))).powf(1.0 / (k as f64 - 1.0))
+                let exponent = 1.0 / (k as f64 - 1.0);
+                (
+                    (2.0 * br.b / (c * br.a.abs().powi(k as i32))).powf(exponent),
+                    exponent * (br.b_spread + k as f64 * br.a_spread),
+                )
             }
-            Some(_) => 0.0,
+            Some(_) => (0.0, 0.0),
         };
         limit = limit.min(here);
+        lowest = lowest.min(here * (1.0 - spread));
     }
-    Some(limit)
+    let uncertainty = if limit.is_finite() && limit > 0.0 {
+        ((limit - lowest) / limit).max(UNCERTAINTY_FLOOR)
+    } else {
+        0.0
+    };
+    Some(ClosedForm { limit, uncertainty })
 }
 
 #[cfg(test)]
@@ -224,11 +274,18 @@ mod tests {
         assert!((br[0].a + a / h).abs() < 1e-9 * a / h, "{br:?}");
         assert!((br[0].b - d / (h * h)).abs() < 1e-8 * d / (h * h), "{br:?}");
         assert_eq!(br[0].r, Some(2));
-        let l = long_wave_limit(os, &op, 1e-12, &[0.0], &[1.0]).unwrap();
+        let form = long_wave_limit(os, &op, 1e-12, &[0.0], &[1.0]).unwrap();
+        let l = form.limit;
         assert!(
             (l - 2.0 * d / (a * a)).abs() < 1e-8 * l,
             "{l} vs {}",
             2.0 * d / (a * a)
+        );
+        // the stated uncertainty covers the error and is small
+        assert!(
+            (UNCERTAINTY_FLOOR..1e-9).contains(&form.uncertainty)
+                && (l - 2.0 * d / (a * a)).abs() <= form.uncertainty * l,
+            "{form:?}"
         );
     }
 
@@ -280,7 +337,9 @@ mod tests {
             let Scheme::OneStep(os) = &p.method.scheme else {
                 panic!("a one-step method")
             };
-            let l = long_wave_limit(os, &p.operator(), 1e-12, &[0.0], &[1.0]).unwrap();
+            let l = long_wave_limit(os, &p.operator(), 1e-12, &[0.0], &[1.0])
+                .unwrap()
+                .limit;
             assert_eq!(l, want, "D = {d}");
         }
     }

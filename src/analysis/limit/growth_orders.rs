@@ -23,7 +23,7 @@
 //!   the long-wave approach decide.
 
 use super::closed_form::{
-    branches, imaginary_axis, imaginary_axis_multistep, long_wave_limit_from,
+    branches, imaginary_axis, imaginary_axis_multistep, long_wave_limit_from, ClosedForm,
 };
 use super::search::CompositeEval;
 
@@ -79,7 +79,7 @@ pub fn imex_closed_form(
     tolerance: f64,
     origin: &[f64],
     n: &[f64],
-) -> Option<f64> {
+) -> Option<ClosedForm> {
     let op = ev.operator();
     use crate::operator::TermKind;
     use crate::time::composite::{Composite, Imex};

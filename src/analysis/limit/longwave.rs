@@ -16,6 +16,7 @@
 //! including the axes and diagonals, then a golden-section (2-D) or compass (3-D)
 //! refinement of the best direction.
 
+use super::closed_form::ClosedForm;
 use super::loss::FirstLoss;
 use crate::numeric::{directions, minimise};
 use std::f64::consts::PI;
@@ -146,7 +147,11 @@ fn along_with(f: &dyn FirstLoss, origin: &[f64], n: &[f64], stable_run: usize) -
     // with no trusted sample at all (a multistep method's exits next to the
     // imaginary axis are not resolved, AB2 with eighth-order dissipation) it
     // is all there is
-    if let Some(exact) = f.long_wave(origin, n) {
+    if let Some(ClosedForm {
+        limit: exact,
+        uncertainty: fit,
+    }) = f.long_wave(origin, n)
+    {
         let slack = 1e-9 * limit.abs();
         // below the extrapolation by up to 1e-6 is the safe side and within
         // what sampled first losses may be off: a multistep exit 1e-12 rad
@@ -171,8 +176,8 @@ fn along_with(f: &dyn FirstLoss, origin: &[f64], n: &[f64], stable_run: usize) -
                 exact,
                 if exact.is_finite() {
                     // the leading coefficients are fitted from eigenvalues at
-                    // s ≤ 1e-2 (Richardson), good to far below this
-                    CLOSED_FORM_UNCERTAINTY * exact
+                    // s ≤ 1e-2 (Richardson); the fit says how far to trust it
+                    fit.max(CLOSED_FORM_UNCERTAINTY) * exact
                 } else {
                     0.0
                 },
@@ -453,7 +458,7 @@ fn closed_form_minimum(f: &dyn FirstLoss, origin: &[f64]) -> Option<Vec<f64>> {
     if dims < 2 {
         return None;
     }
-    let value = |n: &[f64]| f.long_wave(origin, n).unwrap_or(f64::INFINITY);
+    let value = |n: &[f64]| f.long_wave(origin, n).map_or(f64::INFINITY, |c| c.limit);
     let screen: Vec<Vec<f64>> = match dims {
         2 => directions::circle(SCREEN_2D)
             .into_iter()

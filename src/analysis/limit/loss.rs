@@ -7,6 +7,7 @@
 //! min over modes of r*(arg μ)/|μ| ([`Exact`]); for composite schemes a root of
 //! ρ(G(θ, Δt)) − 1 ([`super::search`]).
 
+use super::closed_form::ClosedForm;
 use super::first_exit::{min_over_modes, ExitTimes};
 use crate::operator::{Operator, Spectrum};
 use num_complex::Complex64 as C64;
@@ -62,8 +63,8 @@ pub trait FirstLoss {
     fn at(&self, theta: &[f64]) -> Loss;
 
     /// Its limit along `origin + s n` as s → 0 in closed form, where one is
-    /// known ([`super::closed_form`]).
-    fn long_wave(&self, _origin: &[f64], _n: &[f64]) -> Option<f64> {
+    /// known ([`super::closed_form`]), with its relative uncertainty.
+    fn long_wave(&self, _origin: &[f64], _n: &[f64]) -> Option<ClosedForm> {
         None
     }
 }
@@ -142,7 +143,7 @@ impl FirstLoss for Exact<'_> {
         }
     }
 
-    fn long_wave(&self, origin: &[f64], n: &[f64]) -> Option<f64> {
+    fn long_wave(&self, origin: &[f64], n: &[f64]) -> Option<ClosedForm> {
         use super::closed_form::{imaginary_axis, imaginary_axis_multistep, long_wave_limit_from};
         let axis = self.axis.get_or_init(|| match &self.exits.method().scheme {
             crate::time::Scheme::OneStep(os) => imaginary_axis(os),

@@ -17,6 +17,7 @@
 //! at its limit) carry errors of order √ε, far above the rounding level, and
 //! cutting it finer finds those slivers instead of the crossing.
 
+use super::closed_form::ClosedForm;
 use super::growth_orders;
 use super::loss::{FirstLoss, Loss};
 use super::search::{power_law, CompositeEval, BISECTIONS, SMALL_DT_LEVELS};
@@ -61,6 +62,10 @@ impl<'a> PerTheta<'a> {
     }
 }
 
+/// Where below the floor the per-wavevector search looks for growth that the
+/// floor hides (2⁻²⁴ of it).
+const SMALL_DT_PROBE: f64 = 1.0 / 16_777_216.0;
+
 impl FirstLoss for PerTheta<'_> {
     fn at(&self, theta: &[f64]) -> Loss {
         let unstable = |dt: f64| self.ev.unstable(theta, dt);
@@ -81,6 +86,21 @@ impl FirstLoss for PerTheta<'_> {
                 return Loss::exact(0.0);
             }
         } else {
+            // stable at the floor, but growing like a power of Δt far below it
+            // (a first-order term with a positive real part, damped by the
+            // second-order one before the floor: Lax–Wendroff on seed 3472):
+            // unstable on every (0, Δt]
+            let probe = self.floor * SMALL_DT_PROBE;
+            let (g, noise) = self.ev.growth_and_noise(theta, probe);
+            if g > 16.0 * noise
+                && power_law(
+                    &[(0.0, 0); 8],
+                    |d| self.ev.growth_and_noise(theta, d),
+                    probe,
+                )
+            {
+                return Loss::exact(0.0);
+            }
             // (ρ − 1 − rounding, rounding)
             let eval = |dt: f64| {
                 let (growth, noise) = self.ev.growth_and_noise(theta, dt);
@@ -138,9 +158,13 @@ impl FirstLoss for PerTheta<'_> {
         loss
     }
 
-    fn long_wave(&self, origin: &[f64], n: &[f64]) -> Option<f64> {
-        growth_orders::imex_closed_form(self.ev, self.tolerance, origin, n)
-            .or_else(|| growth_orders::verdict(self.ev, self.tolerance, origin, n))
+    fn long_wave(&self, origin: &[f64], n: &[f64]) -> Option<ClosedForm> {
+        growth_orders::imex_closed_form(self.ev, self.tolerance, origin, n).or_else(|| {
+            growth_orders::verdict(self.ev, self.tolerance, origin, n).map(|limit| ClosedForm {
+                limit,
+                uncertainty: 0.0,
+            })
+        })
     }
 }
 
