@@ -339,6 +339,19 @@ fn random_tableau_long_wave_limit_is_the_closed_form() {
     );
 }
 
+/// Δt = (Σ_d |u_d/h_d|^{2/3})^{−3/2} of a scalar advection scheme (derived at
+/// `lax_wendroff_3d_long_wave_limit_is_the_two_thirds_law`).
+fn two_thirds_law(s: &Scheme) -> f64 {
+    (0..s.dims())
+        .map(|d| {
+            (s.system.flux[d][(0, 0)] / s.spacing[d])
+                .abs()
+                .powf(2.0 / 3.0)
+        })
+        .sum::<f64>()
+        .powf(-1.5)
+}
+
 /// Seed 1611: the unsplit Lax–Wendroff scheme (the README's definition, which
 /// ignores `space.first`) on 3-D scalar advection. With c_d = Δt u_d/h_d,
 /// S = Σ c_d sin θ_d and P = 2Σ c_d² sin²(θ_d/2) + ½Σ_{d≠e} c_d c_e sin θ_d
@@ -360,11 +373,7 @@ fn lax_wendroff_3d_long_wave_limit_is_the_two_thirds_law() {
     let a: Vec<f64> = (0..3)
         .map(|d| s.system.flux[d][(0, 0)] / s.spacing[d])
         .collect();
-    let closed = a
-        .iter()
-        .map(|x| x.abs().powf(2.0 / 3.0))
-        .sum::<f64>()
-        .powf(-1.5);
+    let closed = two_thirds_law(&s);
     assert!((closed - 0.1134531945).abs() < 1e-10, "{closed}");
     let e = crate::engine::engine_limit(&text).unwrap();
     assert!(
@@ -436,14 +445,7 @@ fn lax_wendroff_3d_limits_of_the_long_run_are_the_two_thirds_law() {
                 && s.dims() == 3,
             "{text}"
         );
-        let law = (0..3)
-            .map(|d| {
-                (s.system.flux[d][(0, 0)] / s.spacing[d])
-                    .abs()
-                    .powf(2.0 / 3.0)
-            })
-            .sum::<f64>()
-            .powf(-1.5);
+        let law = two_thirds_law(&s);
         let e = crate::engine::engine_limit(&text).unwrap();
         assert!(
             e.dt_max <= law * (1.0 + 1e-9) && e.dt_max >= law * (1.0 - 1e-6),

@@ -19,9 +19,10 @@
 //! value where the next term is of order s⁴: 1/15 of its distance from the
 //! value of the two levels before (for v = b + αs² + βs⁴ the two values are
 //! b − βs⁴/4 and b − 4βs⁴), carried to Δt through the exponents. It does not
-//! bound rounding at the smallest s beyond what that distance shows; any doubt (untrusted eigenvalues, equal speeds of two branches,
-//! an order that does not settle, a positive real part) gives None and the
-//! numerical extrapolation stands.
+//! bound rounding at the smallest s beyond what that distance shows. Any doubt
+//! (untrusted eigenvalues, equal speeds of two branches, an order that does
+//! not settle, a positive real part) gives None and the numerical
+//! extrapolation stands.
 
 use crate::operator::{Operator, Spectrum};
 use crate::time::{Multistep, OneStep};

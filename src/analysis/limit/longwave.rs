@@ -47,9 +47,6 @@ pub fn along(f: &dyn FirstLoss, origin: &[f64], n: &[f64]) -> LongWave {
     along_with(f, origin, n, STABLE_RUN)
 }
 
-/// Relative uncertainty of a long-wave limit in closed form.
-pub const CLOSED_FORM_UNCERTAINTY: f64 = 1e-12;
-
 /// Samples stable at every Δt after which [`along`] stops (s ≤ S0/32).
 const STABLE_RUN: usize = 6;
 /// The same for [`along_deep`] (s ≤ S0·2⁻¹⁵ ≈ 6e-6).
@@ -177,7 +174,8 @@ fn along_with(f: &dyn FirstLoss, origin: &[f64], n: &[f64], stable_run: usize) -
                 if exact.is_finite() {
                     // the leading coefficients are fitted from eigenvalues at
                     // s ≤ 1e-2 (Richardson); the fit says how far to trust it
-                    fit.max(CLOSED_FORM_UNCERTAINTY) * exact
+                    // (at least `closed_form::UNCERTAINTY_FLOOR`)
+                    fit * exact
                 } else {
                     0.0
                 },
