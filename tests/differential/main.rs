@@ -49,6 +49,7 @@ mod support;
 mod amplification;
 mod closed_forms;
 mod compare;
+mod corner_reference_errors;
 mod delta;
 mod domain;
 mod engine;
