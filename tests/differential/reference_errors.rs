@@ -341,7 +341,7 @@ fn random_tableau_long_wave_limit_is_the_closed_form() {
 
 /// Δt = (Σ_d |u_d/h_d|^{2/3})^{−3/2} of a scalar advection scheme (derived at
 /// `lax_wendroff_3d_long_wave_limit_is_the_two_thirds_law`).
-fn two_thirds_law(s: &Scheme) -> f64 {
+pub fn two_thirds_law(s: &Scheme) -> f64 {
     (0..s.dims())
         .map(|d| {
             (s.system.flux[d][(0, 0)] / s.spacing[d])

@@ -146,6 +146,33 @@ fn growth_far_below_the_floor_is_found() {
     assert_seed_agrees(3472);
 }
 
+/// Unsplit Lax–Wendroff on 2-D scalar advection. Once failed (second long
+/// run, on the safe side): the engine's overall limit 0.0710 was 34 % below the
+/// two-thirds law 0.10833 (see `reference_errors::two_thirds_law`), which the
+/// reference matched. The pattern search had walked to θ ≈ (−2.4e-16, −2.1e-16),
+/// where the x and y flux terms of the increment cancel: its rounding is of the
+/// terms' size ε(Σ|c_d sin θ_d|)², ten times the rounding allowed for from
+/// |E|, and a crossing of that rounding was taken for a first loss. The
+/// rounding level now counts the terms. The limit is the law to within 1e-6
+/// below, and agrees with the reference.
+#[test]
+fn lax_wendroff_terms_cancelling_across_axes_are_rounding() {
+    let s = crate::generate::scheme(7074);
+    let text = crate::render::case_text(&s);
+    assert!(
+        text.contains("method = \"lax-wendroff\"") && s.dims() == 2,
+        "{text}"
+    );
+    let law = crate::reference_errors::two_thirds_law(&s);
+    let e = crate::engine::engine_limit(&text).unwrap();
+    assert!(
+        e.dt_max <= law * (1.0 + 1e-9) && e.dt_max >= law * (1.0 - 1e-6),
+        "engine {}, two-thirds law {law}",
+        e.dt_max
+    );
+    assert_seed_agrees(7074);
+}
+
 /// Lie-split backward Euler (1-D, 2×2 with a skew source). Once failed like
 /// seed 3472: a direction reported unconditional, unstable at small Δt.
 #[test]

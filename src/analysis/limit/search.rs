@@ -111,6 +111,10 @@ impl<'a> CompositeEval<'a> {
             increment::increment(self.scheme, &p.system, self.op, &p.spacing, theta, dt)
         {
             let (norm, parts) = self.theta_scales(theta);
+            // Lax–Wendroff/Friedrichs build E from the flux terms of each axis,
+            // which cancel across axes where n·(A/h) is small: E's entries
+            // carry rounding of the terms' size, not of E's (seed 7074)
+            let terms = self.lax_term_scale(theta, dt);
             // a split step's increment is built from products E_k E of the
             // parts' increments, each rounded relative to their sizes: where
             // the parts cancel (advection along x against y) the product is
@@ -119,11 +123,13 @@ impl<'a> CompositeEval<'a> {
             let products = parts.map_or(0.0, |p| f64::EPSILON * (dt * p).powi(2).min(16.0));
             if e.nrows() == 1 {
                 let (growth, noise) = self.scalar_growth(e[(0, 0)], theta, dt);
-                return (growth, noise + 8.0 * products);
+                let cancelled = f64::EPSILON * terms * (terms + e[(0, 0)].norm());
+                return (growth, noise + 8.0 * (products + cancelled));
             }
             // implicit solves with I − ΔtL carry rounding relative to its
             // condition, about max(1, Δt‖L‖)
             let (growth, noise) = growth_of_increment(&e);
+            let noise = noise.max(64.0 * f64::EPSILON * terms * (1.0 + terms));
             let operand = dt * norm;
             return (growth, (noise + 64.0 * products) * operand.max(1.0));
         }
@@ -139,6 +145,25 @@ impl<'a> CompositeEval<'a> {
         let size = linalg::dense::frobenius(&g).max(1.0);
         let rho = linalg::spectral_radius(&linalg::from_matrix(&g), g.nrows()).unwrap_or(f64::NAN);
         (rho - 1.0, 64.0 * f64::EPSILON * size)
+    }
+
+    /// For Lax–Wendroff and Lax–Friedrichs, Σ_d ‖A_d‖_F (Δt/h_d) |sin θ_d|: the
+    /// size of the first-order terms of the increment, whose squares (and
+    /// products across axes) make its second-order part; 0 for other schemes.
+    fn lax_term_scale(&self, theta: &[f64], dt: f64) -> f64 {
+        let p = self.problem;
+        let (flux, h) = (&p.system.flux, &p.spacing);
+        if !matches!(
+            self.scheme,
+            Composite::LaxWendroff | Composite::LaxFriedrichs
+        ) {
+            return 0.0;
+        }
+        theta
+            .iter()
+            .enumerate()
+            .map(|(d, t)| linalg::dense::frobenius(&flux[d]) * dt / h[d] * t.sin().abs())
+            .sum()
     }
 
     /// ‖L(θ)‖_F and, for a split scheme, the sum of its parts' ‖L_k(θ)‖_F
