@@ -73,4 +73,5 @@ mod speed;
 mod stencils;
 mod sweep;
 mod symbol;
+mod system_reference_errors;
 mod systems;
