@@ -30,7 +30,7 @@ fn ab2_system_long_wave_limit_is_the_closed_form() {
         .map(|l| (4.0 * b / (l.abs() / h).powi(4)).cbrt())
         .fold(f64::INFINITY, f64::min);
     assert!(
-        (closed / 0.067267480439184641 - 1.0).abs() < 1e-13,
+        (closed / 0.067_267_480_439_184_6 - 1.0).abs() < 1e-13,
         "{closed}"
     );
     let e = crate::engine::engine_limit(&text).unwrap();
