@@ -4,18 +4,9 @@
 //! eigenvalues of the (degenerate) amplification matrix land a few ulps the
 //! wrong side of 1 there.
 
+use crate::reference_errors::engine_direction;
 use crate::scheme::Mat;
 use std::f64::consts::PI;
-
-/// The engine's limit along the direction of the engine's list closest to `n`.
-fn engine_direction(e: &crate::engine::EngineLimit, n: &[f64]) -> (f64, Vec<f64>) {
-    let i = e
-        .directions
-        .iter()
-        .position(|d| d.iter().zip(n).all(|(a, b)| (a - b).abs() < 1e-12))
-        .expect("the direction is in the engine's list");
-    (e.dt_by_direction[i], e.wavevector_by_direction[i].clone())
-}
 
 /// Spectral radius of a symmetric (to rounding) matrix, from its symmetric part.
 fn symmetric_radius(a: &Mat) -> f64 {

@@ -51,7 +51,7 @@ fn minimum(f: &dyn Fn(f64) -> f64, lo: f64, hi: f64) -> (f64, f64) {
 }
 
 /// The engine's limit along the direction of the engine's list closest to `n`.
-fn engine_direction(e: &crate::engine::EngineLimit, n: &[f64]) -> (f64, Vec<f64>) {
+pub fn engine_direction(e: &crate::engine::EngineLimit, n: &[f64]) -> (f64, Vec<f64>) {
     let i = e
         .directions
         .iter()

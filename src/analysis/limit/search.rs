@@ -43,6 +43,9 @@ pub struct CompositeEval<'a> {
     /// A number no other evaluator has: the key of the per-thread cache of
     /// θ-only quantities.
     id: usize,
+    /// ‖A_d‖_F/h_d per axis for Lax–Wendroff and Lax–Friedrichs (empty for
+    /// other schemes): the weights of [`CompositeEval::lax_term_scale`].
+    lax_weights: Vec<f64>,
 }
 
 /// Source of [`CompositeEval`] ids (0 is never handed out).
@@ -56,6 +59,15 @@ impl<'a> CompositeEval<'a> {
             op,
             scheme,
             id: NEXT_ID.fetch_add(1, Ordering::Relaxed),
+            lax_weights: if matches!(scheme, Composite::LaxWendroff | Composite::LaxFriedrichs) {
+                let (flux, h) = (&problem.system.flux, &problem.spacing);
+                h.iter()
+                    .enumerate()
+                    .map(|(d, h)| linalg::dense::frobenius(&flux[d]) / h)
+                    .collect()
+            } else {
+                Vec::new()
+            },
         }
     }
 
@@ -151,19 +163,12 @@ impl<'a> CompositeEval<'a> {
     /// size of the first-order terms of the increment, whose squares (and
     /// products across axes) make its second-order part; 0 for other schemes.
     fn lax_term_scale(&self, theta: &[f64], dt: f64) -> f64 {
-        let p = self.problem;
-        let (flux, h) = (&p.system.flux, &p.spacing);
-        if !matches!(
-            self.scheme,
-            Composite::LaxWendroff | Composite::LaxFriedrichs
-        ) {
-            return 0.0;
-        }
-        theta
+        dt * self
+            .lax_weights
             .iter()
-            .enumerate()
-            .map(|(d, t)| linalg::dense::frobenius(&flux[d]) * dt / h[d] * t.sin().abs())
-            .sum()
+            .zip(theta)
+            .map(|(w, t)| w * t.sin().abs())
+            .sum::<f64>()
     }
 
     /// ‖L(θ)‖_F and, for a split scheme, the sum of its parts' ‖L_k(θ)‖_F
