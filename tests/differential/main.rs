@@ -46,6 +46,7 @@
 #[path = "../support/mod.rs"]
 mod support;
 
+mod ab2_reference_errors;
 mod amplification;
 mod closed_forms;
 mod compare;

@@ -15,6 +15,39 @@ pub const KNOWN_ENGINE_FAILURES: &[(u64, &str)] = &[];
 /// failures; each has a named test against that check.
 pub const KNOWN_REFERENCE_ERRORS: &[(u64, &str)] = &[
     (
+        5076,
+        "AB2 2-D 2x2 with a skew source: at theta = 0 L = S has eigenvalues +-i omega and AB2 \
+         grows as (dt omega)^4/2 at every dt, on every ray; the reference's rays skip theta = 0; \
+         see skew_source_sinks_ab2_at_every_dt",
+    ),
+    (
+        5990,
+        "IMEX CNAB2 2-D 2x2 with a skew source: as 5076 (no diffusion at theta = 0); see \
+         skew_source_sinks_ab2_at_every_dt",
+    ),
+    (
+        4747,
+        "AB2 2-D, central differences, eighth-order dissipation: the first loss falls like \
+         s^(4/3) to 0 at long waves, beneath the reference's rounding allowance; see \
+         eighth_order_dissipation_loses_to_ab2_growth_at_long_waves",
+    ),
+    (
+        2296,
+        "IMEX CNAB2 3-D, central in the plane theta_z = 0, eighth-order dissipation: as 4747; see \
+         eighth_order_dissipation_loses_to_ab2_growth_at_long_waves",
+    ),
+    (
+        6357,
+        "IMEX CNAB2 2-D, central differences, eighth-order dissipation: as 4747 along every \
+         direction; see eighth_order_dissipation_loses_to_ab2_growth_at_long_waves",
+    ),
+    (
+        10609,
+        "forward-backward 2-D 2x2: the limit is the long-wave closed form 2.853895243150519e-2 \
+         (50 digits; minimum over directions at 85.74 deg); the reference's bisection puts it \
+         7.1e-7 low; see forward_backward_long_wave_limit_is_the_closed_form",
+    ),
+    (
         4468,
         "AB2 1-D 2x2, fourth-order dissipation: the limit is the long-wave closed form \
          dt^3 = 4b/a^4 = 0.0672674804 (60 digits); the reference's f64 crossings put it 7.2e-6 low; \
@@ -682,4 +715,192 @@ fn long_wave_limit_along_an_axis_is_the_closed_form() {
         }
     }
     assert_eq!(checked, 2, "the ±y directions are in the set");
+}
+
+/// AB3 with the fourth-order compact (Padé) first derivative and weak
+/// sixth-order dissipation (1-D). Once failed (third long run, seed 4400; 4819,
+/// AB3 with central4, alike): the engine reported none. Along ±x only the first
+/// long-wave sample (θ = 0.2) is trusted (AB3's exits from eigenvalues within
+/// 1e-12 rad of the imaginary axis are not resolved), so the sampled
+/// extrapolation bounded nothing, and the closed form (∞: AB3's principal root
+/// is damped on the imaginary axis near 0, |ζ(iy)| ≈ 1 − 3y⁴/8) was refused for
+/// disagreeing with it. The limit is set where the compact symbol peaks,
+/// k'h = 3 sin θ/(2 + cos θ) = √3 at θ = 2π/3 (Lele, "Compact finite
+/// difference schemes with spectral-like resolution", J. Comput. Phys. 1992),
+/// by AB3's imaginary interval y*: Δt = y* h/(|a| √3), y* from the boundary
+/// locus z(φ) = (ζ³ − ζ²)/((23ζ² − 16ζ + 5)/12), ζ = e^{iφ}, where it crosses
+/// Re z = 0 (≈ 0.7236, a value also found in texts on multistep methods).
+/// The dissipation moves the eigenvalue 6e-7 rad off the axis and the exit
+/// below y* by less than 1e-6 relative.
+#[test]
+fn ab3_with_weak_dissipation_is_bounded_by_its_imaginary_interval() {
+    use num_complex::Complex64 as C64;
+    let s = crate::generate::scheme(4400);
+    let text = crate::render::case_text(&s);
+    assert!(
+        text.contains("method = \"ab3\"") && text.contains("compact4") && s.dims() == 1,
+        "{text}"
+    );
+    let locus = |phi: f64| {
+        let w = C64::from_polar(1.0, phi);
+        (w * w * w - w * w) / ((23.0 * w * w - 16.0 * w + 5.0) / 12.0)
+    };
+    // Re z(φ) changes sign once on [1.3, 1.6]: bisection
+    let (mut lo, mut hi) = (1.3, 1.6);
+    assert!(locus(lo).re > 0.0 && locus(hi).re < 0.0);
+    for _ in 0..200 {
+        let mid = 0.5 * (lo + hi);
+        if locus(mid).re > 0.0 {
+            lo = mid;
+        } else {
+            hi = mid;
+        }
+    }
+    let y_star = locus(0.5 * (lo + hi)).im;
+    assert!((y_star - 0.7236).abs() < 1e-4, "{y_star}");
+    let h = 0.4290318160889828;
+    let a: f64 = -1.8617244745717183;
+    assert!(text.contains(&format!("{h:?}")) && text.contains(&format!("{a:?}")));
+    let limit = y_star * h / (a.abs() * 3f64.sqrt());
+    let e = crate::engine::engine_limit(&text).unwrap();
+    assert!(
+        e.dt_max <= limit * (1.0 + 1e-9) && e.dt_max >= limit * (1.0 - 1e-6),
+        "engine {}, imaginary interval {limit}",
+        e.dt_max
+    );
+    assert_seed_agrees(4400);
+    assert_seed_agrees(4819);
+}
+
+/// Lie-split backward Euler (3-D, 2×2 system, overall none). Once failed
+/// (third long run, seed 4820; 2316, Lie-split θ-method, and 5327,
+/// Strang-split Crank–Nicolson, alike): along the diagonals the engine was
+/// bounded (Δt = 2.3307) where the reference found every rung of its Δt ladder
+/// stable. The instability is a window of Δt near the corner θ = (π, π, π):
+/// an axis part L_d with an eigenvalue of positive real part makes its factor
+/// (I − Δt L_d)⁻¹ nearly singular around Δt = 1/μ, and there the product of
+/// the factors has a spectral radius above 1; the reference's rungs, a factor
+/// 8 apart above 16 natural time scales, step over it. The check is the Lie
+/// product G = Π_d (I − Δt L_d)⁻¹ at the corner, written out here from the
+/// per-axis symbols, its spectral radius from the 2×2 characteristic
+/// polynomial: the window opens within 1e-6 above the engine's value and closes
+/// again below four times it. The reference now probes the engine's own
+/// wavevector just above the engine's value (`evidence::improved_with`),
+/// which finds the window.
+#[test]
+fn instability_window_between_reference_rungs_is_found() {
+    use crate::scheme::CMat;
+    use num_complex::Complex64 as C64;
+    let s = crate::generate::scheme(4820);
+    let text = crate::render::case_text(&s);
+    assert!(
+        text.contains("method = \"backward-euler\"")
+            && text.contains("splitting = \"lie\"")
+            && s.dims() == 3
+            && s.system.flux[0].nrows() == 2,
+        "{text}"
+    );
+    let corner = [std::f64::consts::PI; 3];
+    let parts = crate::symbol::Parts::at(&s, &corner);
+    let mut pieces: Vec<CMat> = (0..3).map(|d| parts.axis_part(d)).collect();
+    if parts.source.iter().any(|x| x.norm() != 0.0) {
+        pieces.push(parts.source.clone());
+    }
+    let radius = |dt: f64| {
+        let id = CMat::identity(2, 2);
+        let g = pieces.iter().fold(id.clone(), |g, l| {
+            let factor = (&id - l * C64::new(dt, 0.0))
+                .try_inverse()
+                .expect("no pole exactly here");
+            factor * g
+        });
+        let tr = g[(0, 0)] + g[(1, 1)];
+        let det = g[(0, 0)] * g[(1, 1)] - g[(0, 1)] * g[(1, 0)];
+        let root = (tr * tr - 4.0 * det).sqrt();
+        ((tr + root) / 2.0).norm().max(((tr - root) / 2.0).norm())
+    };
+    let e = crate::engine::engine_limit(&text).unwrap();
+    let n = [-1.0 / 3f64.sqrt(); 3];
+    let (dt, _) = crate::reference_errors::engine_direction(&e, &n);
+    assert!(dt.is_finite() && dt > 0.0, "engine {dt}");
+    // the window's lower end at the corner, by bisection from a stable start
+    let (mut lo, mut hi) = (0.5 * dt, dt * (1.0 + 1e-6));
+    assert!(
+        radius(lo) < 1.0 && radius(hi) > 1.0,
+        "{} {}",
+        radius(lo),
+        radius(hi)
+    );
+    for _ in 0..100 {
+        let mid = 0.5 * (lo + hi);
+        if radius(mid) > 1.0 {
+            hi = mid;
+        } else {
+            lo = mid;
+        }
+    }
+    assert!(
+        dt <= hi * (1.0 + 1e-9) && dt >= hi * (1.0 - 1e-6),
+        "engine {dt}, window opens at {hi}"
+    );
+    assert!(
+        radius(4.0 * dt) < 1.0,
+        "the window closes: {}",
+        radius(4.0 * dt)
+    );
+    for seed in [4820, 2316, 5327] {
+        assert_seed_agrees(seed);
+    }
+}
+
+/// IMEX Euler (2-D) with fourth-order dissipation. Once failed (third long
+/// run, seed 2231): the overall limit is none, set by the approach to θ = 0
+/// along θ_x = 0 (the first loss there falls like s²), and a shortcut made
+/// every direction none because the overall witness rounded to θ = 0; but θ = 0
+/// itself is neutral (G = I), and 22 directions have limits of their own (+x:
+/// 1.518945090983907 at (π, 0), confirmed in 50-digit arithmetic). The
+/// shortcut now applies only where θ = 0 itself is unstable at every Δt.
+#[test]
+fn overall_none_from_one_approach_leaves_other_directions_their_limits() {
+    assert_seed_agrees(2231);
+}
+
+/// Lie-split forward Euler (1-D) with a user stencil whose weights sum to
+/// −5.6e-17 in floating point. Once failed (third long run, seed 5000): the
+/// long-wave series of the stencil symbol kept that sum as a real part of L(0)
+/// (+3.4e-17), and the scheme was reported unstable at every Δt; the exact
+/// limit is 1.080943242721154 (50 digits). A weight total within rounding of
+/// Σ|w| is now zero in the series, as it already was beyond it.
+#[test]
+fn weight_total_within_rounding_is_no_growth_at_the_mean_mode() {
+    assert_seed_agrees(5000);
+}
+
+/// Lax–Friedrichs (2-D advection). Once failed (third long run, seeds 2111,
+/// 2700, 5632; on the safe side): the limit is the classical ν_x² + ν_y² ≤ ½,
+/// set as θ → 0 and at the corner (π, π) alike, but the corner's sampled
+/// approach bounded it 3.3e-3 low. Lax–Friedrichs now has a long-wave closed
+/// form at both (`kgain::analysis::limit::lax_friedrichs`).
+#[test]
+fn lax_friedrichs_corner_limit_is_the_classical_bound() {
+    let s = crate::generate::scheme(2111);
+    let text = crate::render::case_text(&s);
+    assert!(
+        text.contains("method = \"lax-friedrichs\"") && s.dims() == 2,
+        "{text}"
+    );
+    let speed: f64 = (0..2)
+        .map(|d| (s.system.flux[d][(0, 0)] / s.spacing[d]).powi(2))
+        .sum::<f64>()
+        .sqrt();
+    let bound = 1.0 / (2f64.sqrt() * speed);
+    let e = crate::engine::engine_limit(&text).unwrap();
+    assert!(
+        e.dt_max <= bound * (1.0 + 1e-9) && e.dt_max >= bound * (1.0 - 1e-6),
+        "engine {}, bound {bound}",
+        e.dt_max
+    );
+    for seed in [2111, 2700, 5632] {
+        assert_seed_agrees(seed);
+    }
 }

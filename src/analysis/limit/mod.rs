@@ -9,8 +9,11 @@ pub mod abscissa;
 pub mod certify;
 pub mod closed_form;
 pub mod composite;
+pub mod eigenpairs;
 pub mod first_exit;
+pub mod forward_backward;
 pub mod growth_orders;
+pub mod lax_friedrichs;
 pub mod longwave;
 pub mod loss;
 pub mod overall;
@@ -231,8 +234,21 @@ pub(super) fn by_search(ctx: &Context, ev: &CompositeEval, count: usize) -> Limi
         _ => ev.scale(),
     };
     let certified = certified_floor(&overall);
+    // θ = 0 lies on every ray: when it is itself unstable at every Δt (AB2 on
+    // a source with imaginary eigenvalues, seed 5990) every direction is none.
+    // An overall none set only by the approach to θ = 0 along some directions
+    // leaves the others their own limits (seed 2231: IMEX Euler with
+    // fourth-order dissipation is none along θ_x = 0 only, where its upwind
+    // term vanishes).
+    let origin_unstable = overall.kind == LimitKind::None
+        && overall.wavevector.iter().all(|x| *x == 0.0)
+        && loss::FirstLoss::at(
+            &per_theta::PerTheta::new(ev, floor, ctx.plan.tolerance),
+            &vec![0.0; ctx.problem.dims()],
+        )
+        .dt == 0.0;
     let res = along_rays(ctx, &dirs, |n| {
-        if overall.kind == LimitKind::None && overall.wavevector.iter().all(|x| *x == 0.0) {
+        if origin_unstable {
             return (0.0, vec![0.0; n.len()]);
         }
         // an unstable L sinks every scheme whose G tends to I + ΔtL; not

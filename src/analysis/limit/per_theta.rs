@@ -159,6 +159,21 @@ impl FirstLoss for PerTheta<'_> {
     }
 
     fn long_wave(&self, origin: &[f64], n: &[f64]) -> Option<ClosedForm> {
+        use crate::time::composite::Composite;
+        let op = self.ev.operator();
+        let special = match self.ev.scheme() {
+            Composite::ForwardBackward { rank } => {
+                super::forward_backward::long_wave_limit(op, rank, origin, n)
+            }
+            Composite::LaxFriedrichs => {
+                let p = self.ev.problem();
+                super::lax_friedrichs::long_wave_limit(&p.system.flux, &p.spacing, op, origin, n)
+            }
+            _ => None,
+        };
+        if special.is_some() {
+            return special;
+        }
         growth_orders::imex_closed_form(self.ev, self.tolerance, origin, n).or_else(|| {
             growth_orders::verdict(self.ev, self.tolerance, origin, n).map(|limit| ClosedForm {
                 limit,

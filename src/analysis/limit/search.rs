@@ -95,6 +95,11 @@ impl<'a> CompositeEval<'a> {
         )
     }
 
+    /// The problem.
+    pub fn problem(&self) -> &Problem {
+        self.problem
+    }
+
     /// The scheme.
     pub fn scheme(&self) -> &Composite {
         self.scheme
