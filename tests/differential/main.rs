@@ -63,6 +63,7 @@ mod none_test;
 mod pattern;
 mod probe;
 mod radius;
+mod rank_one_corner_reference_errors;
 mod reference;
 mod reference_errors;
 mod regressions;
