@@ -58,6 +58,7 @@ mod evidence;
 mod generate;
 mod handmade;
 mod inspect;
+mod long_wave_reference_errors;
 mod longwave;
 mod none_test;
 mod pattern;

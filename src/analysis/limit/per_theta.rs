@@ -169,6 +169,13 @@ impl FirstLoss for PerTheta<'_> {
                 let p = self.ev.problem();
                 super::lax_friedrichs::long_wave_limit(&p.system.flux, &p.spacing, op, origin, n)
             }
+            Composite::Imex(crate::time::composite::Imex::Euler) => {
+                super::imex_euler::long_wave_limit(op, origin, n)
+            }
+            Composite::LaxWendroff => {
+                let p = self.ev.problem();
+                super::lax_wendroff::long_wave_limit(&p.system.flux, &p.spacing, op, origin, n)
+            }
             _ => None,
         };
         if special.is_some() {
