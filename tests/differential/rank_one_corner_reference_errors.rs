@@ -81,7 +81,7 @@ fn rank_one_diffusion_corner_limit_is_the_closed_form() {
         .sum();
     let closed = 2.0 * b / ((1.0 - 2.0 * beta) * a * a);
     assert!(
-        (closed / 0.146_807_090_067_568_58 - 1.0).abs() < 1e-12,
+        (closed / 0.146_807_090_067_568_6 - 1.0).abs() < 1e-12,
         "{closed}"
     );
     let e = assert_engine_near(&s, closed);
@@ -140,7 +140,7 @@ fn ab2_system_long_wave_limit_is_the_closed_form_5346() {
 #[test]
 fn rank_one_diffusion_face_limits_from_extended_precision() {
     for (seed, truth) in [
-        (3090, 8.134_011_670_214_329_6e-3),
+        (3090, 8.134_011_670_214_33e-3),
         (4423, 3.192_818_493_82e-2),
         (5131, 0.661_700_192_46),
     ] {

@@ -103,7 +103,9 @@ fn limit_from(pairs: &[eigenpairs::EigenPair], k: &DMatrix<f64>, scale: f64) -> 
     let mut limit = f64::INFINITY;
     for p in pairs {
         let kappa = p.project(k);
-        if p.lambda.abs() <= 1e-6 * scale || !(kappa > 1e-9 * k.norm()) {
+        if p.lambda.abs() <= 1e-6 * scale
+            || kappa.partial_cmp(&(1e-9 * k.norm())) != Some(std::cmp::Ordering::Greater)
+        {
             return None;
         }
         limit = limit.min(2.0 * kappa / (p.lambda * p.lambda));

@@ -2,8 +2,8 @@
 //!
 //! Unsplit Lax–Wendroff takes the Taylor terms up to second order with central
 //! differences of the fluxes: with A_d = ΔtF_d/h_d,
-//! G = I − iΣ A_d sin θ_d − Σ A_d² 2sin²(θ_d/2) − ½Σ_{d≠f} A_dA_f sin θ_d sin θ_f
-//! + Δt R(θ), R the diffusion, dissipation and source terms. Along θ = s n
+//! G = I − iΣ A_d sin θ_d − Σ A_d² 2sin²(θ_d/2) − ½Σ_{d≠f} A_dA_f sin θ_d sin θ_f +
+//! Δt R(θ), R the diffusion, dissipation and source terms. Along θ = s n
 //! (|n| = 1), with B = Σ F_d n_d/h_d, the series give
 //! G = I − isΔtB − ½s²Δt²B² + is³ΔtC₃ + s⁴Δt²Q₄ + ΔtR(sn) + O(s⁵) with
 //! C₃ = Σ F_d n_d³/(6h_d) and

@@ -23,6 +23,7 @@ pub mod per_theta;
 pub mod principal_root;
 pub mod rays;
 pub mod search;
+pub mod split;
 
 use super::context::Context;
 use crate::numeric::directions;

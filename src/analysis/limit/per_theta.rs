@@ -176,6 +176,16 @@ impl FirstLoss for PerTheta<'_> {
                 let p = self.ev.problem();
                 super::lax_wendroff::long_wave_limit(&p.system.flux, &p.spacing, op, origin, n)
             }
+            Composite::Split { inner, kind } => {
+                single_part_split(inner, op, self.tolerance, origin, n).or_else(|| {
+                    match &inner.scheme {
+                        crate::time::Scheme::OneStep(os) => {
+                            super::split::long_wave_limit(os, *kind, op, self.tolerance, origin, n)
+                        }
+                        _ => None,
+                    }
+                })
+            }
             _ => None,
         };
         if special.is_some() {
@@ -233,6 +243,36 @@ impl PerTheta<'_> {
             bound: true,
             rough,
         }
+    }
+}
+
+/// The long-wave closed form of a dimension-split one-step method whose split
+/// has a single part: in 1-D with no source terms, Lie and Strang splitting
+/// both apply the method once to the whole of L ([`crate::time::increment::split_parts`]:
+/// one part, the terms along the only axis), so G = R(ΔtL) and the one-step
+/// closed form ([`super::closed_form::long_wave_limit`]) holds as it is
+/// (Heun split in 1-D, seed 5904). None with several parts, where the
+/// sub-steps do not commute.
+fn single_part_split(
+    inner: &crate::time::Method,
+    op: &crate::operator::Operator,
+    tolerance: f64,
+    origin: &[f64],
+    n: &[f64],
+) -> Option<ClosedForm> {
+    use crate::operator::TermKind;
+    use crate::time::Scheme;
+    let single = op.dims == 1
+        && op
+            .terms
+            .iter()
+            .all(|t| t.axis == 0 && t.kind != TermKind::Source);
+    if !single {
+        return None;
+    }
+    match &inner.scheme {
+        Scheme::OneStep(os) => super::closed_form::long_wave_limit(os, op, tolerance, origin, n),
+        _ => None,
     }
 }
 
