@@ -98,6 +98,26 @@ pub struct ClosedForm {
     pub uncertainty: f64,
 }
 
+impl ClosedForm {
+    /// The closed form from its value with the last Richardson levels (`best`)
+    /// and with the levels before (`before`): their relative change is the
+    /// uncertainty (at least [`UNCERTAINTY_FLOOR`]); None when it has not
+    /// settled to 1e-6, or when only one of them is infinite.
+    pub fn from_fits(best: f64, before: f64) -> Option<ClosedForm> {
+        if best.is_infinite() || before.is_infinite() {
+            return (best.is_infinite() && before.is_infinite()).then_some(ClosedForm {
+                limit: f64::INFINITY,
+                uncertainty: 0.0,
+            });
+        }
+        let uncertainty = ((best - before) / best).abs().max(UNCERTAINTY_FLOOR);
+        (uncertainty < 1e-6).then_some(ClosedForm {
+            limit: best,
+            uncertainty,
+        })
+    }
+}
+
 /// Relative uncertainty a closed form never goes below (the rounding of the
 /// formula itself).
 pub const UNCERTAINTY_FLOOR: f64 = 1e-12;

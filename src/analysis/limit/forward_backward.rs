@@ -31,7 +31,7 @@
 //! of 0, L(0) ≠ 0, complex coefficients) gives None and the sampled long-wave
 //! approach stands.
 
-use super::closed_form::{ClosedForm, UNCERTAINTY_FLOOR};
+use super::closed_form::ClosedForm;
 use super::eigenpairs;
 use crate::operator::Operator;
 use nalgebra::DMatrix;
@@ -88,18 +88,7 @@ pub fn long_wave_limit(
         &extrapolate(&k_of, LEVELS - 2),
         rank,
     )?;
-    if best.is_infinite() || before.is_infinite() {
-        return (best.is_infinite() && before.is_infinite()).then_some(ClosedForm {
-            limit: f64::INFINITY,
-            uncertainty: 0.0,
-        });
-    }
-    let uncertainty = ((best - before) / best).abs().max(UNCERTAINTY_FLOOR);
-    // a fit that has not settled to 1e-6 is no closed form
-    (uncertainty < 1e-6).then_some(ClosedForm {
-        limit: best,
-        uncertainty,
-    })
+    ClosedForm::from_fits(best, before)
 }
 
 /// The smallest branch limit 2κ/D from B, K and the ranks (∞ when no branch

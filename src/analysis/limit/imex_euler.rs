@@ -20,7 +20,7 @@
 //! extrapolation, the change between the last two levels giving the
 //! uncertainty.
 
-use super::closed_form::{ClosedForm, UNCERTAINTY_FLOOR};
+use super::closed_form::ClosedForm;
 use super::eigenpairs;
 use crate::operator::Operator;
 use nalgebra::DMatrix;
@@ -83,17 +83,7 @@ pub fn long_wave_limit(op: &Operator, origin: &[f64], n: &[f64]) -> Option<Close
     };
     let best = of(LEVELS - 1)?;
     let before = of(LEVELS - 2)?;
-    if best.is_infinite() || before.is_infinite() {
-        return (best.is_infinite() && before.is_infinite()).then_some(ClosedForm {
-            limit: f64::INFINITY,
-            uncertainty: 0.0,
-        });
-    }
-    let uncertainty = ((best - before) / best).abs().max(UNCERTAINTY_FLOOR);
-    (best > 0.0 && uncertainty < 1e-6).then_some(ClosedForm {
-        limit: best,
-        uncertainty,
-    })
+    ClosedForm::from_fits(best, before).filter(|f| f.limit > 0.0)
 }
 
 /// The smallest 2κ/λ² over the moving branches; None where a branch is not

@@ -19,7 +19,7 @@
 //! K is read from R(s n) at s = 10⁻², …, 10⁻²/16 by Richardson extrapolation,
 //! its change between the last two values giving the uncertainty.
 
-use super::closed_form::{ClosedForm, UNCERTAINTY_FLOOR};
+use super::closed_form::ClosedForm;
 use super::eigenpairs;
 use crate::operator::{Operator, TermKind};
 use nalgebra::DMatrix;
@@ -86,17 +86,7 @@ pub fn long_wave_limit(
     let pairs = eigenpairs::simple_real(&b, CLEAR)?;
     let best = limit_from(&pairs, &extrapolated(LEVELS - 1), dims, b.norm())?;
     let before = limit_from(&pairs, &extrapolated(LEVELS - 2), dims, b.norm())?;
-    if best.is_infinite() || before.is_infinite() {
-        return (best.is_infinite() && before.is_infinite()).then_some(ClosedForm {
-            limit: f64::INFINITY,
-            uncertainty: 0.0,
-        });
-    }
-    let uncertainty = ((best - before) / best).abs().max(UNCERTAINTY_FLOOR);
-    (uncertainty < 1e-6).then_some(ClosedForm {
-        limit: best,
-        uncertainty,
-    })
+    ClosedForm::from_fits(best, before)
 }
 
 /// The smallest positive root over the branches of Δt²λ² − 2Δtκ − 1/D.

@@ -24,7 +24,7 @@
 //! s = 10⁻², …, 10⁻²/16 by Richardson extrapolation, the change between the
 //! last two values giving the uncertainty.
 
-use super::closed_form::{ClosedForm, UNCERTAINTY_FLOOR};
+use super::closed_form::ClosedForm;
 use super::eigenpairs;
 use crate::operator::{Operator, TermKind};
 use nalgebra::DMatrix;
@@ -133,20 +133,7 @@ pub fn long_wave_limit(
     };
     let best = of(LEVELS - 1)?;
     let before = of(LEVELS - 2)?;
-    if best.is_infinite() || before.is_infinite() {
-        return (best.is_infinite() && before.is_infinite()).then_some(ClosedForm {
-            limit: f64::INFINITY,
-            uncertainty: 0.0,
-        });
-    }
-    if best == 0.0 || before == 0.0 {
-        return None;
-    }
-    let uncertainty = ((best - before) / best).abs().max(UNCERTAINTY_FLOOR);
-    (uncertainty < 1e-6).then_some(ClosedForm {
-        limit: best,
-        uncertainty,
-    })
+    ClosedForm::from_fits(best, before)
 }
 
 /// The smallest positive root over the branches of ¼λ⁴Δt³ + βΔt + 2κ; None
