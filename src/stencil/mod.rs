@@ -14,6 +14,7 @@
 pub mod catalogue;
 pub mod filter;
 mod series;
+mod series_cache;
 
 use num_complex::Complex64 as C64;
 
@@ -34,6 +35,8 @@ pub struct Stencil {
     pub implicit_weights: Vec<f64>,
     /// Formal order of accuracy, from the Taylor moments.
     pub order: u32,
+    /// The long-wave series of the symbol, prepared on first use.
+    series: series_cache::SeriesCache,
 }
 
 /// Why a stencil was refused.
@@ -107,6 +110,7 @@ impl Stencil {
             implicit_offsets: io,
             implicit_weights: iw,
             order: 0,
+            series: Default::default(),
         };
         s.order = s.order_of_accuracy()?;
         Ok(s)
@@ -240,13 +244,13 @@ impl Stencil {
     /// The symbol and the rounding of its real part from the long-wave series,
     /// where it applies.
     fn long_wave(&self, theta: f64) -> Option<(C64, f64)> {
-        series::symbol(
-            &self.offsets,
+        let parts = [
+            &self.offsets[..],
             &self.weights,
             &self.implicit_offsets,
             &self.implicit_weights,
-            theta,
-        )
+        ];
+        self.series.with(parts, |s| s?.symbol(theta))
     }
 
     /// The modified wavenumber: −i·S(θ) for a first derivative, −S(θ) for a second,
@@ -270,6 +274,7 @@ impl Stencil {
             implicit_offsets: self.implicit_offsets.iter().map(|o| -o).collect(),
             implicit_weights: self.implicit_weights.clone(),
             order: self.order,
+            series: Default::default(),
         }
     }
 

@@ -135,6 +135,7 @@ fn convolve(a: &[f64], b: &[f64]) -> Vec<f64> {
 }
 
 /// One side of a stencil, Σ w_o e^{iθo} = C(v) + i sin(qθ)·S(v).
+#[derive(Debug, Clone)]
 struct Side {
     cos: Poly,
     sin: Poly,
@@ -183,9 +184,88 @@ fn side(offsets: &[f64], weights: &[f64], q: f64) -> Side {
     }
 }
 
+/// A stencil's long-wave series, prepared once: its polynomials in v depend
+/// on the weights alone, so evaluating the symbol at a θ costs a few Horner
+/// sums and no allocation.
+#[derive(Debug, Clone)]
+pub struct Series {
+    /// max |o| over both sides: the series applies for |θ|·reach ≤ 1.
+    reach: f64,
+    /// The common step of the offsets.
+    q: f64,
+    num: Side,
+    den: Side,
+    /// Re(N D̄) = N_C D_C + sin²φ N_S D_S as one polynomial.
+    real: Poly,
+}
+
+impl Series {
+    /// The series of Σ w e^{iθo} / Σ a e^{iθp}, or None where it does not
+    /// apply (offsets that are not multiples of ½ within 64 steps).
+    pub fn new(
+        offsets: &[f64],
+        weights: &[f64],
+        implicit_offsets: &[f64],
+        implicit_weights: &[f64],
+    ) -> Option<Series> {
+        let reach = offsets
+            .iter()
+            .chain(implicit_offsets)
+            .fold(0.0_f64, |m, o| m.max(o.abs()));
+        let all: Vec<f64> = offsets.iter().chain(implicit_offsets).copied().collect();
+        let q = step(&all)?;
+        let mut num = side(offsets, weights, q);
+        // the zeroth moment Σ w (the constant coefficient of the real part) is
+        // summed from the paired sums w_o + w_−o, whose own rounding (ε|w_o| each)
+        // the sizes do not carry: a weight total within rounding of Σ|w| is zero,
+        // as in the closed sum beyond the series' range (seed 5000: a user
+        // stencil whose weights sum to −5.6e-17 gave L(0) a positive real part,
+        // and forward Euler was reported unstable at every Δt)
+        let total_size: f64 = weights.iter().map(|w| w.abs()).sum();
+        let within_rounding = |c: &f64| c.abs() <= 4.0 * f64::EPSILON * total_size;
+        if num.cos.c.first().is_some_and(within_rounding) {
+            num.cos.c[0] = 0.0;
+            num.cos.size[0] = 0.0;
+        }
+        let den = side(implicit_offsets, implicit_weights, q);
+        let real = num
+            .cos
+            .product(&den.cos)
+            .sum(&num.sin.product(&den.sin).times_sin_squared())
+            .cleaned();
+        Some(Series {
+            reach,
+            q,
+            num,
+            den,
+            real,
+        })
+    }
+
+    /// The symbol and the rounding level of its real part at θ; None outside
+    /// the series' range (|θ|·max|o| > 1).
+    pub fn symbol(&self, theta: f64) -> Option<(C64, f64)> {
+        if theta.abs() * self.reach > 1.0 || !theta.is_finite() {
+            return None;
+        }
+        let phi = self.q * theta;
+        let v = (0.5 * phi).sin().powi(2);
+        let sin_phi = phi.sin();
+        let (num, den) = (&self.num, &self.den);
+        let (dc, ds) = (den.cos.value(v), sin_phi * den.sin.value(v));
+        let modulus = dc * dc + ds * ds;
+        // Im(N D̄) = sin φ (N_S D_C − N_C D_S)
+        let re = self.real.value(v) / modulus;
+        let im = sin_phi * (num.sin.value(v) * dc - num.cos.value(v) * den.sin.value(v)) / modulus;
+        let noise = 4.0 * f64::EPSILON * (self.real.scale(v) / modulus + re.abs());
+        Some((C64::new(re, im), noise))
+    }
+}
+
 /// The symbol Σ w e^{iθo} / Σ a e^{iθp} and the rounding level of its real
 /// part at θ, from the series; None outside its range (|θ|·max|o| > 1, or
 /// offsets that are not multiples of ½ within 64 steps).
+#[cfg(test)]
 pub fn symbol(
     offsets: &[f64],
     weights: &[f64],
@@ -193,44 +273,7 @@ pub fn symbol(
     implicit_weights: &[f64],
     theta: f64,
 ) -> Option<(C64, f64)> {
-    let reach = offsets
-        .iter()
-        .chain(implicit_offsets)
-        .fold(0.0_f64, |m, o| m.max(o.abs()));
-    if theta.abs() * reach > 1.0 || !theta.is_finite() {
-        return None;
-    }
-    let all: Vec<f64> = offsets.iter().chain(implicit_offsets).copied().collect();
-    let q = step(&all)?;
-    let phi = q * theta;
-    let v = (0.5 * phi).sin().powi(2);
-    let sin_phi = phi.sin();
-    let mut num = side(offsets, weights, q);
-    // the zeroth moment Σ w (the constant coefficient of the real part) is
-    // summed from the paired sums w_o + w_−o, whose own rounding (ε|w_o| each)
-    // the sizes do not carry: a weight total within rounding of Σ|w| is zero,
-    // as in the closed sum beyond the series' range (seed 5000: a user
-    // stencil whose weights sum to −5.6e-17 gave L(0) a positive real part,
-    // and forward Euler was reported unstable at every Δt)
-    let total_size: f64 = weights.iter().map(|w| w.abs()).sum();
-    let within_rounding = |c: &f64| c.abs() <= 4.0 * f64::EPSILON * total_size;
-    if num.cos.c.first().is_some_and(within_rounding) {
-        num.cos.c[0] = 0.0;
-        num.cos.size[0] = 0.0;
-    }
-    let den = side(implicit_offsets, implicit_weights, q);
-    let (dc, ds) = (den.cos.value(v), sin_phi * den.sin.value(v));
-    let modulus = dc * dc + ds * ds;
-    // Re(N D̄) = N_C D_C + sin²φ N_S D_S; Im(N D̄) = sin φ (N_S D_C − N_C D_S)
-    let real = num
-        .cos
-        .product(&den.cos)
-        .sum(&num.sin.product(&den.sin).times_sin_squared())
-        .cleaned();
-    let re = real.value(v) / modulus;
-    let im = sin_phi * (num.sin.value(v) * dc - num.cos.value(v) * den.sin.value(v)) / modulus;
-    let noise = 4.0 * f64::EPSILON * (real.scale(v) / modulus + re.abs());
-    Some((C64::new(re, im), noise))
+    Series::new(offsets, weights, implicit_offsets, implicit_weights)?.symbol(theta)
 }
 
 #[cfg(test)]

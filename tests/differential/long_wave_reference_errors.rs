@@ -100,5 +100,12 @@ fn imex_cnab2_dip_beyond_the_long_waves_is_refined() {
             "direction {n:?}: engine {dt}, truth {truth}"
         );
     }
-    assert!(e.dt_max <= truth * (1.0 + 1e-9), "overall {}", e.dt_max);
+    // along the y axis central4 has no damping, and AB2 grows on the
+    // imaginary axis (|ζ|² − 1 = y⁴/2): unstable at every Δt overall
+    assert_eq!(
+        e.kind,
+        crate::engine::EngineKind::None,
+        "overall {}",
+        e.dt_max
+    );
 }
