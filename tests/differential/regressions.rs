@@ -46,6 +46,12 @@ pub const KNOWN_REFERENCE_ERRORS: &[(u64, &str)] = &[
          the reference's 0.02223534885; see imex_euler_face_centre_limit_is_below_the_reference",
     ),
     (
+        6056,
+        "IMEX CNAB2 3-D: along +-(0.7071, 0.7071, 0) the long-wave limit 0.5457465906140 (40-digit \
+         crossings, Richardson in s^2); the reference's extrapolation 6.1e-9 below it; see \
+         ab2_upwind3_long_wave_limit_beats_the_reference_extrapolation",
+    ),
+    (
         5743,
         "IMEX CNAB2 2-D: along n = (-0.1564, 0.9877) the first loss dips at s = 0.147 to \
          0.01696996278037 (40 digits) below its long-wave value 0.0169703170; the reference \
