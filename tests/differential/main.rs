@@ -61,6 +61,7 @@ mod inspect;
 mod long_wave_reference_errors;
 mod longwave;
 mod none_test;
+mod onestep_none_reference_errors;
 mod pattern;
 mod probe;
 mod radius;

@@ -203,6 +203,32 @@ pub const KNOWN_REFERENCE_ERRORS: &[(u64, &str)] = &[
          long-wave limit is the closed form 2d/((1 - 2c2)a^2); the reference's extrapolation at \
          |theta| ~ 6e-9 is 2.4 % high; see random_tableau_long_wave_limit_is_the_closed_form",
     ),
+    (
+        7710,
+        "Heun 3-D 2x2, sixth-order-damped upwind stencil on y: along +-y the first loss falls like \
+         s^(2/3) (40 digits), so none; the reference's overall grid missed theta = (0, 0.1, 0), \
+         where rho - 1 = 3.6e-8 at its bounded 0.0739; see \
+         heun_with_sixth_order_damping_along_an_axis_is_none_overall",
+    ),
+    (
+        8307,
+        "Lie-split Heun 2-D 3x3, central differences, eighth-order dissipation: |det G| > 1 at long \
+         waves on every direction and dt (growth s^4 against damping s^8), first losses falling \
+         like s^(4/3) in 40 digits; the reference's bounded 1.2e-4..2e-4 lie beneath its rounding; \
+         see lie_split_heun_with_eighth_order_dissipation_is_none_on_every_direction",
+    ),
+    (
+        7950,
+        "random four-stage tableau 3-D 3x3 with a damping source: Re mu = 0.00703 > 0 at finite \
+         theta, unstable at every small dt; the reference's overall grid missed it and reported \
+         bounded 0.181; see positive_real_part_of_l_at_finite_theta_is_none",
+    ),
+    (
+        10356,
+        "BDF2 3-D 2x2 with a damping source: Re mu = 0.00776 > 0 at finite theta, unstable below \
+         dt = 0.025; the reference's grid missed it and reported unconditional from 1.1e-2; see \
+         positive_real_part_of_l_at_finite_theta_is_none",
+    ),
 ];
 
 /// Runs one seed (all directions) and asserts that the engine agrees with the
