@@ -60,6 +60,7 @@ mod handmade;
 mod inspect;
 mod long_wave_reference_errors;
 mod longwave;
+mod low_side_regressions;
 mod none_test;
 mod onestep_none_reference_errors;
 mod pattern;

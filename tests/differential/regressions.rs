@@ -229,6 +229,37 @@ pub const KNOWN_REFERENCE_ERRORS: &[(u64, &str)] = &[
          dt = 0.025; the reference's grid missed it and reported unconditional from 1.1e-2; see \
          positive_real_part_of_l_at_finite_theta_is_none",
     ),
+    (
+        6761,
+        "unsplit Lax-Wendroff 3-D 2x2: the long-wave closed form 0.43865194982404 (minimised over \
+         the sphere; 40-digit first losses agree); the reference measured the engine's approach \
+         sample at |theta| = 0.036, 6.0e-5 above; see \
+         lax_wendroff_long_wave_limits_below_the_engines_samples",
+    ),
+    (
+        7303,
+        "unsplit Lax-Wendroff 3-D 2x2: as 6761, closed form 0.08439675764135, the reference \
+         3.6e-5 above; see lax_wendroff_long_wave_limits_below_the_engines_samples",
+    ),
+    (
+        7872,
+        "unsplit Lax-Wendroff 3-D 2x2, fourth-order dissipation: as 6761, closed form \
+         0.23974063876967, the reference 2.0e-5 above; see \
+         lax_wendroff_long_wave_limits_below_the_engines_samples",
+    ),
+    (
+        8841,
+        "forward Euler 1-D 2x2, second-order dissipation 1.2e-6: the limit sigma s h/(2 lambda^2) \
+         = 1.3080633665139e-7 at theta -> 0; the reference 6.1e-5 above at theta = 0.009; see \
+         forward_euler_weak_second_order_dissipation_limit_is_at_long_waves",
+    ),
+    (
+        8508,
+        "tableau RK 3-D Strang split, rank-one diffusion along y: the limit 0.25165250493311 \
+         (closed form and 40-digit first losses) is approached at the face centre theta_y = pi; \
+         the reference stops at theta_y = 3.1391, 3.8e-6 above; see \
+         split_tableau_rank_one_diffusion_face_centre_limit",
+    ),
 ];
 
 /// Runs one seed (all directions) and asserts that the engine agrees with the
