@@ -60,6 +60,7 @@ mod handmade;
 mod inspect;
 mod long_wave_reference_errors;
 mod longwave;
+mod multistep_none_reference_errors;
 mod none_test;
 mod pattern;
 mod probe;
