@@ -61,6 +61,7 @@ mod inspect;
 mod long_wave_reference_errors;
 mod longwave;
 mod low_side_regressions;
+mod multistep_none_reference_errors;
 mod none_test;
 mod onestep_none_reference_errors;
 mod pattern;

@@ -260,6 +260,42 @@ pub const KNOWN_REFERENCE_ERRORS: &[(u64, &str)] = &[
          the reference stops at theta_y = 3.1391, 3.8e-6 above; see \
          split_tableau_rank_one_diffusion_face_centre_limit",
     ),
+    (
+        7415,
+        "IMEX CNAB2 2-D 2x2, skew source: AB2 on L(0) = S = +-i omega grows as (dt omega)^4/4 \
+         at every dt; the reference's rays start at s = 1e-5, where the implicit diffusion \
+         already damps; see skew_source_sinks_ab2_at_every_dt",
+    ),
+    (
+        10581,
+        "IMEX CNAB2 1-D, DRP stencil and eighth-order dissipation: AB2's growth beats the \
+         damping s^8 at long waves at every dt, beneath the reference's rounding; see \
+         eighth_order_dissipation_loses_to_ab2_growth_at_long_waves",
+    ),
+    (
+        7963,
+        "IMEX CNAB2 2-D, sixth-order central difference and dissipation along y: the first \
+         loss falls like s^(2/3) to 0 along y, beneath the reference's rounding; see \
+         sixth_order_damping_loses_to_ab2_growth_along_the_y_axis",
+    ),
+    (
+        8349,
+        "IMEX CNAB2 2-D 2x2, a fifth-order compact biased stencil along y (damping s^6): the \
+         first loss falls like s^(2/3) to 0 along y; see \
+         sixth_order_damping_loses_to_ab2_growth_along_the_y_axis",
+    ),
+    (
+        8566,
+        "AB2 2-D 3x3, central stencils and eighth-order dissipation: the first loss falls like \
+         s^(4/3) to 0 along every direction, beneath the reference's rounding; see \
+         eighth_order_dissipation_loses_to_ab2_growth_on_a_hyperbolic_system",
+    ),
+    (
+        9573,
+        "AB3 3-D 3x3, third-order upwinding and a source: L itself has Re mu = 0.0172 near \
+         |theta| = 0.3, between the reference's grid nodes, so every small dt is unstable; see \
+         unstable_operator_between_the_reference_samples_sinks_ab3",
+    ),
 ];
 
 /// Runs one seed (all directions) and asserts that the engine agrees with the
@@ -1120,4 +1156,62 @@ fn lax_wendroff_2d_directions_take_the_closed_form_within_its_fit() {
         assert!(text.contains("method = \"lax-wendroff\""), "{text}");
         assert_seed_agrees(seed);
     }
+}
+
+/// Asserts truth·(1 − 1e-6) ≤ dt ≤ truth·(1 + 1e-9).
+#[track_caller]
+fn assert_at_truth(dt: f64, truth: f64, what: &str) {
+    assert!(
+        dt <= truth * (1.0 + 1e-9) && dt >= truth * (1.0 - 1e-6),
+        "{what}: engine {dt}, truth {truth}"
+    );
+}
+
+/// Seed 8848: IMEX CNAB2 without diffusion (AB2 on all of L) on 2-D scalar
+/// advection, third-order upwinding along x and the DRP stencil along y. The
+/// y axis is none (a central stencil, no damping), so the overall limit is
+/// none and the rays' per-wavevector searches start from Δt‖L‖ ≈ 1, above the
+/// first loss. Along n = ±(−0.2588, 0.9659) the engine reported none: from
+/// s = 1.694 the search halved Δt to a stable one (ρ − 1 = −3e-6 there) and
+/// then read AB2's growth beyond the crossing, (Δt Im μ)⁴/4 less the damping,
+/// as a power law running down to rounding, "unstable at every Δt". A power
+/// law now needs ρ − 1 at the stable Δt within its rounding, not clearly
+/// negative. The truth along n is 0.03546451318214459 at s = 1.2252 (40-digit
+/// first losses from AB2's roots, golden search over s; the long waves give
+/// 0.036109); the reference's 0.035464514 is 2.2e-8 above it.
+#[test]
+fn growth_beyond_a_damped_crossing_is_no_power_law_to_zero() {
+    let e = crate::closed_forms::engine(&crate::generate::scheme(8848));
+    let truth = 0.035_464_513_182_144_59;
+    let (x, y) = (0.258_819_045_102_520_74, 0.965_925_826_289_068_3);
+    for n in [[-x, y], [x, -y]] {
+        let dt = crate::closed_forms::engine_direction(&e, &n);
+        assert_at_truth(dt, truth, &format!("{n:?}"));
+    }
+    assert_seed_agrees(8848);
+}
+
+/// Seed 10758: AB3 on 3-D scalar advection with a random compact biased
+/// stencil (fifth order: the real part of its symbol is 1.0166e-3 θ⁶ once the
+/// θ² and θ⁴ coefficients, −7.8e-18 and 2.1e-18, are taken as the rounding
+/// they are) on every axis. The engine reported none overall and along −y
+/// (bounded along +y, though the limit is even in θ): the search for an
+/// unstable region of L stepped from θ_y = π to θ_y = 2π − 2.2e-4, where the
+/// closed sums carry the rounding of θ = 2π and read as a trusted Re μ > 0,
+/// then wrapped it to θ_y = −2.2e-4. θ is now wrapped before L is evaluated.
+/// Truths in 40 digits (AB3's roots on μ = L(θ), minimised over θ): overall
+/// 0.1793736386677959 at θ ≈ ±(1.93734, 1.93734, −1.93734), and
+/// 1.174293686841484 along ±y at θ_y = ±1.93734, where the stencil's modified
+/// wavenumber peaks; long waves set no limit (damped at θ⁶, and AB3 damps the
+/// imaginary axis near 0).
+#[test]
+fn abscissa_search_past_pi_is_read_as_the_long_wave_it_is() {
+    let e = crate::closed_forms::engine(&crate::generate::scheme(10758));
+    assert_eq!(e.kind, crate::engine::EngineKind::Bounded);
+    assert_at_truth(e.dt_max, 0.179_373_638_667_795_9, "overall");
+    for n in [[0.0, 1.0, 0.0], [0.0, -1.0, 0.0]] {
+        let dt = crate::closed_forms::engine_direction(&e, &n);
+        assert_at_truth(dt, 1.174_293_686_841_484, &format!("{n:?}"));
+    }
+    assert_seed_agrees(10758);
 }

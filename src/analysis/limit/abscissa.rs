@@ -20,9 +20,15 @@ const REFINED: usize = 8;
 /// Points per axis of the grid that seeds the search.
 const COARSE: usize = 33;
 
-/// The spectral abscissa at θ when it can be trusted, −∞ otherwise.
+/// The spectral abscissa at θ when it can be trusted, −∞ otherwise. L is
+/// 2π-periodic in each θ_d, and θ is wrapped into [−π, π] first: a search
+/// stepping past π would otherwise read L near θ_d = 2π from sums whose
+/// rounding is that of θ_d = 2π, not of the long wave it is (a compass search
+/// from θ_y = π reached θ_y = 2π − 2.2e-4, where rounding read as a trusted
+/// Re μ > 0, and reported none for a stable scheme, seed 10758).
 fn abscissa(spectrum: &mut Spectrum, eig: &mut [C64], theta: &[f64]) -> f64 {
-    match spectrum.at(theta, eig) {
+    let theta: Vec<f64> = theta.iter().map(|x| super::wrap(*x)).collect();
+    match spectrum.at(&theta, eig) {
         Ok(true) => eig.iter().map(|z| z.re).fold(f64::NEG_INFINITY, f64::max),
         _ => f64::NEG_INFINITY,
     }

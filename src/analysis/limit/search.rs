@@ -342,11 +342,20 @@ pub enum SmallDt {
 /// clear of its rounding (16 times over) must give three successive ratios that
 /// agree to 10%. A scheme that merely crosses into stability near Δt (growth ≈
 /// c(Δt − Δt*)) gives ratios 1/3, 3/7, 7/15 and is not mistaken for one.
+/// Nor is one damped at Δt itself beyond its rounding (ρ − 1 below −16 times
+/// it): a growth running down to the rounding level is within it at Δt, while
+/// a clear damping there makes the power law above a crossing's (AB2's
+/// (Δt Im μ)⁴/4 beyond its first loss on a damped μ, seed 8848), not a growth
+/// at every Δt.
 pub(super) fn power_law(
     trail: &[(f64, usize)],
     growth_at: impl Fn(f64) -> (f64, f64),
     dt: f64,
 ) -> bool {
+    let (g, noise) = growth_at(dt);
+    if g < -16.0 * noise {
+        return false;
+    }
     let mut e: Vec<f64> = Vec::with_capacity(4);
     for k in 1..=trail.len() {
         let (g, noise) = growth_at(dt * 2f64.powi(k as i32));
