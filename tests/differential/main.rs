@@ -57,6 +57,7 @@ mod engine;
 mod evidence;
 mod generate;
 mod handmade;
+mod imex_euler_low_regressions;
 mod inspect;
 mod long_wave_reference_errors;
 mod longwave;
