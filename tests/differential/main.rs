@@ -50,6 +50,7 @@ mod ab2_reference_errors;
 mod amplification;
 mod closed_forms;
 mod compare;
+mod composite_low_regressions;
 mod corner_reference_errors;
 mod delta;
 mod domain;

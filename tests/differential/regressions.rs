@@ -328,6 +328,27 @@ pub const KNOWN_REFERENCE_ERRORS: &[(u64, &str)] = &[
          directions, 5.3603037543489253e-4; the reference's sample at |theta| = 1.6e-3 is \
          6.3e-3 above; see imex_euler_long_wave_limits_are_below_the_references_samples",
     ),
+    (
+        7011,
+        "forward-backward 2-D 3x3, upwind2 user stencil along y and diffusion: the long-wave \
+         closed form 2k/D minimised over directions (1.2441538498e-4 near the y axis) is 1.28e-5 \
+         below the reference's unconverged extrapolation; see \
+         forward_backward_long_wave_minimum_near_an_axis_is_the_closed_form",
+    ),
+    (
+        9860,
+        "forward-backward 3-D 2x2, biased compact user stencil and second-order dissipation: \
+         every limit is the long-wave closed form (overall 2.4221034483e-5), 8.8e-5 to 3.2e-3 \
+         below the reference's unconverged extrapolations; see \
+         forward_backward_3d_long_wave_limits_are_the_closed_form",
+    ),
+    (
+        10303,
+        "forward-backward 2-D 3x3, upwind2 user stencil along y and second-order dissipation: \
+         the directional limits are the long-wave closed forms, 7.5e-5 to 1.2e-3 below the \
+         reference's unconverged extrapolations; see \
+         forward_backward_closed_form_below_a_far_extrapolation_is_taken",
+    ),
 ];
 
 /// Runs one seed (all directions) and asserts that the engine agrees with the
