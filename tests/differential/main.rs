@@ -49,6 +49,7 @@ mod support;
 mod ab2_reference_errors;
 mod amplification;
 mod closed_forms;
+mod cnab2_low_regressions;
 mod compare;
 mod composite_low_regressions;
 mod corner_reference_errors;

@@ -349,6 +349,25 @@ pub const KNOWN_REFERENCE_ERRORS: &[(u64, &str)] = &[
          reference's unconverged extrapolations; see \
          forward_backward_closed_form_below_a_far_extrapolation_is_taken",
     ),
+    (
+        8034,
+        "IMEX CNAB2 2-D, central along y, fourth-order dissipation: along +-y the long-wave closed \
+         form dt^3 = 4b/a^4 = 2.7118938779281e-3 (40 digits), also the overall limit; the \
+         reference 1.1e-5 above along +-y and 8.3e-3 above overall; see \
+         ab2_dissipation_long_wave_limit_along_a_central_axis_8034",
+    ),
+    (
+        9909,
+        "IMEX CNAB2 2-D 2x2, third-order upwinding along y: along +-(-0.9877, 0.1564) the first \
+         loss dips to 0.150162335500566 at s = 0.1729 (40 digits); the reference 1.9e-5 above, \
+         at s = 0.1988; see ab2_upwind3_dip_on_a_ray_near_the_central_axis_9909",
+    ),
+    (
+        10767,
+        "IMEX CNAB2 3-D 2x2, fourth-order dissipation: the long-wave closed form minimised in the \
+         plane n_x = 0 is 0.0313663606691 (40-digit fit); the reference 1.6e-3 above; see \
+         ab2_long_wave_minimum_in_a_coordinate_plane_10767",
+    ),
 ];
 
 /// Runs one seed (all directions) and asserts that the engine agrees with the
