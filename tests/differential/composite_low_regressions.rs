@@ -104,6 +104,43 @@ fn forward_backward_closed_form_below_a_far_extrapolation_is_taken() {
     assert_directions_at(&e, &[&[d, d], &[-d, -d]], 4.531_033_290_496_612e-7);
 }
 
+/// Seed 10303 again, overall and near the y axis. Along y the trusted
+/// long-wave samples 5.13e-3, 1.32e-3, 3.32e-4, 8.42e-5, 2.21e-5 at s = 0.2 …
+/// 0.0125 fall with steady ratios 0.25–0.26: the second-order upwind stencil
+/// damps like s⁴, which dwarfs the second-order dissipation down to
+/// s ≈ 3e-3, so the first loss is L + C s² seen from 16 times L and more, and
+/// the samples after them are lost in rounding. The engine read the steady
+/// ratios as a first loss tending to 0 and said none along the directions
+/// within 18° of ±y and overall (from there every ray without its own
+/// informative long-wave limit). In 40 digits the witness it gave,
+/// θ = (−3.3264e-4, −2.9602e-4), is stable at every Δt from 1.8e-16 to 1.8e-7.
+/// The truths: the closed form 2κ/D, minimised over directions, is
+/// 4.521751806311898e-7 at φ = 42.01186°; 40-digit crossings along it at
+/// s = 4e-6, 2e-6, 1e-6 (4.52175245747e-7, 4.52175196910e-7,
+/// 4.52175184701e-7) extrapolate in s² to the same value to 1e-19. Along y
+/// the closed form is 1.3683385688004315e-6, and crossings at s = 4e-5, 2e-5,
+/// 1e-5 extrapolate to it to 1e-20; along 72°, 81°, 99°, 108° the closed forms
+/// are 6.200855626963995e-7, 8.505642896937994e-7, 1.6174695548323824e-6,
+/// 1.2626950575035922e-6, each below the 40-digit crossing at s = 1e-5.
+#[test]
+fn forward_backward_steady_fall_far_above_the_closed_form_is_not_none() {
+    let s = crate::generate::scheme(10303);
+    let text = crate::render::case_text(&s);
+    assert!(text.contains("method = \"forward-backward\""), "{text}");
+    let e = crate::closed_forms::engine(&s);
+    assert_overall_at(&e, 4.521_751_806_311_898e-7);
+    for (deg, truth) in [
+        (72.0, 6.200_855_626_963_995e-7),
+        (81.0, 8.505_642_896_937_994e-7),
+        (90.0, 1.368_338_568_800_431_5e-6),
+        (99.0, 1.617_469_554_832_382_4e-6),
+        (108.0, 1.262_695_057_503_592_2e-6),
+    ] {
+        let a: f64 = f64::to_radians(deg);
+        assert_directions_at(&e, &[&[a.cos(), a.sin()], &[-a.cos(), -a.sin()]], truth);
+    }
+}
+
 /// Seed 7566: Heun in 3-D, 3×3 non-symmetric flux, compact4 along x, a biased
 /// compact user stencil along y, drp7 along z, fourth-order dissipation
 /// σ = 8.17e-6 scaled by the reference speed max_n ρ(Σ n_d A_d). That maximum

@@ -345,9 +345,10 @@ pub const KNOWN_REFERENCE_ERRORS: &[(u64, &str)] = &[
     (
         10303,
         "forward-backward 2-D 3x3, upwind2 user stencil along y and second-order dissipation: \
-         the directional limits are the long-wave closed forms, 7.5e-5 to 1.2e-3 below the \
-         reference's unconverged extrapolations; see \
-         forward_backward_closed_form_below_a_far_extrapolation_is_taken",
+         the overall and directional limits are the long-wave closed forms (overall \
+         4.5217518063e-7), 7.5e-5 to 1.3e-3 below the reference's unconverged extrapolations; \
+         see forward_backward_closed_form_below_a_far_extrapolation_is_taken and \
+         forward_backward_steady_fall_far_above_the_closed_form_is_not_none",
     ),
     (
         8034,
