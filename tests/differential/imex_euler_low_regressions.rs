@@ -1,7 +1,7 @@
 //! Named tests for IMEX Euler seeds of the long run 6000-10999 where the engine
 //! was reported more than 1e-6 below the reference (seeds 7991, 8287, 9028,
-//! 9118, 9446; and the directions ±y of 9621): in each the reference is above
-//! the truth and the engine within 1e-6 below it. The truths were computed
+//! 9118, 9446, 9621): in each the reference is above the truth and the engine
+//! within 1e-6 below it. The truths were computed
 //! outside both programs during triage: L(θ) and G(θ, Δt) = (I − ΔtL_I)⁻¹(I +
 //! ΔtL_E) built from the case's stencil weights and matrices in 40-digit mpmath
 //! arithmetic (L_I the diffusion, L_E everything else), first losses bisected
@@ -81,4 +81,30 @@ fn imex_euler_long_wave_limits_are_below_the_references_samples() {
     assert_directions_at(&e, &[&[1.0, 0.0], &[-1.0, 0.0]], 1.362_036_964_826_428e-4);
     assert_overall_at(&engine_of(8287), 4.252_371_166_881_564_5e-4);
     assert_overall_at(&engine_of(9446), 5.360_303_754_348_925e-4);
+}
+
+/// Seed 9621: IMEX Euler in 2-D, 3×3 system, upwind3 (Rusanov) along x and
+/// central4 along y, rank-one y-diffusion. At the corner θ = (0, π) the
+/// explicit part vanishes and L(0, π) = −D, D = (16/3)K_y/h_y² (central4's
+/// second difference at π), has a two-dimensional null space, on which long
+/// waves carry the forward Euler balance 2κ/λ² with κ = l·(K + B D# B)·r
+/// (derived in `kgain::analysis::limit::imex_euler`). Minimised over
+/// directions θ = (s cos φ, π − s sin φ) it is 4.669919587462679e-4 at
+/// φ = 1.3037427547; the 40-digit first losses along that φ (L and G built
+/// from the stencil weights and the case's matrices in mpmath during triage,
+/// K_y's rounding-level eigenvalue, ~1e-17, set to 0; crossings bisected) at
+/// s = 4e-3 … 1.25e-4 approach it like s², their Richardson values agreeing
+/// to 16 digits. With K_y as written the first loss has instead a shallow
+/// minimum 4.669920099e-4 at s ≈ 4.8e-4, 1.1e-7 above. The reference reported
+/// 4.669984409e-4, 1.4e-5 above the truth; the engine had been 2.4e-5 below
+/// (an Aitken extrapolation of four samples, s = 0.2 … 0.025, less its
+/// spread). Along ±y the same closed form gives 2.253985831649614e-3, which
+/// the 40-digit first losses at θ_y = π − s, s = 2e-3 … 2.5e-5, approach from
+/// above; it is 5e-8 below the minimum with K_y as written (the truth asserted
+/// in `imex_euler_limit_next_to_the_odd_even_mode_is_below_the_reference`).
+#[test]
+fn imex_euler_rank_one_corner_limit_is_the_reduced_balance() {
+    let e = engine_of(9621);
+    assert_overall_at(&e, 4.669_919_587_462_679e-4);
+    assert_directions_at(&e, &[&[0.0, 1.0], &[0.0, -1.0]], 2.253_985_831_649_614e-3);
 }

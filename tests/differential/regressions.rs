@@ -369,6 +369,14 @@ pub const KNOWN_REFERENCE_ERRORS: &[(u64, &str)] = &[
          plane n_x = 0 is 0.0313663606691 (40-digit fit); the reference 1.6e-3 above; see \
          ab2_long_wave_minimum_in_a_coordinate_plane_10767",
     ),
+    (
+        9621,
+        "IMEX Euler 2-D 3x3, rank-one y-diffusion: the limit is approached at the corner \
+         (0, pi), where D = -L has a null space: 2 l.(K + B D# B).r/lambda^2 minimised over \
+         directions, 4.669919587462679e-4 (40-digit first losses converge to it); the reference \
+         is 1.4e-5 above overall and 5.8e-6 above along +-y; see \
+         imex_euler_rank_one_corner_limit_is_the_reduced_balance",
+    ),
 ];
 
 /// Runs one seed (all directions) and asserts that the engine agrees with the
