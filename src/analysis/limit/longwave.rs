@@ -71,8 +71,10 @@ fn along_with(f: &dyn FirstLoss, origin: &[f64], n: &[f64], stable_run: usize) -
     // nothing (seed 1314)
     let mut rough = false;
     let mut bias: f64 = 0.0;
-    // the closed form of the leading orders, where one applies (below)
-    let closed = f.long_wave(origin, n);
+    // the closed form of the leading orders, where one applies (below);
+    // computed when first needed, as the early returns need none
+    let closed_cell = std::cell::OnceCell::new();
+    let closed = || *closed_cell.get_or_init(|| f.long_wave(origin, n));
     // trusted samples falling steadily, but as the approach L + C·s^k to the
     // closed form's L > 0 from far above it (not yet where L shows)
     let mut unreached = false;
@@ -100,7 +102,7 @@ fn along_with(f: &dyn FirstLoss, origin: &[f64], n: &[f64], stable_run: usize) -
                 false => None,
             };
             if let Some(v) = falling {
-                if approaches_from_above(&v, closed.as_ref()) {
+                if approaches_from_above(&v, closed().as_ref()) {
                     unreached = true;
                 } else {
                     // the trusted values and the verified upper bounds after
@@ -161,7 +163,7 @@ fn along_with(f: &dyn FirstLoss, origin: &[f64], n: &[f64], stable_run: usize) -
     if let Some(ClosedForm {
         limit: exact,
         uncertainty: fit,
-    }) = closed
+    }) = closed()
     {
         let slack = 1e-9 * limit.abs();
         // below the extrapolation by up to 1e-6 is the safe side and within
