@@ -69,3 +69,27 @@ fn print_closed_form_table() {
         }
     }
 }
+
+/// The engine's limit along each of `directions` lies within 1e-6 below
+/// `truth` and at most 1e-9 above it.
+#[track_caller]
+pub fn assert_directions_at(e: &crate::engine::EngineLimit, directions: &[&[f64]], truth: f64) {
+    for n in directions {
+        let dt = engine_direction(e, n);
+        assert!(
+            dt <= truth * (1.0 + 1e-9) && dt >= truth * (1.0 - 1e-6),
+            "direction {n:?}: engine {dt}, truth {truth}"
+        );
+    }
+}
+
+/// The engine's overall limit lies within 1e-6 below `truth` and at most 1e-9
+/// above it.
+#[track_caller]
+pub fn assert_overall_at(e: &crate::engine::EngineLimit, truth: f64) {
+    assert!(
+        e.dt_max <= truth * (1.0 + 1e-9) && e.dt_max >= truth * (1.0 - 1e-6),
+        "engine {}, truth {truth}",
+        e.dt_max
+    );
+}

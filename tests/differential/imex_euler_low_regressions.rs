@@ -11,29 +11,7 @@
 //! above like s². Where a diffusion matrix is singular its eigenvalues at the
 //! rounding level of the case text (|λ| ≤ 1e-17) were set to 0.
 
-/// The engine's overall limit lies within 1e-6 below `truth` and at most 1e-9
-/// above it.
-#[track_caller]
-fn assert_overall_at(e: &crate::engine::EngineLimit, truth: f64) {
-    assert!(
-        e.dt_max <= truth * (1.0 + 1e-9) && e.dt_max >= truth * (1.0 - 1e-6),
-        "engine {}, truth {truth}",
-        e.dt_max
-    );
-}
-
-/// The engine's limit along each of `directions` lies within 1e-6 below
-/// `truth` and at most 1e-9 above it.
-#[track_caller]
-fn assert_directions_at(e: &crate::engine::EngineLimit, directions: &[&[f64]], truth: f64) {
-    for n in directions {
-        let dt = crate::closed_forms::engine_direction(e, n);
-        assert!(
-            dt <= truth * (1.0 + 1e-9) && dt >= truth * (1.0 - 1e-6),
-            "direction {n:?}: engine {dt}, truth {truth}"
-        );
-    }
-}
+use crate::closed_forms::{assert_directions_at, assert_overall_at};
 
 fn engine_of(seed: u64) -> crate::engine::EngineLimit {
     let text = crate::render::case_text(&crate::generate::scheme(seed));

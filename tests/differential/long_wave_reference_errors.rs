@@ -10,6 +10,8 @@
 //! (`kgain::analysis::limit::{lax_wendroff, imex_euler}`) or, for 5743, from
 //! refining the dip.
 
+use crate::closed_forms::assert_directions_at;
+
 /// The engine's overall limit lies within 1e-6 below `truth` and at most
 /// `above` (relative) above it.
 #[track_caller]
@@ -21,19 +23,6 @@ fn assert_engine_at(seed: u64, truth: f64, above: f64) {
         "seed {seed}: engine {}, truth {truth}",
         e.dt_max
     );
-}
-
-/// The engine's limit along each of `directions` lies within 1e-6 below
-/// `truth` and at most 1e-9 above it.
-#[track_caller]
-fn assert_directions_at(e: &crate::engine::EngineLimit, directions: &[&[f64]], truth: f64) {
-    for n in directions {
-        let dt = crate::closed_forms::engine_direction(e, n);
-        assert!(
-            dt <= truth * (1.0 + 1e-9) && dt >= truth * (1.0 - 1e-6),
-            "direction {n:?}: engine {dt}, truth {truth}"
-        );
-    }
 }
 
 /// Seeds 5055, 6280 and 2033: unsplit Lax–Wendroff on 3-D systems. The s² term

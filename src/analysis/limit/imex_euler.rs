@@ -70,7 +70,6 @@ pub fn long_wave_limit(op: &Operator, origin: &[f64], n: &[f64]) -> Option<Close
     if origin.iter().any(|x| *x != 0.0) {
         return corner_limit(op, origin, n);
     }
-    let m = op.m;
     let zero: Vec<f64> = vec![0.0; n.len()];
     if op.symbol_matrix(&zero).iter().any(|z| z.norm() != 0.0) {
         return None;
@@ -84,24 +83,9 @@ pub fn long_wave_limit(op: &Operator, origin: &[f64], n: &[f64]) -> Option<Close
             (l.map(|z| z.im / s), l.map(|z| -z.re / (s * s)))
         })
         .collect();
-    if levels
-        .iter()
-        .any(|(a, b)| a.iter().chain(b.iter()).any(|x| !x.is_finite()))
-    {
-        return None;
-    }
     // a real part of lower order than s² (growing as s falls) is another balance
-    let settles = |v: &dyn Fn(usize) -> f64| {
-        let (a, b, c) = (v(LEVELS - 3), v(LEVELS - 2), v(LEVELS - 1));
-        let scale = a.abs().max(b.abs()).max(c.abs());
-        scale == 0.0 || (c - b).abs() <= 0.3 * (b - a).abs() + 1e-9 * scale
-    };
-    for i in 0..m {
-        for j in 0..m {
-            if !settles(&|l| levels[l].0[(i, j)]) || !settles(&|l| levels[l].1[(i, j)]) {
-                return None;
-            }
-        }
+    if !settled(&levels) {
+        return None;
     }
     let extrapolated = |last: usize| {
         let b = &levels[last].0 + (&levels[last].0 - &levels[last - 1].0) / 3.0;
@@ -179,23 +163,8 @@ fn corner_limit(op: &Operator, origin: &[f64], n: &[f64]) -> Option<ClosedForm> 
             (slope.map(|z| z.im), slope.map(|z| -z.re / (2.0 * s)))
         })
         .collect();
-    if levels
-        .iter()
-        .any(|(a, b)| a.iter().chain(b.iter()).any(|x| !x.is_finite()))
-    {
+    if !settled(&levels) {
         return None;
-    }
-    let settles = |v: &dyn Fn(usize) -> f64| {
-        let (a, b, c) = (v(LEVELS - 3), v(LEVELS - 2), v(LEVELS - 1));
-        let size = a.abs().max(b.abs()).max(c.abs());
-        size == 0.0 || (c - b).abs() <= 0.3 * (b - a).abs() + 1e-9 * size
-    };
-    for i in 0..m {
-        for j in 0..m {
-            if !settles(&|l| levels[l].0[(i, j)]) || !settles(&|l| levels[l].1[(i, j)]) {
-                return None;
-            }
-        }
     }
     let of = |last: usize| {
         let extrapolate = |pick: &dyn Fn(usize) -> DMatrix<f64>| {
@@ -286,6 +255,28 @@ fn limit_from(pairs: &[eigenpairs::EigenPair], k: &DMatrix<f64>, scale: f64) -> 
         limit = limit.min(2.0 * kappa / (p.lambda * p.lambda));
     }
     Some(limit)
+}
+
+/// Whether the levels (B, K) read at s, s/2, … are finite and each entry
+/// settles over the last three levels (its last change at most 0.3 times the
+/// one before, up to 1e-9 of its size).
+fn settled(levels: &[(DMatrix<f64>, DMatrix<f64>)]) -> bool {
+    if levels
+        .iter()
+        .any(|(a, b)| a.iter().chain(b.iter()).any(|x| !x.is_finite()))
+    {
+        return false;
+    }
+    let n = levels.len();
+    let settles = |v: &dyn Fn(usize) -> f64| {
+        let (a, b, c) = (v(n - 3), v(n - 2), v(n - 1));
+        let size = a.abs().max(b.abs()).max(c.abs());
+        size == 0.0 || (c - b).abs() <= 0.3 * (b - a).abs() + 1e-9 * size
+    };
+    let (rows, cols) = levels[0].0.shape();
+    (0..rows).all(|i| {
+        (0..cols).all(|j| settles(&|l| levels[l].0[(i, j)]) && settles(&|l| levels[l].1[(i, j)]))
+    })
 }
 
 #[cfg(test)]
