@@ -221,6 +221,46 @@ fn pruned_envelope_equals_the_brute_force_maximum_over_the_grid() {
 }
 
 #[test]
+fn pruned_envelope_of_a_two_d_euler_system_equals_the_brute_force_maximum() {
+    // A 4×4 G with transient growth in the identity norm (linearised 2-D Euler,
+    // C4, RK4; envelope about 2.4): most (θ, n) are ruled out by the bracket
+    // or the Cholesky exclusion test rather than an SVD. The envelope and its
+    // peak must still equal the brute-force maximum of the exact ‖Gⁿ‖₂ over
+    // every node (a fast path against its slow reference).
+    let path = concat!(env!("CARGO_MANIFEST_DIR"), "/bench/peer-euler2d.toml");
+    let text = std::fs::read_to_string(path).expect("bundled benchmark case");
+    let overrides = [
+        "scan.points=[17,17]",
+        "scan.weights=[1,1,1,1]",
+        "scan.steps=60",
+        "scan.analyses=[\"growth\"]",
+    ];
+    let case = support::case_with(&text, &overrides.map(String::from));
+    let r = support::analyse_par(&case, 2);
+    let g = r.growth.unwrap();
+    let op = case.problem.operator();
+    let mut brute = vec![0.0f64; g.steps + 1];
+    for tx in &r.grid.coords[0] {
+        for ty in &r.grid.coords[1] {
+            let gm = kgain::analysis::amplification_at(&case.problem, &op, &[*tx, *ty], r.dt);
+            for (n, v) in growth::power_norms(&gm, g.steps).iter().enumerate() {
+                brute[n] = brute[n].max(*v);
+            }
+        }
+    }
+    for (n, (a, b)) in g.envelope.iter().zip(&brute).enumerate() {
+        assert!((a - b).abs() <= 1e-12 * b.max(1.0), "n = {n}: {a} vs {b}");
+    }
+    let top = brute.iter().copied().fold(0.0, f64::max);
+    assert!(top > 2.0, "transient growth expected, got {top}");
+    assert!(
+        (g.peak.0 - top).abs() <= 1e-12 * top,
+        "peak {} vs {top}",
+        g.peak.0
+    );
+}
+
+#[test]
 fn sequential_and_parallel_growth_sweeps_agree_exactly() {
     // Parallelism must not change results.
     let a = run(SEDIMENT, Par::Seq).growth.unwrap();

@@ -5,9 +5,10 @@
 //! One Schur factorisation G = QTQᴴ per wavevector serves everything:
 //! ‖Gⁿ‖₂ = ‖Tⁿ‖₂, and the powers of the triangular T are formed with a running
 //! scale so they cannot overflow ([`super::powers`]). The envelope is exact
-//! without an SVD at every (θ, n): cheap certified bounds bracket ‖Tⁿ‖₂, and an
-//! exact 2-norm is computed only where the upper bound beats the best value
-//! found so far over the whole grid (shared atomically). The per-wavevector
+//! without an SVD at every (θ, n): cheap certified bounds bracket ‖Tⁿ‖₂, a
+//! Cholesky test proves most of the rest below the best value found so far
+//! over the whole grid (shared atomically), and an exact 2-norm is computed
+//! only where neither rules out that the node beats it. The per-wavevector
 //! work runs in a [`NodeWorkspace`] and allocates nothing.
 
 use super::powers::PowerWorkspace;
@@ -79,7 +80,7 @@ pub fn power_norms(g: &DMatrix<C64>, steps: usize) -> Vec<f64> {
     PowerWorkspace::new(t.nrows().max(1)).walk(
         &from_matrix(&t),
         steps,
-        |_, _| true,
+        |_, _| Some(0.0),
         |n, v| out[n] = v,
         |_| f64::INFINITY,
     );
@@ -118,8 +119,9 @@ impl NodeWorkspace {
     /// Measures at one wavevector, offering its powers to the envelope; returns
     /// the measures and this node's own peak (value, step) over the values it
     /// knows exactly or as a lower bound — the largest of these over all nodes
-    /// is the peak of the envelope. An exact ‖Tⁿ‖₂ is computed only where the
-    /// node's certified upper bound beats the envelope found so far.
+    /// is the peak of the envelope. An exact ‖Tⁿ‖₂ is computed only where
+    /// neither the node's certified upper bound nor the Cholesky test proves
+    /// it at most the envelope found so far.
     pub fn node(
         &mut self,
         g: &DMatrix<C64>,
@@ -176,7 +178,8 @@ impl NodeWorkspace {
                     p = (b.lower, n);
                     peak_cell.set(p);
                 }
-                b.upper > env.get(n)
+                let best = env.get(n);
+                (b.upper > best).then_some(best)
             },
             |n, v| {
                 env.offer(n, v);
