@@ -52,7 +52,10 @@ impl Envelope {
     }
 
     fn offer(&self, n: usize, v: f64) {
-        if v.is_nan() || v < 0.0 {
+        // a plain load first: most offers do not raise the maximum, and a
+        // read-modify-write on every one would bounce the cache line between
+        // the workers
+        if v.is_nan() || v < 0.0 || v <= self.get(n) {
             return;
         }
         self.best[n].fetch_max(v.to_bits(), Ordering::Relaxed);
