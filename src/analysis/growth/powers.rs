@@ -171,7 +171,7 @@ fn at_most(p: &[C64], m: usize, bound: f64, frob: f64, gram: &mut [C64]) -> bool
     // A = RᴴR in place (R upper triangular, row by row)
     for i in 0..m {
         let d = gram[i * m + i].re - (0..i).map(|k| gram[k * m + i].norm_sqr()).sum::<f64>();
-        if !(d > 0.0) {
+        if d.is_nan() || d <= 0.0 {
             return false;
         }
         let r = d.sqrt();
