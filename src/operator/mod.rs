@@ -315,6 +315,15 @@ impl Operator {
         crate::linalg::to_matrix(&self.symbol(theta), self.m)
     }
 
+    /// Whether every diffusion term's factor is real at θ (central second
+    /// differences are; a biased or odd stencil gives an imaginary part).
+    pub fn diffusion_is_real_at(&self, theta: &[f64]) -> bool {
+        self.terms
+            .iter()
+            .filter(|t| t.kind == TermKind::Diffusion)
+            .all(|t| t.factor_at(theta).im == 0.0)
+    }
+
     /// A part of L(θ) as an nalgebra matrix.
     pub fn part_matrix(
         &self,

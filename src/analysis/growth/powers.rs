@@ -117,7 +117,7 @@ impl PowerWorkspace {
                     *z *= inv;
                 }
                 log_scale += f.ln();
-                b = bracket(&self.power, m, &mut self.rows, &mut self.cols).0;
+                (b, f) = bracket(&self.power, m, &mut self.rows, &mut self.cols);
             }
             let s = log_scale.exp();
             let scaled = Bracket {

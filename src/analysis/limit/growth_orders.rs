@@ -81,7 +81,6 @@ pub fn imex_closed_form(
     n: &[f64],
 ) -> Option<ClosedForm> {
     let op = ev.operator();
-    use crate::operator::TermKind;
     use crate::time::composite::{Composite, Imex};
     use crate::time::Scheme;
     let explicit = match ev.scheme() {
@@ -91,10 +90,7 @@ pub fn imex_closed_form(
     };
     let real_diffusion = [1e-2, 1e-3, 1e-4].iter().all(|s| {
         let theta: Vec<f64> = origin.iter().zip(n).map(|(o, x)| o + x * s).collect();
-        op.terms
-            .iter()
-            .filter(|t| t.kind == TermKind::Diffusion)
-            .all(|t| t.factor_at(&theta).im == 0.0)
+        op.diffusion_is_real_at(&theta)
     });
     if !real_diffusion {
         return None;

@@ -135,13 +135,8 @@ fn corner_limit(op: &Operator, origin: &[f64], n: &[f64]) -> Option<ClosedForm> 
     let at = |s: f64| -> Vec<f64> { origin.iter().zip(n).map(|(o, x)| o + x * s).collect() };
     // the implicit part stays real along the approach (central second
     // differences): with an imaginary part of order s it would enter ζ at s²
-    let real_diffusion = (0..LEVELS).all(|j| {
-        let theta = at(S * 0.5f64.powi(j as i32));
-        op.terms
-            .iter()
-            .filter(|t| t.kind == TermKind::Diffusion)
-            .all(|t| t.factor_at(&theta).im == 0.0)
-    });
+    let real_diffusion =
+        (0..LEVELS).all(|j| op.diffusion_is_real_at(&at(S * 0.5f64.powi(j as i32))));
     if !real_diffusion {
         return None;
     }
