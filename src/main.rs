@@ -414,8 +414,9 @@ fn run(cli: Cli) -> Result<(), Failure> {
             if table {
                 emit(&report::human_summary_parts(&case.problem, &results, None).0);
             }
-            let written = dest
-                .commit(|dir| report::write_into(dir, &case.problem, &results))
+            // the writing runs on the same number of threads as the analyses
+            let written = par
+                .run(|| dest.commit(|dir| report::write_into(dir, &case.problem, &results)))
                 .map_err(|e| match e {
                     CommitError::Write(e) => Failure::Other(e.to_string()),
                     CommitError::Destination(e) => destination(e),

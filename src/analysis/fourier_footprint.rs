@@ -11,6 +11,7 @@
 use super::context::Context;
 use crate::linalg::EigSolver;
 use num_complex::Complex64 as C64;
+use rayon::prelude::*;
 
 /// At most this many wavevectors are sampled (evenly strided over the grid).
 pub const MAX_NODES: usize = 8192;
@@ -41,17 +42,48 @@ pub fn footprint(ctx: &Context) -> Option<FourierFootprint> {
     let m = op.m;
     let total = grid.len();
     let stride = total.div_ceil(MAX_NODES).max(1);
+    let picked: Vec<usize> = (0..total).step_by(stride).collect();
+    // chunks of sampled wavevectors on the workers, concatenated in order
+    let chunks: Vec<FourierFootprint> = ctx.par.run(|| {
+        picked
+            .par_chunks(CHUNK)
+            .map(|flats| sample(ctx, flats, step))
+            .collect()
+    });
+    let mut out = FourierFootprint {
+        z: Vec::with_capacity(m * picked.len()),
+        theta_norm: Vec::with_capacity(picked.len()),
+        index: Vec::with_capacity(picked.len()),
+        m,
+        dt,
+    };
+    for c in chunks {
+        out.z.extend(c.z);
+        out.theta_norm.extend(c.theta_norm);
+        out.index.extend(c.index);
+    }
+    Some(out)
+}
+
+/// Wavevectors sampled by one task.
+const CHUNK: usize = 256;
+
+/// The footprint at the grid nodes `flats` (those whose eigenvalues fail are
+/// left out).
+fn sample(ctx: &Context, flats: &[usize], step: f64) -> FourierFootprint {
+    let (grid, op) = (&ctx.grid, &ctx.op);
+    let m = op.m;
     let mut solver = EigSolver::new(m);
     let mut eig = vec![C64::new(0.0, 0.0); m];
     let mut idx = vec![0usize; grid.points.len()];
     let mut out = FourierFootprint {
-        z: Vec::with_capacity(m * total.div_ceil(stride)),
-        theta_norm: Vec::new(),
-        index: Vec::new(),
+        z: Vec::with_capacity(m * flats.len()),
+        theta_norm: Vec::with_capacity(flats.len()),
+        index: Vec::with_capacity(flats.len()),
         m,
-        dt,
+        dt: ctx.dt,
     };
-    for flat in (0..total).step_by(stride) {
+    for &flat in flats {
         grid.unravel(flat, &mut idx);
         let theta = grid.theta(&idx);
         if solver.eigenvalues(&op.symbol(&theta), &mut eig).is_err() {
@@ -62,5 +94,5 @@ pub fn footprint(ctx: &Context) -> Option<FourierFootprint> {
             .push(theta.iter().map(|t| t * t).sum::<f64>().sqrt());
         out.index.push(flat);
     }
-    Some(out)
+    out
 }
