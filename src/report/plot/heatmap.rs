@@ -13,6 +13,7 @@ use super::contour;
 use super::{style, Area, Res};
 use plotters::prelude::*;
 use plotters::style::text_anchor::{HPos, VPos};
+use rayon::prelude::*;
 use std::f64::consts::PI;
 
 /// A field on a θ plane, row-major: `values[i * ys.len() + j]` at `(xs[i], ys[j])`.
@@ -127,23 +128,25 @@ pub fn panel(
     let missing = scale.colour(f64::NAN);
     let span = scale.hi - scale.lo;
     let mut buf = vec![0u8; (w * h * 3) as usize];
-    for (v, &j) in rows.iter().enumerate() {
-        for (u, &i) in cols.iter().enumerate() {
-            let x = field.values[i * ny + j];
-            let c = if x.is_nan() {
-                missing
-            } else {
-                let t = if span > 0.0 {
-                    (x - scale.lo) / span
+    // pixel rows filled by the caller's workers
+    buf.par_chunks_mut(w as usize * 3)
+        .zip(&rows)
+        .for_each(|(line, &j)| {
+            for (pixel, &i) in line.chunks_exact_mut(3).zip(&cols) {
+                let x = field.values[i * ny + j];
+                let c = if x.is_nan() {
+                    missing
                 } else {
-                    0.5
+                    let t = if span > 0.0 {
+                        (x - scale.lo) / span
+                    } else {
+                        0.5
+                    };
+                    lut[((t * (LUT - 1) as f64).round().clamp(0.0, (LUT - 1) as f64)) as usize]
                 };
-                lut[((t * (LUT - 1) as f64).round().clamp(0.0, (LUT - 1) as f64)) as usize]
-            };
-            let k = (v * w as usize + u) * 3;
-            buf[k..k + 3].copy_from_slice(&[c.0, c.1, c.2]);
-        }
-    }
+                pixel.copy_from_slice(&[c.0, c.1, c.2]);
+            }
+        });
     if let Some(img) =
         BitMapElement::<_, plotters::backend::RGBPixel>::with_owned_buffer((-PI, PI), (w, h), buf)
     {

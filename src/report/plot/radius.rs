@@ -18,6 +18,7 @@ use super::field::{self, Level, Spec};
 use super::{style, title_band, Area, Res};
 use crate::analysis::{RadiusResult, Results};
 use crate::problem::Problem;
+use rayon::prelude::*;
 
 /// Draws the picture for the case's dimension.
 pub fn draw(root: &Area, problem: &Problem, r: &Results, rad: &RadiusResult) -> Res {
@@ -81,7 +82,8 @@ pub fn damping_view(map: &[f64]) -> Option<Vec<f64>> {
     let (dl, dh) = (damping(hi), damping(lo));
     // a map neutral to rounding (1 − ρ ≤ 1e-12 everywhere) is flat, not damped
     (dh > 1e-12 && dh >= 10.0 * dl).then(|| {
-        map.iter()
+        // a log per node: spread over the caller's workers
+        map.par_iter()
             .map(|v| {
                 if v.is_finite() {
                     damping(*v).log10()
