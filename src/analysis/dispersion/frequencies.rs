@@ -10,8 +10,9 @@
 //! The exact modes carry the model's mode names by continuation from the long-wave
 //! limit: along the ray from θ = 0 to each wavevector the exact spectrum is
 //! followed step by step (each step pairs eigenvalues with the previous ones,
-//! extrapolated linearly, by the cheapest assignment), in ascending Re ω at the
-//! start. Each numerical mode is then paired with the exact mode of the same
+//! extrapolated linearly; a step whose pairing is not clear is halved, and the
+//! cheapest assignment decides only where halving does not settle it), in
+//! ascending Re ω at the start. Each numerical mode is then paired with the exact mode of the same
 //! shape at θ itself: its eigenvector is expanded in the exact eigenvectors and
 //! goes to the exact mode that holds most of it ([`shape`]). Only where shapes do
 //! not decide (a defective exact system, or a numerical eigenvector spread over
@@ -19,7 +20,7 @@
 //! along the ray like the exact one. Frequencies alone cannot keep identity: two
 //! waves whose discrete speeds cross would swap names.
 
-use super::shape;
+use super::{clusters, shape};
 use crate::analysis::context::amplification_at;
 use crate::linalg::{self, EigSolver};
 use crate::numeric::assignment::{optimal_assignment, optimal_assignment_into};
@@ -29,8 +30,11 @@ use crate::problem::Problem;
 use num_complex::Complex64 as C64;
 use std::f64::consts::PI;
 
-/// Steps of the continuation along a ray.
-const TRACK_STEPS: usize = 20;
+/// Nominal (geometric) steps of the continuation along a ray, each halved
+/// where its pairing is not clear ([`follow_ray`]). Eight keep every pairing
+/// of the bundled cases and the peer case equal to a 4,000-step continuation's
+/// (four did too; fewer steps only move work into halvings near θ = ±π).
+const TRACK_STEPS: usize = 8;
 /// Relative start of the ray (long-wave limit).
 const START: f64 = 1e-4;
 
@@ -74,6 +78,16 @@ pub(super) fn assign_into(target: &[C64], new: &[C64], out: &mut Vec<C64>) {
 /// and those are all different, that permutation is the unique optimum and is
 /// taken directly; otherwise (clusters of equal values, ties) [`assign_into`] decides.
 pub(super) fn pair_into(target: &[C64], new: &[C64], out: &mut Vec<C64>) {
+    if !nearest_winners_into(target, new, out) {
+        assign_into(target, new, out);
+    }
+}
+
+/// Each target's nearest value of `new` into `out` (cleared first) when every
+/// one is a clear winner (nearer than a quarter of the distance to the next)
+/// and they are all different: then that permutation is the unique optimal
+/// assignment. False otherwise.
+fn nearest_winners_into(target: &[C64], new: &[C64], out: &mut Vec<C64>) -> bool {
     let m = target.len();
     out.clear();
     let finite = target.iter().chain(new).all(|z| z.is_finite());
@@ -97,15 +111,26 @@ pub(super) fn pair_into(target: &[C64], new: &[C64], out: &mut Vec<C64>) {
             out.push(new[best]);
         }
         if out.len() == m {
-            return;
+            return true;
         }
     }
-    assign_into(target, new, out);
+    false
 }
 
 /// The frequencies at `theta`, in the order they have at the start of the ray
 /// from θ = 0 (ascending Re ω there), followed step by step: `freq(point,
 /// out)` writes the unordered frequencies at a point into `out`.
+///
+/// The steps are geometric in s (the point sθ), [`TRACK_STEPS`] of them from
+/// s = [`START`] to 1: in the long-wave limit ω grows in proportion to s, so
+/// the first prediction scales the start values and later ones extrapolate
+/// linearly. A step is accepted when the pairing of predicted and new values
+/// is clear — every prediction's nearest value (or cluster of equal values) a
+/// clear winner, [`pair_decided_into`] — and halved otherwise, up to
+/// [`MAX_HALVINGS`] times, before the least-total-distance assignment decides
+/// it: where branches come close or the last stretch of the ray bends (the
+/// frequencies of a grid-scale wave change fast near θ = ±π), a long step's
+/// linear prediction can sit nearer the wrong branch.
 pub(super) fn follow_ray(theta: &[f64], mut freq: impl FnMut(&[f64], &mut Vec<C64>)) -> Vec<C64> {
     let mut point = vec![0.0; theta.len()];
     let at = |s: f64, point: &mut Vec<f64>| {
@@ -117,34 +142,65 @@ pub(super) fn follow_ray(theta: &[f64], mut freq: impl FnMut(&[f64], &mut Vec<C6
     at(START, &mut point);
     freq(&point, &mut prev);
     prev.sort_by(|a, b| a.re.total_cmp(&b.re));
-    // geometric steps: in the long-wave limit ω grows in proportion to s, so the
-    // first prediction scales the start values and later ones extrapolate
-    let ratio = (1.0 / START).powf(1.0 / TRACK_STEPS as f64);
     let (mut prev2, mut predicted, mut next) = (Vec::new(), Vec::new(), Vec::new());
+    let ratio = (1.0 / START).powf(1.0 / TRACK_STEPS as f64);
+    // position along the ray in units of the shortest step (a nominal step
+    // halved MAX_HALVINGS times), geometric in s
+    let unit = 1u32 << MAX_HALVINGS;
+    let end = TRACK_STEPS as u32 * unit;
+    let s_at = |pos: u32| {
+        if pos == end {
+            1.0
+        } else if pos.is_multiple_of(unit) {
+            START * ratio.powi((pos / unit) as i32)
+        } else {
+            START * ratio.powf(f64::from(pos) / f64::from(unit))
+        }
+    };
+    let (mut pos, mut halvings) = (0u32, 0u32);
     let mut s_prev = START;
     let mut s_prev2 = START;
-    for k in 1..=TRACK_STEPS {
-        let s = if k == TRACK_STEPS {
-            1.0
-        } else {
-            START * ratio.powi(k as i32)
-        };
+    while pos < end {
+        let step = unit >> halvings;
+        let s = s_at(pos + step);
         at(s, &mut point);
         freq(&point, &mut raw);
         predicted.clear();
-        if k == 1 {
+        if pos == 0 {
             predicted.extend(prev.iter().map(|a| a * (s / s_prev)));
         } else {
             let slope = (s - s_prev) / (s_prev - s_prev2);
             predicted.extend(prev.iter().zip(&prev2).map(|(a, b)| a + (a - b) * slope));
         }
-        pair_into(&predicted, &raw, &mut next);
+        if !pair_decided_into(&predicted, &raw, &mut next) {
+            if halvings < MAX_HALVINGS {
+                halvings += 1;
+                continue;
+            }
+            assign_into(&predicted, &raw, &mut next);
+        }
         std::mem::swap(&mut prev2, &mut prev);
         std::mem::swap(&mut prev, &mut next);
         s_prev2 = s_prev;
         s_prev = s;
+        pos += step;
+        // back to longer steps once a refined stretch reaches their grid
+        while halvings > 0 && pos.is_multiple_of(unit >> (halvings - 1)) {
+            halvings -= 1;
+        }
     }
     prev
+}
+
+/// The most times a step of [`follow_ray`] is halved before an assignment
+/// decides it.
+const MAX_HALVINGS: u32 = 6;
+
+/// The pairing of one continuation step when it is clear ([`pair_into`]'s
+/// nearest winners, or [`clusters::pair_clusters_into`] for repeated values);
+/// false when an assignment would have to decide.
+fn pair_decided_into(target: &[C64], new: &[C64], out: &mut Vec<C64>) -> bool {
+    nearest_winners_into(target, new, out) || clusters::pair_clusters_into(target, new, out)
 }
 
 /// The eigen-decomposition of a user's x-flux matrix A₁ that names the modes of
@@ -281,7 +337,7 @@ impl<'a> Frequencies<'a> {
 
     /// The numerical ω at θ followed along the ray from θ = 0 (where shapes do
     /// not decide).
-    pub(super) fn numerical_by_ray(&self, theta: &[f64]) -> Vec<C64> {
+    pub fn numerical_by_ray(&self, theta: &[f64]) -> Vec<C64> {
         follow_ray(theta, |t, out| *out = self.numerical_raw(t))
     }
 

@@ -6,6 +6,7 @@
 //! mode whose group velocity opposes the physical one is a parasitic
 //! (grid-scale) wave.
 
+mod clusters;
 pub mod curves;
 pub mod frequencies;
 pub mod maps;

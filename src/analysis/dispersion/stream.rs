@@ -55,11 +55,20 @@ struct Chunk<'a> {
 pub fn sweep(ctx: &Context, f: &Frequencies, discrete_modes: usize) -> NodeArrays {
     let grid = &ctx.grid;
     let (n, d, m) = (grid.len(), grid.points.len(), ctx.op.m);
-    let zero = C64::new(0.0, 0.0);
+    // complex zeros are written, not mapped zeroed like f64 ones: on the
+    // workers, so that first touching the pages is not one thread's job
+    let zeros = |len: usize| -> Vec<C64> {
+        ctx.par.run(|| {
+            (0..len)
+                .into_par_iter()
+                .map(|_| C64::new(0.0, 0.0))
+                .collect()
+        })
+    };
     let mut out = NodeArrays {
-        numerical: vec![zero; n * m],
-        exact: vec![zero; n * m],
-        discrete: vec![zero; n * discrete_modes],
+        numerical: zeros(n * m),
+        exact: zeros(n * m),
+        discrete: zeros(n * discrete_modes),
         group: vec![0.0; n * m * d],
         group_exact: vec![0.0; n * m * d],
         group_discrete: vec![0.0; n * m * d],

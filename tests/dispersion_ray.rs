@@ -1,0 +1,205 @@
+//! Mode identity by continuation along the ray, against a fine continuation.
+//!
+//! Where eigenvector shapes do not name the numerical modes, the dispersion
+//! analysis follows the semi-discrete spectrum from the long-wave limit
+//! (ascending Re ω at s = 1e-4 of the wavevector) to the wavevector itself,
+//! with a few geometric steps that are halved wherever a step's pairing is not
+//! clear. The reference here is written independently of the engine's
+//! continuation: 2,000 geometric steps, each paired by the least total distance
+//! over every permutation (brute force), with a linear prediction from the two
+//! previous points. Both must give the same frequency to every mode, to
+//! rounding, at every node of coarse grids of four bundled cases (2-D and 3-D
+//! Euler, acoustics, a supersonic tunnel) and along the grid-scale edge
+//! θx = −π of the peer case, where the frequencies change fastest.
+
+#[path = "support/mod.rs"]
+mod support;
+
+use kgain::analysis::dispersion::frequencies::Frequencies;
+use kgain::case::Case;
+use num_complex::Complex64 as C64;
+
+/// Start of the ray (relative), as in the engine.
+const START: f64 = 1e-4;
+/// Steps of the reference continuation.
+const FINE_STEPS: usize = 2000;
+
+fn load(path: &str, overrides: &[&str]) -> Case {
+    let text = std::fs::read_to_string(path).expect("bundled case");
+    let all: Vec<String> = overrides.iter().map(|s| s.to_string()).collect();
+    support::case_with(&text, &all)
+}
+
+/// Every permutation of 0..m (m ≤ 6), in lexicographic order.
+fn permutations(m: usize) -> Vec<Vec<usize>> {
+    if m == 0 {
+        return vec![Vec::new()];
+    }
+    let mut all = Vec::new();
+    for rest in permutations(m - 1) {
+        for at in 0..m {
+            let mut p = rest.clone();
+            p.insert(at, m - 1);
+            all.push(p);
+        }
+    }
+    all
+}
+
+/// `new` reordered so that the total distance to `target` is least.
+fn closest(target: &[C64], new: &[C64], perms: &[Vec<usize>]) -> Vec<C64> {
+    let cost = |p: &[usize]| -> f64 {
+        p.iter()
+            .zip(target)
+            .map(|(&j, t)| (t - new[j]).norm())
+            .sum()
+    };
+    let best = perms
+        .iter()
+        .min_by(|a, b| cost(a).total_cmp(&cost(b)))
+        .expect("at least one permutation");
+    best.iter().map(|&j| new[j]).collect()
+}
+
+/// The semi-discrete frequencies at θ followed from the long-wave limit with
+/// [`FINE_STEPS`] geometric steps, and the largest |ω| met on the way (the
+/// scale of rounding: at a wavevector where every frequency vanishes, as for
+/// central differences at θ = (0, π), they are rounding noise in any order).
+fn fine_continuation(f: &Frequencies, theta: &[f64], perms: &[Vec<usize>]) -> (Vec<C64>, f64) {
+    let at = |s: f64| -> Vec<f64> { theta.iter().map(|t| t * s).collect() };
+    let mut prev = f.numerical_raw(&at(START));
+    prev.sort_by(|a, b| a.re.total_cmp(&b.re));
+    let ratio = (1.0 / START).powf(1.0 / FINE_STEPS as f64);
+    let (mut prev2, mut s_prev, mut s_prev2) = (prev.clone(), START, START);
+    let mut largest = 0.0f64;
+    for k in 1..=FINE_STEPS {
+        let s = if k == FINE_STEPS {
+            1.0
+        } else {
+            START * ratio.powi(k as i32)
+        };
+        let predicted: Vec<C64> = if k == 1 {
+            prev.iter().map(|a| a * (s / s_prev)).collect()
+        } else {
+            let slope = (s - s_prev) / (s_prev - s_prev2);
+            prev.iter()
+                .zip(&prev2)
+                .map(|(a, b)| a + (a - b) * slope)
+                .collect()
+        };
+        let next = closest(&predicted, &f.numerical_raw(&at(s)), perms);
+        largest = next.iter().map(|w| w.norm()).fold(largest, f64::max);
+        prev2 = std::mem::replace(&mut prev, next);
+        (s_prev2, s_prev) = (s_prev, s);
+    }
+    (prev, largest)
+}
+
+/// The engine's continuation equals the fine one at every θ of `thetas`.
+fn agrees_with_the_fine_continuation(case: &Case, thetas: &[Vec<f64>]) {
+    let problem = &case.problem;
+    let op = problem.operator();
+    let f = Frequencies::new(problem, &op);
+    let perms = permutations(op.m);
+    let mut compared = 0;
+    for theta in thetas {
+        let got = f.numerical_by_ray(theta);
+        let (want, scale) = fine_continuation(&f, theta, &perms);
+        let same = got
+            .iter()
+            .zip(&want)
+            .all(|(g, w)| (g - w).norm() <= 1e-9 * scale);
+        assert!(
+            same,
+            "{}: at theta = {theta:?} the engine's continuation gives {got:?}, the fine one {want:?}",
+            problem.name
+        );
+        compared += 1;
+    }
+    assert_eq!(compared, thetas.len());
+}
+
+/// The nodes of an n^d grid over [−π, π)^d (θ = 0 left out: no ray).
+fn grid(n: usize, dims: usize) -> Vec<Vec<f64>> {
+    let coord = |i: usize| -std::f64::consts::PI + 2.0 * std::f64::consts::PI * i as f64 / n as f64;
+    let total = n.pow(dims as u32);
+    (0..total)
+        .map(|flat| {
+            let mut rest = flat;
+            (0..dims)
+                .map(|_| {
+                    let c = coord(rest % n);
+                    rest /= n;
+                    c
+                })
+                .collect::<Vec<f64>>()
+        })
+        .filter(|t| t.iter().any(|x| *x != 0.0))
+        .collect()
+}
+
+#[test]
+fn two_d_euler_peer_case_every_node_of_a_coarse_grid() {
+    let case = load("bench/peer-euler2d.toml", &[]);
+    agrees_with_the_fine_continuation(&case, &grid(24, 2));
+}
+
+#[test]
+fn two_d_euler_peer_case_along_the_grid_scale_edge() {
+    // θx = −π: the x-derivative's symbol vanishes there, so the acoustic
+    // frequencies move fastest over the last stretch of every ray
+    let case = load("bench/peer-euler2d.toml", &[]);
+    let n = 513;
+    let thetas: Vec<Vec<f64>> = (0..n)
+        .step_by(4)
+        .map(|j| {
+            let ty = -std::f64::consts::PI + 2.0 * std::f64::consts::PI * j as f64 / (n - 1) as f64;
+            vec![-std::f64::consts::PI, ty]
+        })
+        .collect();
+    agrees_with_the_fine_continuation(&case, &thetas);
+}
+
+#[test]
+fn the_acoustic_wave_keeps_its_name_at_the_grid_scale_edge() {
+    // With central differences the semi-discrete frequencies of the 2-D Euler
+    // equations are u·κ − c|κ|, u·κ (twice) and u·κ + c|κ| for the modified
+    // wavevector κ(θ), which vanishes only at θ = 0: along a ray they never
+    // cross, so continuation must return them in ascending order. Twenty fixed
+    // geometric steps gave the slow acoustic wave's name to a convected one
+    // here (the last step, from 0.63θ to θ, was too long).
+    let case = load("bench/peer-euler2d.toml", &[]);
+    let op = case.problem.operator();
+    let f = Frequencies::new(&case.problem, &op);
+    let theta = [-std::f64::consts::PI, -0.748582624488193];
+    let got = f.numerical_by_ray(&theta);
+    let mut sorted = f.numerical_raw(&theta);
+    sorted.sort_by(|a, b| a.re.total_cmp(&b.re));
+    let scale = sorted.iter().map(|w| w.norm()).fold(0.0, f64::max);
+    for (g, w) in got.iter().zip(&sorted) {
+        assert!(
+            (g - w).norm() <= 1e-12 * scale,
+            "{got:?} is not in ascending order {sorted:?}"
+        );
+    }
+    // and the slow acoustic wave is well apart from the convected pair
+    assert!((sorted[1] - sorted[0]).norm() > 0.1 * scale);
+}
+
+#[test]
+fn acoustics_in_a_duct_every_node_of_a_coarse_grid() {
+    let case = load("cases/duct-acoustics.toml", &[]);
+    agrees_with_the_fine_continuation(&case, &grid(24, 2));
+}
+
+#[test]
+fn supersonic_tunnel_every_node_of_a_coarse_grid() {
+    let case = load("cases/tunnel-euler-mach.toml", &[]);
+    agrees_with_the_fine_continuation(&case, &grid(24, 2));
+}
+
+#[test]
+fn three_d_euler_combustor_every_node_of_a_coarse_grid() {
+    let case = load("cases/combustor-euler3d.toml", &[]);
+    agrees_with_the_fine_continuation(&case, &grid(8, 3));
+}
