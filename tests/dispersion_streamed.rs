@@ -12,7 +12,8 @@
 //! staggered grids, 1-D and 3-D):
 //!
 //! - frequencies and the maps derived from frequencies alone equal the
-//!   reference to 1e-12 (in fact bit for bit);
+//!   reference to 1e-12 (bit for bit where the sweep computes the node; where
+//!   it copies the mirror image −θ, to rounding: `tests/dispersion_mirror.rs`);
 //! - group velocities agree to 1e-4 of the model's speed: the reference's
 //!   differences with δ = 1e-6 lose the rounding of the eigenvalues over 2δ,
 //!   while the streamed values are exact to rounding (`tests/dispersion.rs`
@@ -106,6 +107,12 @@ fn cluster_agrees(cluster: &[usize], got: &[f64], want: &[f64], dims: usize, tol
 
 /// Every node of `case`'s dispersion arrays against the reference methods.
 fn agrees_with_the_reference(case: &Case) {
+    agrees_with_the_reference_to(case, TOL);
+}
+
+/// [`agrees_with_the_reference`] with the maps derived from frequencies
+/// compared to `map_rounding` of max(|value|, 1).
+fn agrees_with_the_reference_to(case: &Case, map_rounding: f64) {
     let r = support::analyse_par(case, 2);
     let d = dispersion(&r);
     let problem = &case.problem;
@@ -210,7 +217,13 @@ fn agrees_with_the_reference(case: &Case) {
             let what = format!("{}: map {k} at {n}", case.problem.name);
             match k {
                 // from frequencies alone
-                0 | 1 | 6 | 7 | 10 | 11 => same(*g, *w, w.abs().max(1e-300), &what),
+                // (ratios of order one: 1e-12 of max(|value|, 1), since a ratio
+                // that is zero to rounding, ~1e-17, is noise either way)
+                0 | 1 | 6 | 7 | 10 | 11 => {
+                    let ok = (g - w).abs() <= map_rounding * w.abs().max(1.0)
+                        || (g.is_nan() && w.is_nan());
+                    assert!(ok, "{what}: streamed {g:e}, reference {w:e}");
+                }
                 // angles between nearly parallel velocities: acos amplifies
                 // the reference's 1e-10 to about 1e-5 radian
                 // angles: only between velocities of a size that fixes them
@@ -314,10 +327,14 @@ fn crank_nicolson_diffusion_matches_the_reference() {
 
 #[test]
 fn three_d_euler_matches_the_reference() {
-    agrees_with_the_reference(&load(
-        "cases/combustor-euler3d.toml",
-        &["scan.points=[9,9,9]"],
-    ));
+    // mirrored nodes: this symbol's acoustic eigenvalues carry rounding
+    // amplified by its ill-conditioned eigenvectors (ρc² next to 1/ρ), so
+    // the per-node reference itself differs between θ and −θ by up to 3e-12 in
+    // ω and 1e-11 in the amplitude maps (tests/dispersion_mirror.rs)
+    agrees_with_the_reference_to(
+        &load("cases/combustor-euler3d.toml", &["scan.points=[9,9,9]"]),
+        1e-10,
+    );
 }
 
 #[test]

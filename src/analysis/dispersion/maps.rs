@@ -123,7 +123,8 @@ impl DerivedMaps {
     pub fn zeroed(len: usize) -> Self {
         let mut maps = DerivedMaps::default();
         for column in maps.columns_mut() {
-            column.resize(len, 0.0);
+            // zeroed pages from the allocator, first touched by the workers
+            *column = vec![0.0; len];
         }
         maps
     }

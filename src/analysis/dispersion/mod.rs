@@ -10,6 +10,7 @@ mod clusters;
 pub mod curves;
 pub mod frequencies;
 pub mod maps;
+mod mirror;
 pub mod node;
 pub mod resolution;
 pub mod shape;

@@ -10,7 +10,8 @@ use super::frequencies::Frequencies;
 use super::maps::{DerivedMaps, NodeFrequencies, MAP_COUNT};
 use super::node::{NodeSlots, NodeWork};
 use crate::analysis::context::Context;
-use crate::sample::Stage;
+use crate::physics::ModelKind;
+use crate::sample::{Stage, Symmetry};
 use num_complex::Complex64 as C64;
 use rayon::prelude::*;
 
@@ -41,6 +42,8 @@ pub struct NodeArrays {
 struct Chunk<'a> {
     first: usize,
     nodes: usize,
+    /// Fully discrete frequencies per node.
+    discrete_modes: usize,
     numerical: &'a mut [C64],
     exact: &'a mut [C64],
     discrete: &'a mut [C64],
@@ -51,8 +54,35 @@ struct Chunk<'a> {
 }
 
 /// Every node of the context's grid, with `discrete_modes` fully discrete
-/// frequencies per node.
+/// frequencies per node; half of them mirrored where [`mirrors`] allows.
 pub fn sweep(ctx: &Context, f: &Frequencies, discrete_modes: usize) -> NodeArrays {
+    sweep_with(ctx, f, discrete_modes, true)
+}
+
+/// Whether the nodes of the second half of the grid may be copied from their
+/// mirror images −θ in the first (see [`mirror`]): real coefficients (L(−θ) is
+/// the complex conjugate of L(θ), as for the radius map), no source or
+/// diffusion (the exact spectrum scales along the ray, so every mode order is
+/// ascending frequency, which the mirror reverses), one of kgain's own models
+/// (a user's `linear` system names its modes by the shapes of its x-flux
+/// matrix's eigenvectors instead), and a one-step method, whose fully
+/// discrete modes are the principal roots alone.
+pub fn mirrors(ctx: &Context, f: &Frequencies, discrete_modes: usize) -> bool {
+    ctx.symmetry() == Symmetry::Even
+        && f.homogeneous()
+        && ctx.problem.system.kind != ModelKind::Linear
+        && !ctx.is_composite()
+        && discrete_modes == ctx.op.m
+}
+
+/// [`sweep`], copying mirror images only when `mirror` is asked and
+/// [`mirrors`] allows it (false: every node computed).
+pub fn sweep_with(
+    ctx: &Context,
+    f: &Frequencies,
+    discrete_modes: usize,
+    mirror: bool,
+) -> NodeArrays {
     let grid = &ctx.grid;
     let (n, d, m) = (grid.len(), grid.points.len(), ctx.op.m);
     // complex zeros are written, not mapped zeroed like f64 ones: on the
@@ -75,9 +105,21 @@ pub fn sweep(ctx: &Context, f: &Frequencies, discrete_modes: usize) -> NodeArray
         maps: DerivedMaps::zeroed(n * m),
         opposed: vec![0; m],
     };
-    let chunks = cut(&mut out, n, m, d, discrete_modes);
+    // the first `computed` nodes are computed (the middle row included, so
+    // that every node of the rest has its mirror image among them)
+    let row = grid.points[d - 1];
+    let computed = if mirror && mirrors(ctx, f, discrete_modes) {
+        crate::sample::computed_rows(grid, Symmetry::Even) * row
+    } else {
+        n
+    };
+    let mut chunks = cut(&mut out, n, m, d, discrete_modes);
+    chunks.retain(|c| c.first < computed);
+    for c in chunks.iter_mut() {
+        c.nodes = c.nodes.min(computed - c.first);
+    }
     ctx.progress.start(Stage::Dispersion, n as u64);
-    let opposed = ctx.par.run(|| {
+    let mut opposed = ctx.par.run(|| {
         chunks
             .into_par_iter()
             .map_init(
@@ -89,6 +131,15 @@ pub fn sweep(ctx: &Context, f: &Frequencies, discrete_modes: usize) -> NodeArray
                 |a, b| a.iter().zip(&b).map(|(x, y)| x + y).collect(),
             )
     });
+    if computed < n {
+        let more = ctx
+            .par
+            .run(|| super::mirror::mirror(&mut out, computed, m, d));
+        for (o, k) in opposed.iter_mut().zip(more) {
+            *o += k;
+        }
+        ctx.progress.advance((n - computed) as u64);
+    }
     ctx.progress.finish();
     out.opposed = opposed;
     out
@@ -121,6 +172,7 @@ fn cut<'a>(
         chunks.push(Chunk {
             first,
             nodes: c.min(n - first),
+            discrete_modes,
             numerical: numerical.next().unwrap_or_default(),
             exact: exact.next().unwrap_or_default(),
             discrete: discrete.next().unwrap_or_default(),
@@ -144,7 +196,7 @@ fn fill(
 ) -> Vec<usize> {
     let grid = &ctx.grid;
     let (m, d) = (ctx.op.m, theta.len());
-    let dm = chunk.discrete.len() / chunk.nodes;
+    let dm = chunk.discrete_modes;
     let mut opposed = vec![0; m];
     for i in 0..chunk.nodes {
         grid.unravel(chunk.first + i, idx);
