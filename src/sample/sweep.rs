@@ -166,8 +166,11 @@ where
             }
         }
         Par::Threads(_) => par.run(|| {
+            // one row per task, so that a worker never commits to a long
+            // stretch of costly rows while the other waits
             head.par_chunks_mut(row)
                 .enumerate()
+                .with_max_len(1)
                 .for_each_init(&init, |ws, item| counted(ws, item));
         }),
     }

@@ -120,8 +120,12 @@ pub fn sweep_with(
     }
     ctx.progress.start(Stage::Dispersion, n as u64);
     let mut opposed = ctx.par.run(|| {
+        // one chunk per task: the cost per node varies by orders of magnitude
+        // (continuation near θ = ±π), and a worker's committed stretch of
+        // chunks could otherwise leave the other idle at the end
         chunks
             .into_par_iter()
+            .with_max_len(1)
             .map_init(
                 || (NodeWork::new(m, d), vec![0usize; d], vec![0.0; d]),
                 |(work, idx, theta), chunk| fill(ctx, f, work, idx, theta, chunk),
