@@ -131,16 +131,14 @@ pub fn checksum(path: &Path) -> std::io::Result<(u64, String)> {
         size += n as u64;
         hasher.update(&buf[..n]);
     }
-    let hex: String = hasher
-        .finalize()
-        .iter()
-        .map(|b| format!("{b:02x}"))
-        .collect();
-    Ok((size, hex))
+    Ok((size, super::hashing::hex(&hasher.finalize())))
 }
 
 /// Lists and checksums every file in `dir`, completes `manifest` with the list,
-/// writes it and then the marker. Returns every name written.
+/// writes it and then the marker. Returns every name written. A file the
+/// manifest's `files` already lists with its size and SHA-256 (summed as it was
+/// written, [`HashingFile`](super::hashing::HashingFile)) keeps that entry;
+/// every other file is read back and summed.
 pub(super) fn seal(dir: &Path, mut manifest: Value, owner: &Owner) -> std::io::Result<Vec<String>> {
     let mut names: Vec<String> = std::fs::read_dir(dir)?
         .filter_map(|e| e.ok())
@@ -151,9 +149,16 @@ pub(super) fn seal(dir: &Path, mut manifest: Value, owner: &Owner) -> std::io::R
     names.sort();
     // one file per worker of the caller's pool: hashing ~200 MB of arrays
     // serially was the longest single-threaded stretch of a large run
+    let known = |n: &str| -> Option<(u64, String)> {
+        let entry = manifest.get("files")?.get(n)?;
+        Some((
+            entry.get("size")?.as_u64()?,
+            entry.get("sha256")?.as_str()?.to_string(),
+        ))
+    };
     let sums: Vec<(u64, String)> = names
         .par_iter()
-        .map(|n| checksum(&dir.join(n)))
+        .map(|n| known(n).map_or_else(|| checksum(&dir.join(n)), Ok))
         .collect::<std::io::Result<_>>()?;
     let mut files = serde_json::Map::new();
     for (n, (size, sha256)) in names.iter().zip(sums) {

@@ -21,6 +21,7 @@
 //! them that kgain did not write is moved back, never deleted.
 
 mod carry;
+pub mod hashing;
 mod lock;
 pub mod marker;
 mod names;

@@ -87,11 +87,14 @@ pub fn write_into(dir: &Path, problem: &Problem, results: &Results) -> Result<Va
         || npy::write_all(dir, &arrays),
         || plot::write_pictures(dir, problem, results),
     );
+    let (described, sums) = written?;
     let mut manifest = serde_json::json!({
         "format": "kgain output",
         "version": 1,
         "case": problem.name,
-        "arrays": Value::Object(written?),
+        "arrays": Value::Object(described),
+        // completed (and checked against the folder) by the destination's seal
+        "files": Value::Object(sums),
     });
     let pictures = pictures?;
     manifest["pictures"] = pictures

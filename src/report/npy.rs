@@ -10,7 +10,9 @@
 //! into one xarray Dataset. Files are written in parallel.
 
 use super::ReportError;
+use crate::destination::hashing::HashingFile;
 use ndarray::{ArrayViewD, IxDyn};
+use ndarray_npy::WriteNpyExt;
 use num_complex::Complex64 as C64;
 use rayon::prelude::*;
 use serde_json::{json, Map, Value};
@@ -134,23 +136,29 @@ impl<'a> Array<'a> {
         e
     }
 
-    fn write(&self, dir: &Path) -> Result<(), ReportError> {
-        let path = dir.join(format!("{}.npy", self.name));
-        let shape = IxDyn(&self.shape);
-        let written =
-            match &self.data {
-                Data::Real(v) => ArrayViewD::from_shape(shape, v.as_ref())
-                    .map(|a| ndarray_npy::write_npy(&path, &a)),
-                Data::Complex(v) => ArrayViewD::from_shape(shape, v.as_ref())
-                    .map(|a| ndarray_npy::write_npy(&path, &a)),
-            };
+    /// Writes the file; returns its name, size and SHA-256 (summed as written).
+    fn write(&self, dir: &Path) -> Result<(String, u64, String), ReportError> {
+        let file = format!("{}.npy", self.name);
+        let path = dir.join(&file);
         let npy = |message: String| ReportError::Npy {
             path: path.display().to_string(),
             message,
         };
+        let mut out = HashingFile::create(&path).map_err(|e| npy(e.to_string()))?;
+        let shape = IxDyn(&self.shape);
+        let written = match &self.data {
+            Data::Real(v) => {
+                ArrayViewD::from_shape(shape, v.as_ref()).map(|a| a.write_npy(&mut out))
+            }
+            Data::Complex(v) => {
+                ArrayViewD::from_shape(shape, v.as_ref()).map(|a| a.write_npy(&mut out))
+            }
+        };
         written
             .map_err(|e| npy(e.to_string()))?
-            .map_err(|e| npy(e.to_string()))
+            .map_err(|e| npy(e.to_string()))?;
+        let (size, sum) = out.finish().map_err(|e| npy(e.to_string()))?;
+        Ok((file, size, sum))
     }
 }
 
@@ -168,9 +176,21 @@ pub fn plain(name: &'static str) -> (&'static str, Option<String>) {
     (name, None)
 }
 
-/// Writes every array into `dir` (in parallel) and returns the manifest's
-/// `arrays` object.
-pub fn write_all(dir: &Path, arrays: &[Array]) -> Result<Map<String, Value>, ReportError> {
-    arrays.par_iter().try_for_each(|a| a.write(dir))?;
-    Ok(arrays.iter().map(|a| (a.name.clone(), a.entry())).collect())
+/// Writes every array into `dir` (in parallel); returns the manifest's
+/// `arrays` object and, for its `files` inventory, each file's size and
+/// SHA-256 as written.
+pub fn write_all(
+    dir: &Path,
+    arrays: &[Array],
+) -> Result<(Map<String, Value>, Map<String, Value>), ReportError> {
+    let sums: Vec<(String, u64, String)> = arrays
+        .par_iter()
+        .map(|a| a.write(dir))
+        .collect::<Result<_, _>>()?;
+    let files = sums
+        .into_iter()
+        .map(|(file, size, sum)| (file, json!({ "size": size, "sha256": sum })))
+        .collect();
+    let described = arrays.iter().map(|a| (a.name.clone(), a.entry())).collect();
+    Ok((described, files))
 }

@@ -69,6 +69,35 @@ fn radius_map_is_one_at_zero_wavevector_and_its_maximum_is_reported() {
 }
 
 #[test]
+fn the_inventory_sums_are_those_of_the_files_read_back() {
+    // arrays are summed as they are written, everything else read back: each
+    // listed size and SHA-256 must be that of the file on disk
+    let cf = CaseFile::new("tiny", TINY);
+    let (out, _) = run_ok(&cf, &[]);
+    let manifest = read_json(&out.join("manifest.json"));
+    let files = manifest["files"].as_object().expect("manifest.files");
+    let npys = listing(&out)
+        .into_iter()
+        .filter(|f| f.ends_with(".npy"))
+        .count();
+    assert!(
+        npys > 0 && files.len() > npys,
+        "{} files listed, {npys} arrays",
+        files.len()
+    );
+    for (name, entry) in files {
+        let (size, sum) = kgain::destination::marker::checksum(&out.join(name)).expect("readable");
+        assert_eq!(entry["size"].as_u64(), Some(size), "{name}: size");
+        assert_eq!(
+            entry["sha256"].as_str(),
+            Some(sum.as_str()),
+            "{name}: sha256"
+        );
+    }
+    assert_eq!(kgain::destination::marker::verify(&out), Ok(()));
+}
+
+#[test]
 fn manifest_describes_every_array_in_the_folder() {
     let cf = CaseFile::new("tiny", TINY);
     let (out, _) = run_ok(&cf, &[]);

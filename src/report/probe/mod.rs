@@ -41,12 +41,15 @@ pub fn write_probe_into(
         || npy::write_all(dir, &list),
         || pictures::write(dir, case, results),
     );
+    let (described, sums) = written?;
     let mut manifest = serde_json::json!({
         "format": "kgain output",
         "version": 1,
         "case": case.name,
         "kind": "probe",
-        "arrays": Value::Object(written?),
+        "arrays": Value::Object(described),
+        // completed (and checked against the folder) by the destination's seal
+        "files": Value::Object(sums),
     });
     manifest["pictures"] = pictures?.into();
     let summary = probe_summary_json(case, results);
