@@ -87,7 +87,7 @@ pub fn write_into(dir: &Path, problem: &Problem, results: &Results) -> Result<Va
         || npy::write_all(dir, &arrays),
         || plot::write_pictures(dir, problem, results),
     );
-    let (described, sums) = written?;
+    let npy::Written { described, sums } = written?;
     let mut manifest = serde_json::json!({
         "format": "kgain output",
         "version": 1,

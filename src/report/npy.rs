@@ -176,13 +176,17 @@ pub fn plain(name: &'static str) -> (&'static str, Option<String>) {
     (name, None)
 }
 
-/// Writes every array into `dir` (in parallel); returns the manifest's
-/// `arrays` object and, for its `files` inventory, each file's size and
-/// SHA-256 as written.
-pub fn write_all(
-    dir: &Path,
-    arrays: &[Array],
-) -> Result<(Map<String, Value>, Map<String, Value>), ReportError> {
+/// What [`write_all`] returns: the manifest's `arrays` object and, for its
+/// `files` inventory, each file's size and SHA-256 as written.
+pub struct Written {
+    /// The `arrays` object.
+    pub described: Map<String, Value>,
+    /// `{file: {size, sha256}}`.
+    pub sums: Map<String, Value>,
+}
+
+/// Writes every array into `dir` (in parallel).
+pub fn write_all(dir: &Path, arrays: &[Array]) -> Result<Written, ReportError> {
     let sums: Vec<(String, u64, String)> = arrays
         .par_iter()
         .map(|a| a.write(dir))
@@ -192,5 +196,8 @@ pub fn write_all(
         .map(|(file, size, sum)| (file, json!({ "size": size, "sha256": sum })))
         .collect();
     let described = arrays.iter().map(|a| (a.name.clone(), a.entry())).collect();
-    Ok((described, files))
+    Ok(Written {
+        described,
+        sums: files,
+    })
 }

@@ -41,7 +41,7 @@ pub fn write_probe_into(
         || npy::write_all(dir, &list),
         || pictures::write(dir, case, results),
     );
-    let (described, sums) = written?;
+    let npy::Written { described, sums } = written?;
     let mut manifest = serde_json::json!({
         "format": "kgain output",
         "version": 1,
