@@ -18,14 +18,17 @@
 //!   from eigenvectors): 1e-9 of the largest; among modes of equal frequency
 //!   each axis's components are compared as a set, since a repeated
 //!   eigenvalue's slopes along each axis are dealt out to its modes in an
-//!   arbitrary order in either computation;
+//!   arbitrary order in either computation; where every mode has the same
+//!   frequency (κ = 0 at the grid's corners and edges, a standing grid-scale
+//!   wave) they come from differences that pair branches arbitrarily and are
+//!   not compared (at most 5 % of the (node, mode) pairs: 4 % on the 16 × 9
+//!   grid, whose six nodes with each axis at 0 or ±π are 4 % of it);
 //! - fully discrete group velocities, central differences with δ = 1e-6 in
 //!   the frequency (rounding ε|ω|/δ ≈ 1e-10 relative): 1e-8 of the largest;
 //! - derived maps (ratios of order one): 1e-8 of max(|value|, 1), angles
 //!   1e-6 radian (acos of a cosine within rounding of 1 is only known to √ε);
 //! - parasitic-wave counts equal, up to the (node, mode) pairs whose vectors
-//!   were dealt out differently (fully degenerate nodes at the 3-D grid's
-//!   edges and corners, where every frequency is the same; at most 1 %).
+//!   were dealt out differently (inside clusters of equal frequency).
 
 #[path = "support/mod.rs"]
 mod support;
@@ -122,6 +125,13 @@ fn close_groups(
                 continue;
             }
             let class: Vec<usize> = (0..m).filter(|k| (w[*k] - w[j]).norm() <= same).collect();
+            if m > 1 && class.len() == m {
+                // every mode at one frequency (κ = 0: each axis at 0 or ±π, a
+                // standing grid-scale wave): the slopes come from differences
+                // that pair branches arbitrarily, in either computation
+                own[i * m..(i + 1) * m].fill(false);
+                break;
+            }
             let vectors = |a: &[f64]| -> Vec<Vec<f64>> {
                 class
                     .iter()
@@ -211,7 +221,7 @@ fn check(case: &Case, frequency_rel: f64) {
     ];
     let skipped = full.iter().filter(|x| !**x).count();
     assert!(
-        skipped * 100 <= full.len(),
+        skipped * 20 <= full.len(),
         "{skipped} of {} (node, mode) pairs have group velocities dealt out differently",
         full.len()
     );
@@ -248,6 +258,16 @@ fn maps_of(a: &NodeArrays) -> Vec<Vec<f64>> {
 fn two_d_euler_peer_case() {
     check(
         &load("bench/peer-euler2d.toml", &["scan.points=[65,65]"]),
+        1e-12,
+    );
+}
+
+#[test]
+fn two_d_euler_on_an_even_by_odd_grid() {
+    // an even number of rows: the middle row is not a row of nodes, and every
+    // copied row has its image among the computed ones all the same
+    check(
+        &load("bench/peer-euler2d.toml", &["scan.points=[16,9]"]),
         1e-12,
     );
 }
