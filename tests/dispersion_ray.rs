@@ -149,13 +149,11 @@ fn two_d_euler_peer_case_along_the_grid_scale_edge() {
     // θx = −π: the x-derivative's symbol vanishes there, so the acoustic
     // frequencies move fastest over the last stretch of every ray
     let case = load("bench/peer-euler2d.toml", &[]);
-    let n = 513;
-    let thetas: Vec<Vec<f64>> = (0..n)
+    // every fourth θy of kgain's 513-point axis
+    let thetas: Vec<Vec<f64>> = kgain::sample::axis_coords(513)
+        .into_iter()
         .step_by(4)
-        .map(|j| {
-            let ty = -std::f64::consts::PI + 2.0 * std::f64::consts::PI * j as f64 / (n - 1) as f64;
-            vec![-std::f64::consts::PI, ty]
-        })
+        .map(|ty| vec![-std::f64::consts::PI, ty])
         .collect();
     agrees_with_the_fine_continuation(&case, &thetas);
 }

@@ -147,8 +147,8 @@ pub(super) fn seal(dir: &Path, mut manifest: Value, owner: &Owner) -> std::io::R
         .filter(|n| n != MANIFEST && n != MARKER && n != STAGING_LABEL)
         .collect();
     names.sort();
-    // one file per worker of the caller's pool: hashing ~200 MB of arrays
-    // serially was the longest single-threaded stretch of a large run
+    // files summed as they were written keep their sums; the rest are read
+    // back, one file per worker of the caller's pool
     let known = |n: &str| -> Option<(u64, String)> {
         let entry = manifest.get("files")?.get(n)?;
         Some((

@@ -16,6 +16,7 @@
 //! map), so the second half of the arrays is the first half read backwards,
 //! modes reversed.
 
+use super::opposes;
 use super::stream::NodeArrays;
 use num_complex::Complex64 as C64;
 use rayon::prelude::*;
@@ -47,12 +48,7 @@ pub(super) fn mirror(out: &mut NodeArrays, computed: usize, m: usize, d: usize) 
             (computed..n)
                 .filter(|f| {
                     let at = (f * m + j) * d;
-                    let dot: f64 = group[at..at + d]
-                        .iter()
-                        .zip(&group_exact[at..at + d])
-                        .map(|(a, b)| a * b)
-                        .sum();
-                    dot < 0.0
+                    opposes(&group[at..at + d], &group_exact[at..at + d])
                 })
                 .count()
         })

@@ -173,6 +173,12 @@ pub fn group_ratio(gn: &[f64], ge: &[f64]) -> (f64, f64) {
     (dot / e2, cos.acos())
 }
 
+/// Whether a numerical group velocity opposes the exact one (a parasitic,
+/// grid-scale wave): their dot product is negative.
+pub(super) fn opposes(gn: &[f64], ge: &[f64]) -> bool {
+    gn.iter().zip(ge).map(|(a, b)| a * b).sum::<f64>() < 0.0
+}
+
 /// The dispersion analysis.
 pub(super) fn analyse(ctx: &Context, p: &DispersionParams) -> DispersionResult {
     let (grid, dt) = (&ctx.grid, ctx.dt);

@@ -9,6 +9,7 @@
 use super::frequencies::Frequencies;
 use super::maps::{DerivedMaps, NodeFrequencies, MAP_COUNT};
 use super::node::{NodeSlots, NodeWork};
+use super::opposes;
 use crate::analysis::context::Context;
 use crate::physics::ModelKind;
 use crate::sample::{Stage, Symmetry};
@@ -234,12 +235,8 @@ fn fill(
             for (map, v) in chunk.maps.iter_mut().zip(node.map_values(j, scale)) {
                 map[i * m + j] = v;
             }
-            let (gn, ge) = (
-                &node.group[j * d..(j + 1) * d],
-                &node.group_exact[j * d..(j + 1) * d],
-            );
-            let dot: f64 = gn.iter().zip(ge).map(|(a, b)| a * b).sum();
-            if dot < 0.0 {
+            let modes = j * d..(j + 1) * d;
+            if opposes(&node.group[modes.clone()], &node.group_exact[modes]) {
                 *count += 1;
             }
         }
