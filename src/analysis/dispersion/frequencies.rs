@@ -127,8 +127,8 @@ fn nearest_winners_into(target: &[C64], new: &[C64], out: &mut Vec<C64>) -> bool
 /// linearly. A step is accepted when the pairing of predicted and new values
 /// is clear — every prediction's nearest value (or cluster of equal values) a
 /// clear winner, [`pair_decided_into`] — and halved otherwise, up to
-/// [`MAX_HALVINGS`] times, before the least-total-distance assignment decides
-/// it: where branches come close or the last stretch of the ray bends (the
+/// [`MAX_HALVINGS`] times and within [`MAX_EVALUATIONS`] per ray, before the
+/// least-total-distance assignment decides it: where branches come close or the last stretch of the ray bends (the
 /// frequencies of a grid-scale wave change fast near θ = ±π), a long step's
 /// linear prediction can sit nearer the wrong branch.
 pub(super) fn follow_ray(theta: &[f64], mut freq: impl FnMut(&[f64], &mut Vec<C64>)) -> Vec<C64> {
@@ -157,14 +157,21 @@ pub(super) fn follow_ray(theta: &[f64], mut freq: impl FnMut(&[f64], &mut Vec<C6
             START * ratio.powf(f64::from(pos) / f64::from(unit))
         }
     };
-    let (mut pos, mut halvings) = (0u32, 0u32);
+    let (mut pos, mut halvings, mut evaluations) = (0u32, 0u32, 0usize);
     let mut s_prev = START;
     let mut s_prev2 = START;
     while pos < end {
-        let step = unit >> halvings;
+        let refine = evaluations < MAX_EVALUATIONS;
+        // out of budget: straight on to the next nominal point
+        let step = if refine {
+            unit >> halvings
+        } else {
+            unit - pos % unit
+        };
         let s = s_at(pos + step);
         at(s, &mut point);
         freq(&point, &mut raw);
+        evaluations += 1;
         predicted.clear();
         if pos == 0 {
             predicted.extend(prev.iter().map(|a| a * (s / s_prev)));
@@ -173,7 +180,7 @@ pub(super) fn follow_ray(theta: &[f64], mut freq: impl FnMut(&[f64], &mut Vec<C6
             predicted.extend(prev.iter().zip(&prev2).map(|(a, b)| a + (a - b) * slope));
         }
         if !pair_decided_into(&predicted, &raw, &mut next) {
-            if halvings < MAX_HALVINGS {
+            if refine && halvings < MAX_HALVINGS {
                 halvings += 1;
                 continue;
             }
@@ -188,6 +195,9 @@ pub(super) fn follow_ray(theta: &[f64], mut freq: impl FnMut(&[f64], &mut Vec<C6
         while halvings > 0 && pos.is_multiple_of(unit >> (halvings - 1)) {
             halvings -= 1;
         }
+        if !refine {
+            halvings = 0;
+        }
     }
     prev
 }
@@ -195,6 +205,13 @@ pub(super) fn follow_ray(theta: &[f64], mut freq: impl FnMut(&[f64], &mut Vec<C6
 /// The most times a step of [`follow_ray`] is halved before an assignment
 /// decides it.
 const MAX_HALVINGS: u32 = 6;
+
+/// Eigenproblems one ray may spend before it stops halving: beyond them it
+/// goes on with nominal steps, each decided by the assignment where unclear,
+/// so a spectrum that is nowhere clear (a stencil whose symbol oscillates
+/// wildly) costs at most this plus [`TRACK_STEPS`] + 1 (a followed
+/// wavevector of the bundled cases needs about 15).
+const MAX_EVALUATIONS: usize = 256;
 
 /// The pairing of one continuation step when it is clear ([`pair_into`]'s
 /// nearest winners, or [`clusters::pair_clusters_into`] for repeated values);
