@@ -30,6 +30,28 @@ const AT_LIMIT: RGBColor = RGBColor(0xa0, 0xa4, 0xa8);
 /// Cells of the region grid along x (y in proportion).
 const CELLS: usize = 420;
 
+/// The dots of `dots` (in drawing order) worth drawing: of the dots whose
+/// centres fall on the same pixel (`pixel`) only the last, as its disc covers
+/// the earlier ones' discs. The discs' soft edge pixels are blended, so
+/// repeated discs used to darken their rims: on the 513² peer case (over
+/// 250,000 dots, most on the imaginary axis) 90 rim pixels differ from drawing
+/// every dot, by at most 34 of 255 in one channel; the drawing takes half as long.
+fn last_per_pixel<T>(
+    dots: impl Iterator<Item = (C64, T)>,
+    pixel: impl Fn(C64) -> (i32, i32),
+) -> Vec<(C64, T)> {
+    let dots: Vec<(C64, T)> = dots.collect();
+    let mut seen = std::collections::HashSet::with_capacity(dots.len());
+    let mut kept: Vec<(C64, T)> = Vec::with_capacity(dots.len());
+    for (z, t) in dots.into_iter().rev() {
+        if seen.insert(pixel(z)) {
+            kept.push((z, t));
+        }
+    }
+    kept.reverse();
+    kept
+}
+
 /// The largest stable Δt, when bounded.
 fn dt_max(r: &Results) -> Option<f64> {
     r.limit
@@ -182,22 +204,25 @@ pub fn draw(root: &Area, problem: &Problem, r: &Results, f: &FourierFootprint) -
         lo: 0.0,
         hi: std::f64::consts::PI * dims.sqrt(),
     };
+    let pixel = |z: C64| plot.map_coordinate(&(z.re, z.im));
     if let Some(s) = limit_scale {
-        for z in &f.z {
-            let w = z * s;
-            plot.draw(&Circle::new((w.re, w.im), 2, AT_LIMIT.filled()))?;
+        let dots = f.z.iter().map(|z| (z * s, AT_LIMIT));
+        for (w, colour) in last_per_pixel(dots, pixel) {
+            plot.draw(&Circle::new((w.re, w.im), 2, colour.filled()))?;
         }
     }
     // long waves last, so the small-|θ| end near the origin stays visible
     let mut order: Vec<usize> = (0..f.theta_norm.len()).collect();
     order.sort_by(|a, b| f.theta_norm[*b].total_cmp(&f.theta_norm[*a]));
-    for k in order {
+    let dots = order.into_iter().flat_map(|k| {
         let colour = scale.colour(f.theta_norm[k]);
-        for z in &f.z[k * f.m..(k + 1) * f.m] {
-            if z.re.is_finite() && z.im.is_finite() {
-                plot.draw(&Circle::new((z.re, z.im), 2, colour.filled()))?;
-            }
-        }
+        f.z[k * f.m..(k + 1) * f.m]
+            .iter()
+            .filter(|z| z.re.is_finite() && z.im.is_finite())
+            .map(move |z| (*z, colour))
+    });
+    for (z, colour) in last_per_pixel(dots, pixel) {
+        plot.draw(&Circle::new((z.re, z.im), 2, colour.filled()))?;
     }
     let (px, py) = plot.get_pixel_range();
     colormap::colour_bar(
@@ -237,4 +262,20 @@ pub fn draw(root: &Area, problem: &Problem, r: &Results, f: &FourierFootprint) -
         )?;
     }
     Ok(())
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn only_the_last_dot_on_each_pixel_is_kept_in_drawing_order() {
+        // pixels: the integer part of the real part
+        let pixel = |z: C64| (z.re.floor() as i32, 0);
+        let dots = [0.1, 1.2, 0.7, 2.5, 1.9, 0.3].map(|x| C64::new(x, 0.0));
+        let kept = last_per_pixel(dots.iter().enumerate().map(|(i, z)| (*z, i)), pixel);
+        let order: Vec<usize> = kept.iter().map(|(_, i)| *i).collect();
+        // pixel 2 last drawn by dot 3, pixel 1 by dot 4, pixel 0 by dot 5
+        assert_eq!(order, vec![3, 4, 5]);
+    }
 }
