@@ -143,3 +143,28 @@ fn wide_stencil_with_large_tableau_weights_runs() {
     let results = analyse(&case.problem, &plan, Par::Seq, &NoProgress).unwrap();
     assert!(results.limit.is_some());
 }
+
+/// user_stencils_and_tableaux, timeout (CI fuzz smoke): a 12-point stencil
+/// whose offsets reach 6.6e95 cells on 2-D acoustics, run with the dispersion
+/// analysis on the 9-point scan. Its symbol is nowhere smooth, so every step of
+/// the continuation along a ray (the modes' names where eigenvector shapes do
+/// not decide) was unclear and halved to the limit: about 560 eigenproblems per
+/// ray instead of about 15, 5.2 s on the instrumented build. Fixed: a ray
+/// spends at most 256 eigenproblems on halvings (1.2 s; the bound itself is
+/// tested in `frequencies`, where the old code took 1,017 on one ray). The case
+/// must run on the fuzz path with its dispersion analysis and report the
+/// dispersion of every mode.
+#[test]
+fn stencil_with_huge_offsets_keeps_the_dispersion_rays_short() {
+    let text = include_str!("../fuzz/findings/huge-stencil-offsets-dispersion-rays.toml");
+    assert_eq!(tiny::extra(text, &[]), Some(tiny::Extra::Dispersion));
+    let json = ran(replay(text, &[]));
+    let max = json["radius"]["max"].as_f64().expect("a radius");
+    assert!(max.is_finite() && max > 0.0, "{json:#}");
+    let modes = json["dispersion"]["modes"]
+        .as_array()
+        .expect("dispersion modes");
+    // 2-D acoustics: the two sound waves and the vorticity wave, each named
+    assert_eq!(modes.len(), 3, "{json:#}");
+    assert!(modes.iter().all(|m| m["name"].is_string()), "{json:#}");
+}

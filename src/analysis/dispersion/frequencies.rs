@@ -617,3 +617,61 @@ pub fn log_branch(lam: C64, dt: f64, near: f64) -> C64 {
     let k = ((near - base) / period).round();
     C64::new(base + k * period, lam.norm().ln() / dt)
 }
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    /// Four frequencies at `point` that jump from point to point (no smooth
+    /// branch to follow), like the symbol of a stencil with offsets of 1e95.
+    fn jumping(point: &[f64], out: &mut Vec<C64>) {
+        out.clear();
+        let seed: f64 = point.iter().sum::<f64>() * 1e4;
+        out.extend((1..=4).map(|k| {
+            let x = (seed * k as f64 * 12.9898).sin() * 43758.5453;
+            C64::new(x - x.floor(), 0.0)
+        }));
+    }
+
+    #[test]
+    fn a_ray_through_a_spectrum_that_is_nowhere_clear_keeps_its_budget() {
+        let mut calls = 0usize;
+        let out = follow_ray(&[2.5, -1.0], |point, out| {
+            calls += 1;
+            jumping(point, out);
+        });
+        // halvings stop after MAX_EVALUATIONS; the rest of the ray takes at most
+        // its nominal steps (each nominal stretch ends on a nominal point), plus the start
+        assert!(
+            calls <= MAX_EVALUATIONS + TRACK_STEPS + 1,
+            "{calls} eigenproblems on one ray"
+        );
+        // the budget was spent halving: the spectrum is unclear at almost every step
+        assert!(calls > MAX_EVALUATIONS, "{calls} eigenproblems on one ray");
+        // the result is still the spectrum at θ, in some order
+        let mut end = Vec::new();
+        jumping(&[2.5, -1.0], &mut end);
+        let key = |v: &[C64]| {
+            let mut r: Vec<f64> = v.iter().map(|z| z.re).collect();
+            r.sort_by(f64::total_cmp);
+            r
+        };
+        assert_eq!(key(&out), key(&end));
+    }
+
+    #[test]
+    fn a_smooth_ray_takes_its_nominal_steps() {
+        // ω = s·(1, 2, 3) along the ray: every step's pairing is clear
+        let mut calls = 0usize;
+        let out = follow_ray(&[1.0, 1.0], |point, out| {
+            calls += 1;
+            out.clear();
+            out.extend((1..=3).map(|k| C64::new(k as f64 * point[0], 0.0)));
+        });
+        assert_eq!(calls, TRACK_STEPS + 1);
+        assert_eq!(
+            out,
+            vec![C64::new(1.0, 0.0), C64::new(2.0, 0.0), C64::new(3.0, 0.0)]
+        );
+    }
+}
