@@ -99,11 +99,17 @@ pub fn overall(
         evidence.offer(v, &x);
     }
     polish(&mut evidence, &g, step);
-    for o in longwave::origins(dims) {
-        if degenerate(op, tolerance, &o) {
-            let lw = longwave::overall(&per, &o);
-            evidence.approach(lw);
-        }
+    // the approaches to the corners on the workers, offered in their order
+    let approaches: Vec<_> = {
+        use rayon::prelude::*;
+        longwave::origins(dims)
+            .into_par_iter()
+            .filter(|o| degenerate(op, tolerance, o))
+            .map(|o| longwave::overall(&per, &o))
+            .collect()
+    };
+    for lw in approaches {
+        evidence.approach(lw);
     }
     let (limit, bracket) = evidence.conclude(dims);
     (limit, bracket, verification)

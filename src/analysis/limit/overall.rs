@@ -15,6 +15,7 @@ use crate::numeric::minimise::{compass_min, pattern_min};
 use crate::operator::{Operator, Spectrum};
 use crate::sample::Grid;
 use num_complex::Complex64 as C64;
+use rayon::prelude::*;
 use std::f64::consts::PI;
 
 /// Wraps an angle into [−π, π].
@@ -125,20 +126,31 @@ pub fn overall(
     let step = (0..dims)
         .map(|d| grid.step(d))
         .fold(f64::INFINITY, f64::min);
-    let g = |x: &[f64]| f.at(x).bound_or_inf();
-    for c in separated(grid, screen) {
-        let (x, v) = compass_min(&g, &grid.theta(&c), step, 1e-12, 3000);
-        evidence.offer(v, &x);
-        // continued along a valley oblique to the axes, where compass steps stall
-        let (x, v) = pattern_min(&g, &x, 0.25 * step, 1e-12, 400);
-        evidence.offer(v, &x);
+    // the candidates refined on the workers (each with its own evaluator) and
+    // offered in their order, as one worker would
+    let refined: Vec<[(Vec<f64>, f64); 2]> = separated(grid, screen)
+        .into_par_iter()
+        .map(|c| {
+            let f = Exact::new(op, exits, tolerance);
+            let g = |x: &[f64]| f.at(x).bound_or_inf();
+            let compass = compass_min(&g, &grid.theta(&c), step, 1e-12, 3000);
+            // continued along a valley oblique to the axes, where compass steps stall
+            let pattern = pattern_min(&g, &compass.0, 0.25 * step, 1e-12, 400);
+            [compass, pattern]
+        })
+        .collect();
+    for (x, v) in refined.iter().flatten() {
+        evidence.offer(*v, x);
     }
+    let g = |x: &[f64]| f.at(x).bound_or_inf();
     super::composite::polish(&mut evidence, &g, step);
-    for o in longwave::origins(dims) {
-        if degenerate(op, tolerance, &o) {
-            let lw = longwave::overall(&f, &o);
-            evidence.approach(lw);
-        }
+    let approaches: Vec<_> = longwave::origins(dims)
+        .into_par_iter()
+        .filter(|o| degenerate(op, tolerance, o))
+        .map(|o| longwave::overall(&Exact::new(op, exits, tolerance), &o))
+        .collect();
+    for lw in approaches {
+        evidence.approach(lw);
     }
     evidence.conclude(dims)
 }
