@@ -28,6 +28,9 @@ pub struct Slopes {
     members: Vec<usize>,
     block: Vec<C64>,
     block_values: Vec<C64>,
+    /// For each eigenvalue, the bit set of its cluster (found once per [`Slopes::set`];
+    /// set only at the cluster's first member, 0 at the others).
+    clusters: Vec<u64>,
 }
 
 impl Slopes {
@@ -45,6 +48,7 @@ impl Slopes {
             members: Vec::with_capacity(m),
             block: Vec::with_capacity(m * m),
             block_values: Vec::with_capacity(m),
+            clusters: vec![0; m],
         }
     }
 
@@ -70,7 +74,28 @@ impl Slopes {
                 .fold(0.0, f64::max)
         };
         let condition = norm1(&self.vectors) * norm1(&self.inverse);
+        self.find_clusters();
         condition.is_finite() && condition <= MAX_CONDITION
+    }
+
+    /// The clusters of equal eigenvalues (within [`CLUSTER`] of the largest), as
+    /// bit sets at each cluster's first member.
+    fn find_clusters(&mut self) {
+        let m = self.m;
+        let scale = self.values.iter().map(|z| z.norm()).fold(0.0, f64::max);
+        let mut done = 0u64;
+        for k in 0..m {
+            self.clusters[k] = 0;
+            if done & (1 << k) != 0 {
+                continue;
+            }
+            for j in k..m {
+                if (self.values[j] - self.values[k]).norm() <= CLUSTER * scale {
+                    self.clusters[k] |= 1 << j;
+                    done |= 1 << j;
+                }
+            }
+        }
     }
 
     /// The derivative of each eigenvalue (in the order of the values given to
@@ -78,26 +103,32 @@ impl Slopes {
     /// cluster's block has no eigenvalues.
     pub fn slopes(&mut self, derivative: &[C64], out: &mut [C64]) -> bool {
         let m = self.m;
-        // product = A′ X, projected = X⁻¹ A′ X
+        // product = A′ X; of X⁻¹ A′ X only the entries the clusters use (the
+        // diagonal of simple eigenvalues, each cluster's block)
         multiply(derivative, &self.vectors, &mut self.product, m);
-        multiply(&self.inverse, &self.product, &mut self.projected, m);
-        let scale = self.values.iter().map(|z| z.norm()).fold(0.0, f64::max);
-        let mut done = 0u64;
+        let entry = |inverse: &[C64], product: &[C64], r: usize, c: usize| {
+            let mut acc = C64::new(0.0, 0.0);
+            for k in 0..m {
+                acc += inverse[r * m + k] * product[k * m + c];
+            }
+            acc
+        };
         for k in 0..m {
-            if done & (1 << k) != 0 {
+            let cluster = self.clusters[k];
+            if cluster == 0 {
                 continue;
             }
             self.members.clear();
-            for j in k..m {
-                if (self.values[j] - self.values[k]).norm() <= CLUSTER * scale {
-                    self.members.push(j);
-                    done |= 1 << j;
-                }
-            }
+            self.members.extend((k..m).filter(|j| cluster & (1 << j) != 0));
             let s = self.members.len();
             if s == 1 {
-                out[k] = self.projected[k * m + k];
+                out[k] = entry(&self.inverse, &self.product, k, k);
                 continue;
+            }
+            for &r in &self.members {
+                for &c in &self.members {
+                    self.projected[r * m + c] = entry(&self.inverse, &self.product, r, c);
+                }
             }
             self.block.clear();
             for &r in &self.members {
