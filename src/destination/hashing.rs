@@ -75,8 +75,8 @@ fn start_writeback(file: &File, offset: u64, len: u64) {
     unsafe {
         libc::sync_file_range(
             file.as_raw_fd(),
-            offset as libc::off64_t,
-            len as libc::off64_t,
+            offset as _,
+            len as _,
             libc::SYNC_FILE_RANGE_WRITE,
         );
     }
