@@ -119,7 +119,8 @@ impl Slopes {
                 continue;
             }
             self.members.clear();
-            self.members.extend((k..m).filter(|j| cluster & (1 << j) != 0));
+            self.members
+                .extend((k..m).filter(|j| cluster & (1 << j) != 0));
             let s = self.members.len();
             if s == 1 {
                 out[k] = entry(&self.inverse, &self.product, k, k);
