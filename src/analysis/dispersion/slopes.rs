@@ -24,7 +24,6 @@ pub struct Slopes {
     vectors: Vec<C64>,
     values: Vec<C64>,
     product: Vec<C64>,
-    projected: Vec<C64>,
     members: Vec<usize>,
     block: Vec<C64>,
     block_values: Vec<C64>,
@@ -44,7 +43,6 @@ impl Slopes {
             vectors: vec![zero; m * m],
             values: vec![zero; m],
             product: vec![zero; m * m],
-            projected: vec![zero; m * m],
             members: Vec::with_capacity(m),
             block: Vec::with_capacity(m * m),
             block_values: Vec::with_capacity(m),
@@ -126,15 +124,10 @@ impl Slopes {
                 out[k] = entry(&self.inverse, &self.product, k, k);
                 continue;
             }
-            for &r in &self.members {
-                for &c in &self.members {
-                    self.projected[r * m + c] = entry(&self.inverse, &self.product, r, c);
-                }
-            }
             self.block.clear();
             for &r in &self.members {
                 for &c in &self.members {
-                    self.block.push(self.projected[r * m + c]);
+                    self.block.push(entry(&self.inverse, &self.product, r, c));
                 }
             }
             self.block_values.clear();
