@@ -49,6 +49,7 @@
 mod cplx;
 pub mod dense;
 mod eigvec;
+mod francis;
 mod general;
 mod hessenberg;
 mod jacobi;

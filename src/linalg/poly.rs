@@ -1,10 +1,13 @@
 //! Polynomials with coefficients in ascending order: evaluation, products and roots.
 //!
 //! Roots come from the eigenvalues of the companion matrix (degree ≥ 3) or closed
-//! forms (degree 1 and 2), then one Newton polish. Used for stability functions,
+//! forms (degree 1 and 2), then one Newton polish. Real polynomials of degree up
+//! to [`REAL_KERNEL_MAX`] use the real double-shift kernel ([`super::francis`])
+//! on a stack companion matrix, with no allocation. Used for stability functions,
 //! the characteristic polynomials of multistep methods and first-exit radii.
 
-use super::{eigenvalues, LinalgError};
+use super::cplx::pow2_scaling;
+use super::{eigenvalues, francis, LinalgError};
 use num_complex::Complex64 as C64;
 
 /// p(z) by Horner's rule; `c[j]` multiplies z^j.
@@ -118,6 +121,101 @@ pub fn max_root_modulus(c: &[C64]) -> Result<f64, LinalgError> {
     }
 }
 
+/// Largest degree solved by the real kernel; higher degrees use [`roots`].
+pub const REAL_KERNEL_MAX: usize = 16;
+
+/// Calls `$f::<N>($args)` for a run-time degree `$n` in 3..=16, else `$other`.
+macro_rules! by_degree {
+    ($n:expr, $f:ident, ( $($arg:expr),* ), $other:expr) => {
+        match $n {
+            3 => $f::<3>($($arg),*),
+            4 => $f::<4>($($arg),*),
+            5 => $f::<5>($($arg),*),
+            6 => $f::<6>($($arg),*),
+            7 => $f::<7>($($arg),*),
+            8 => $f::<8>($($arg),*),
+            9 => $f::<9>($($arg),*),
+            10 => $f::<10>($($arg),*),
+            11 => $f::<11>($($arg),*),
+            12 => $f::<12>($($arg),*),
+            13 => $f::<13>($($arg),*),
+            14 => $f::<14>($($arg),*),
+            15 => $f::<15>($($arg),*),
+            16 => $f::<16>($($arg),*),
+            _ => $other,
+        }
+    };
+}
+
+/// All complex roots of a polynomial with real coefficients, written into the
+/// front of `out` (at least [`REAL_KERNEL_MAX`] long): the eigenvalues of its
+/// companion matrix by the real double-shift kernel, each then given the same
+/// Newton polish as in [`roots`]. `None` for a degree (after trimming zero
+/// leading coefficients as [`trim`] does) the kernel does not take, below 3 or
+/// above [`REAL_KERNEL_MAX`]: use [`roots`] then.
+pub fn real_roots<'o>(c: &[f64], out: &'o mut [C64]) -> Result<Option<&'o [C64]>, LinalgError> {
+    let scale = c.iter().map(|x| x.abs()).fold(0.0, f64::max);
+    let mut len = c.len();
+    while len > 0 && c[len - 1].abs() <= 1e-15 * scale {
+        len -= 1;
+    }
+    let c = &c[..len];
+    let n = len.saturating_sub(1);
+    let found = by_degree!(n, companion_eigenvalues, (c, out), return Ok(None))?;
+    let found = &mut out[..found];
+    for z in found.iter_mut() {
+        // p′(z) as `eval(&derivative(c), z)` computes it, without the vector
+        let d = c
+            .iter()
+            .enumerate()
+            .skip(1)
+            .rev()
+            .fold(C64::new(0.0, 0.0), |acc, (j, &cj)| {
+                acc * *z + C64::new(cj, 0.0) * j as f64
+            });
+        if d.norm() > 0.0 {
+            let p = c
+                .iter()
+                .rev()
+                .fold(C64::new(0.0, 0.0), |acc, &cj| acc * *z + C64::new(cj, 0.0));
+            let step = p / d;
+            if step.norm() < 1e-6 * z.norm().max(1.0) {
+                *z -= step;
+            }
+        }
+    }
+    Ok(Some(found))
+}
+
+/// Eigenvalues of the companion matrix of `c` (degree N, leading coefficient
+/// non-zero) into `out`; returns N.
+fn companion_eigenvalues<const N: usize>(c: &[f64], out: &mut [C64]) -> Result<usize, LinalgError> {
+    let lead = c[N];
+    let mut h = [[0.0f64; N]; N];
+    let mut amax = 1.0f64;
+    for j in 0..N {
+        let x = -c[N - 1 - j] / lead;
+        if !x.is_finite() {
+            return Err(LinalgError::NonFinite);
+        }
+        h[0][j] = x;
+        amax = amax.max(x.abs());
+    }
+    for (k, row) in h.iter_mut().enumerate().skip(1) {
+        row[k - 1] = 1.0;
+    }
+    // a power of two keeps the scaling exact
+    let (scale, back) = pow2_scaling(amax);
+    if scale != 1.0 {
+        h.iter_mut().flatten().for_each(|x| *x *= scale);
+    }
+    francis::eigenvalues(&mut h, &mut out[..N])?;
+    if back != 1.0 {
+        out[..N].iter_mut().for_each(|z| *z *= back);
+    }
+    Ok(N)
+}
+
 /// Positive real roots of a real polynomial, sorted ascending, each polished by Newton.
 ///
 /// The variable is first scaled by ρ = |c_lo/c_hi|^{1/(hi−lo)} (lowest and
@@ -131,20 +229,27 @@ pub fn positive_real_roots(c: &[f64]) -> Result<Vec<f64>, LinalgError> {
         (Some(l), Some(h)) if h > l => (c[l] / c[h]).abs().powf(1.0 / (h - l) as f64),
         _ => 1.0,
     };
-    let scaled = |rho: f64| -> Vec<C64> {
+    let scaled = |rho: f64| -> Vec<f64> {
         c.iter()
             .enumerate()
-            .map(|(j, &x)| C64::new(x * rho.powi(j as i32), 0.0))
+            .map(|(j, &x)| x * rho.powi(j as i32))
             .collect()
     };
     let mut cc = scaled(rho);
-    let rho = if rho.is_finite() && rho > 0.0 && cc.iter().all(|z| z.re.is_finite()) {
+    let rho = if rho.is_finite() && rho > 0.0 && cc.iter().all(|x| x.is_finite()) {
         rho
     } else {
         cc = scaled(1.0);
         1.0
     };
-    let all: Vec<C64> = roots(&cc)?.into_iter().map(|z| z * rho).collect();
+    let mut buffer = [C64::new(0.0, 0.0); REAL_KERNEL_MAX];
+    let all: Vec<C64> = match real_roots(&cc, &mut buffer)? {
+        Some(found) => found.iter().map(|z| z * rho).collect(),
+        None => {
+            let complex: Vec<C64> = cc.iter().map(|&x| C64::new(x, 0.0)).collect();
+            roots(&complex)?.into_iter().map(|z| z * rho).collect()
+        }
+    };
     let dc: Vec<f64> = c
         .iter()
         .enumerate()
