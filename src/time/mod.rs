@@ -229,6 +229,30 @@ impl Method {
         }
     }
 
+    /// Whether the ray t·w (|w| = 1) is certified to stay in the stability
+    /// region for every t ∈ (0, r], so that [`Method::exit_radius`] is at least
+    /// r. Only one-step methods give certificates; `false` says nothing.
+    pub fn stable_through(&self, w: C64, r: f64) -> bool {
+        match &self.scheme {
+            Scheme::OneStep(os) => exit::one_step_stable_through(os, w, r),
+            _ => false,
+        }
+    }
+
+    /// [`Method::exit_radius`] with guesses of it (the exits of nearby
+    /// directions): one-step methods first try Newton's method from each guess
+    /// in turn, with certificates on both sides of the root found, and compute
+    /// the exit in full only when every guess fails.
+    pub fn exit_radius_near(&self, w: C64, guesses: &[f64]) -> f64 {
+        match &self.scheme {
+            Scheme::OneStep(os) => guesses
+                .iter()
+                .find_map(|&guess| exit::one_step_from_guess(os, w, guess))
+                .unwrap_or_else(|| exit::one_step(os, w)),
+            _ => self.exit_radius(w),
+        }
+    }
+
     /// Stability interval on the imaginary axis, [0, y*): r* in direction +i.
     pub fn imaginary_limit(&self) -> f64 {
         self.exit_radius(C64::new(0.0, 1.0))

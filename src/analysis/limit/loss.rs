@@ -76,8 +76,19 @@ pub struct Exact<'a> {
     tolerance: f64,
     /// The method's (k, c) near z = 0, computed on first use.
     axis: std::cell::OnceCell<Option<(usize, f64)>>,
-    work: RefCell<(Spectrum<'a>, Vec<C64>)>,
+    /// The spectrum evaluator, the eigenvalues at θ, the exits computed at θ
+    /// so far (eigenvalue, time) and the eigenvalues in the order they are
+    /// taken (screening value, eigenvalue).
+    work: RefCell<Work<'a>>,
 }
+
+type Work<'a> = (Spectrum<'a>, Vec<C64>, Vec<(C64, f64)>, Vec<(f64, C64)>);
+
+/// Eigenvalues this close (relative to their modulus) share one exit
+/// computation: a repeated eigenvalue (the entropy and vorticity waves of the
+/// Euler equations) comes out of the eigensolver with differences of a few
+/// units of rounding, below what the exit time can resolve.
+const SAME_EIGENVALUE: f64 = 4.0 * f64::EPSILON;
 
 impl<'a> Exact<'a> {
     /// For an operator, its method's exit radii and the stability tolerance.
@@ -87,14 +98,19 @@ impl<'a> Exact<'a> {
             op,
             tolerance,
             axis: std::cell::OnceCell::new(),
-            work: RefCell::new((Spectrum::new(op, tolerance), vec![C64::new(0.0, 0.0); op.m])),
+            work: RefCell::new((
+                Spectrum::new(op, tolerance),
+                vec![C64::new(0.0, 0.0); op.m],
+                Vec::with_capacity(op.m),
+                Vec::with_capacity(op.m),
+            )),
         }
     }
 
     /// The screening value at θ (a lower envelope from the tabulated radii).
     pub fn estimate(&self, theta: &[f64]) -> f64 {
         let mut w = self.work.borrow_mut();
-        let (spectrum, eig) = &mut *w;
+        let (spectrum, eig, _, _) = &mut *w;
         match spectrum.at(theta, eig) {
             Err(_) => f64::NAN,
             Ok(_) => min_over_modes(eig, |mu| self.exits.estimate(mu)).0,
@@ -105,7 +121,7 @@ impl<'a> Exact<'a> {
 impl FirstLoss for Exact<'_> {
     fn at(&self, theta: &[f64]) -> Loss {
         let mut w = self.work.borrow_mut();
-        let (spectrum, eig) = &mut *w;
+        let (spectrum, eig, done, queue) = &mut *w;
         match spectrum.at(theta, eig) {
             Err(_) => Loss {
                 dt: f64::NAN,
@@ -116,10 +132,28 @@ impl FirstLoss for Exact<'_> {
             Ok(trusted) => {
                 // the smallest exit, and the smallest of the unresolved ones
                 // (−∞ for a NaN): the modes that set the value must have
-                // resolved exits; each exit computed once
+                // resolved exits; each exit computed once, and once for a
+                // repeated eigenvalue. The modes are taken by ascending
+                // screening value, so that the first exact exit is likely the
+                // smallest and the others can be certified above it.
                 let (mut dt, mut unresolved, mut any) = (f64::INFINITY, f64::INFINITY, false);
-                for &mu in eig.iter() {
-                    let t = self.exits.exact(mu);
+                done.clear();
+                queue.clear();
+                queue.extend(eig.iter().map(|&mu| (self.exits.estimate(mu), mu)));
+                queue.sort_by(|a, b| a.0.total_cmp(&b.0));
+                for &(_, mu) in queue.iter() {
+                    let near =
+                        |(nu, _): &&(C64, f64)| (mu - nu).norm() <= SAME_EIGENVALUE * mu.norm();
+                    let t = match done.iter().find(near) {
+                        Some(&(_, t)) => t,
+                        // certified not to lower the minimum: skipped
+                        None if dt.is_finite() && self.exits.at_least(mu, dt) => continue,
+                        None => {
+                            let t = self.exits.exact(mu);
+                            done.push((mu, t));
+                            t
+                        }
+                    };
                     if t < dt {
                         dt = t;
                     }
