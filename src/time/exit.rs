@@ -258,29 +258,85 @@ fn locus_angles(ms: &Multistep) -> Vec<f64> {
     om
 }
 
-pub(super) fn multistep(ms: &Multistep, w: C64) -> f64 {
+/// ρ and σ at ζ = e^{iω} = 1 + d with d = −2 sin²(ω/2) + i sin ω, from the
+/// shifted coefficients `alpha`, `beta` ([`taylor_shift`]): next to ω = 0, where
+/// ρ vanishes, ρ keeps its relative accuracy (the locus there decides rays
+/// close to the imaginary axis).
+fn locus_point(alpha: &[f64], beta: &[f64], om: f64) -> (C64, C64) {
     let eval = |c: &[f64], z: C64| c.iter().rev().fold(C64::new(0.0, 0.0), |a, x| a * z + x);
-    // ρ and σ at ζ = 1 + d with d = e^{iω} − 1 = −2 sin²(ω/2) + i sin ω, from the
-    // shifted coefficients: next to ω = 0, where ρ vanishes, ρ keeps its
-    // relative accuracy (the locus there decides rays close to the imaginary axis)
+    let d = C64::new(-2.0 * (0.5 * om).sin().powi(2), om.sin());
+    (eval(alpha, d), eval(beta, d))
+}
+
+/// The boundary locus of one method at its sample angles ([`locus_angles`]):
+/// ρ, σ, |ρ||σ| and |σ|² at each, none of which depends on the ray.
+struct LocusTable {
+    alpha: Vec<f64>,
+    beta: Vec<f64>,
+    angles: Vec<f64>,
+    points: Vec<(C64, C64, f64, f64)>,
+}
+
+thread_local! {
+    /// The locus table of the method last asked for on this thread: a limit
+    /// analysis takes every exit for one method, so the 2,000-odd samples are
+    /// computed once per thread instead of once per exit.
+    static LOCUS: std::cell::RefCell<Option<std::rc::Rc<LocusTable>>> =
+        const { std::cell::RefCell::new(None) };
+}
+
+fn locus_table(ms: &Multistep) -> std::rc::Rc<LocusTable> {
+    LOCUS.with(|cell| {
+        let mut cached = cell.borrow_mut();
+        if let Some(t) = cached.as_ref() {
+            if t.alpha == ms.alpha && t.beta == ms.beta {
+                return t.clone();
+            }
+        }
+        let (alpha, beta) = (taylor_shift(&ms.alpha), taylor_shift(&ms.beta));
+        let angles = locus_angles(ms);
+        let points = angles
+            .iter()
+            .map(|&om| {
+                let (rho, sigma) = locus_point(&alpha, &beta, om);
+                (rho, sigma, rho.norm() * sigma.norm(), sigma.norm_sqr())
+            })
+            .collect();
+        let table = std::rc::Rc::new(LocusTable {
+            alpha: ms.alpha.clone(),
+            beta: ms.beta.clone(),
+            angles,
+            points,
+        });
+        *cached = Some(table.clone());
+        table
+    })
+}
+
+pub(super) fn multistep(ms: &Multistep, w: C64) -> f64 {
     let (alpha, beta) = (taylor_shift(&ms.alpha), taylor_shift(&ms.beta));
     // v(ω) = w̄ ρ σ̄ = (w̄ ρ/σ)|σ|²: a crossing is Im v = 0 with Re v > 0.
-    let locus = |om: f64| {
-        let d = C64::new(-2.0 * (0.5 * om).sin().powi(2), om.sin());
-        let rho = eval(&alpha, d);
-        let sigma = eval(&beta, d);
+    let along = |rho: C64, sigma: C64, scale: f64, s2: f64| {
         let (a, b) = (w.conj() * rho, sigma.conj());
         let v = a * b;
-        let s2 = sigma.norm_sqr();
         let r = if s2 > 0.0 { v.re / s2 } else { f64::INFINITY };
         // the rounding of Im v = Im a Re b + Re a Im b, whose terms cancel where
         // the locus runs along the ray
         let noise = 16.0 * f64::EPSILON * ((a.im * b.re).abs() + (a.re * b.im).abs());
-        (v.im, rho.norm() * sigma.norm(), r, noise)
+        (v.im, scale, r, noise)
     };
-    let om = locus_angles(ms);
+    let locus = |om: f64| {
+        let (rho, sigma) = locus_point(&alpha, &beta, om);
+        along(rho, sigma, rho.norm() * sigma.norm(), sigma.norm_sqr())
+    };
+    let table = locus_table(ms);
+    let om = &table.angles;
     let n = om.len() - 1;
-    let samples: Vec<(f64, f64, f64, f64)> = om.iter().map(|x| locus(*x)).collect();
+    let samples: Vec<(f64, f64, f64, f64)> = table
+        .points
+        .iter()
+        .map(|&(rho, sigma, scale, s2)| along(rho, sigma, scale, s2))
+        .collect();
     let degenerate = |s: &(f64, f64, f64, f64)| s.0.abs() <= 1e-14 * s.1.max(1e-300);
     let mut breaks: Vec<f64> = Vec::new();
     let push = |breaks: &mut Vec<f64>, r: f64| {
@@ -472,6 +528,24 @@ mod tests {
         };
         let r = super::one_step_from_guess(&os, C64::new(-1.0, 0.0), 5.0).unwrap();
         assert!((r - 2.0).abs() < 1e-14, "{r}");
+    }
+
+    /// The per-thread locus table follows the method asked for: exits taken
+    /// alternately for AB2 and AB3 on one thread equal those taken with a
+    /// fresh table each time (the table is rebuilt when the method changes).
+    #[test]
+    fn locus_table_follows_the_method() {
+        let w = C64::new(-0.3, 1.0);
+        let fresh = |name: &str| {
+            super::LOCUS.with(|c| *c.borrow_mut() = None);
+            exit(name, w)
+        };
+        let (ab2, ab3) = (fresh("ab2"), fresh("ab3"));
+        assert!(ab2 != ab3, "{ab2} {ab3}");
+        for _ in 0..3 {
+            assert_eq!(exit("ab2", w), ab2);
+            assert_eq!(exit("ab3", w), ab3);
+        }
     }
 
     #[test]
