@@ -389,7 +389,12 @@ pub(super) fn multistep(ms: &Multistep, w: C64) -> f64 {
         if let Some(p) = last {
             if samples[p].0.signum() != samples[k].0.signum() {
                 let s_lo = samples[p].0.signum();
-                let same_side = |x: f64| locus(x).0.signum() == s_lo;
+                // only the sign of Im v, computed as `locus` does, without
+                // the moduli it also returns
+                let same_side = |x: f64| {
+                    let (rho, sigma) = locus_point(&alpha, &beta, x);
+                    ((w.conj() * rho) * sigma.conj()).im.signum() == s_lo
+                };
                 let (lo, hi) = crate::numeric::bracket::bisect(same_side, om[p], om[k], 0.0, 80);
                 let (_, scale, r, _) = locus(0.5 * (lo + hi));
                 // A sign change through a pole of ρ/σ (σ = 0) gives a huge |r|: skip it.
