@@ -176,6 +176,46 @@ mod tests {
     use super::*;
     use crate::time::methods::builtin;
 
+    /// The certificate never overstates: wherever `at_least(μ, t)` holds, the
+    /// exact exit time of μ is at least t, for RK4 and the low-storage RK54
+    /// over eigenvalues in every direction of the left half-plane and times
+    /// from well below to just above the exit; and it holds for most times
+    /// clearly below the exit (a certificate that never held would only be
+    /// slow). Multistep methods give no certificate off the axis.
+    #[test]
+    fn at_least_never_overstates_the_exit() {
+        for name in ["rk4", "lsrk54"] {
+            let m = builtin(name).unwrap();
+            let exits = ExitTimes::new(&m);
+            let (mut held, mut clearly_below) = (0, 0);
+            for k in 0..400 {
+                let phi = PI / 2.0 + PI * (k as f64 + 0.5) / 400.0;
+                let mu = C64::from_polar(3.0 + (k % 7) as f64, phi);
+                let exact = exits.exact(mu);
+                for f in [0.25, 0.5, 0.9, 0.99, 0.999999, 1.0, 1.000001, 1.5] {
+                    let t = f * exact;
+                    if exits.at_least(mu, t) {
+                        held += 1;
+                        assert!(
+                            exact >= t,
+                            "{name} φ {phi}: certified {t} above the exit {exact}"
+                        );
+                    }
+                    if f <= 0.9 {
+                        clearly_below += 1;
+                    }
+                }
+            }
+            assert!(
+                held * 10 >= clearly_below * 9,
+                "{name}: {held} of {clearly_below}"
+            );
+        }
+        let ab2 = builtin("ab2").unwrap();
+        let exits = ExitTimes::new(&ab2);
+        assert!(!exits.at_least(C64::new(-1.0, 1.0), 1e-9));
+    }
+
     /// A multistep exit 1e-20 rad off the imaginary axis is not resolved; one
     /// 1e-6 rad off, an eigenvalue exactly on the axis, and any one-step
     /// method's are.
