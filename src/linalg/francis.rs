@@ -16,8 +16,9 @@
 //! diagonal entry); and each deflation is capped at 30·max(10, n) iterations,
 //! past which [`LinalgError::NotConverged`] is returned, so no input hangs it.
 //! Windows of size 1 and 2 are solved directly. The caller scales the matrix
-//! into a safe range (entries of modulus ≤ 1 keep the shift polynomial's first
-//! column, a sum of products of two entries, far from overflow).
+//! by a power of two into the kernels' safe range (largest entry within
+//! 2^±100), which keeps the shift polynomial's first column, a sum of products
+//! of two entries, far from overflow.
 
 use super::cplx::EPS;
 use super::qr::iteration_cap;
