@@ -18,17 +18,16 @@ use super::{Multistep, OneStep};
 use crate::linalg::poly;
 use num_complex::Complex64 as C64;
 
-/// Coefficients of |Σ c_j (r w)^j|² as a real polynomial in r.
-fn modulus_squared(c: &[f64], w: C64) -> (Vec<f64>, Vec<f64>) {
-    let mut a = Vec::with_capacity(c.len());
+/// Coefficients of |Σ c_j (r w)^j|² as a real polynomial in r into `out`, and
+/// the sums of the moduli of their products into `mag` (both zero on entry, at
+/// least 2·len(c) − 1 long; `a` at least len(c) long is scratch).
+fn modulus_squared_into(c: &[f64], w: C64, a: &mut [C64], out: &mut [f64], mag: &mut [f64]) {
     let mut wp = C64::new(1.0, 0.0);
-    for cj in c {
-        a.push(wp * cj);
+    for (aj, cj) in a.iter_mut().zip(c) {
+        *aj = wp * cj;
         wp *= w;
     }
-    let n = 2 * c.len() - 1;
-    let mut out = vec![0.0; n];
-    let mut mag = vec![0.0; n];
+    let a = &a[..c.len()];
     for (j, aj) in a.iter().enumerate() {
         for (k, ak) in a.iter().enumerate() {
             out[j + k] += (aj * ak.conj()).re;
@@ -38,25 +37,73 @@ fn modulus_squared(c: &[f64], w: C64) -> (Vec<f64>, Vec<f64>) {
             mag[j + k] += (aj.re * ak.re).abs() + (aj.im * ak.im).abs();
         }
     }
-    (out, mag)
+}
+
+/// Up to this many coefficients of g are kept on the stack (methods of up to
+/// twelve stages); longer polynomials use the heap.
+const RAY_STACK: usize = 25;
+
+/// The coefficients of g from its lowest non-vanishing one on (see
+/// [`ray_polynomial`]), on the stack or the heap.
+enum RayPoly {
+    Stack([f64; RAY_STACK], usize, usize),
+    Heap(Vec<f64>, usize),
+}
+
+impl std::ops::Deref for RayPoly {
+    type Target = [f64];
+    fn deref(&self) -> &[f64] {
+        match self {
+            RayPoly::Stack(c, k, n) => &c[*k..*n],
+            RayPoly::Heap(c, k) => &c[*k..],
+        }
+    }
+}
+
+/// Fills g (length n) from zeroed scratch; returns the index of its lowest
+/// non-vanishing coefficient after the constant one.
+#[allow(clippy::too_many_arguments)]
+fn fill_ray_polynomial(
+    os: &OneStep,
+    w: C64,
+    a: &mut [C64],
+    (gp, mp): (&mut [f64], &mut [f64]),
+    (gq, mq): (&mut [f64], &mut [f64]),
+    g: &mut [f64],
+) -> Option<usize> {
+    modulus_squared_into(&os.p, w, a, gp, mp);
+    modulus_squared_into(&os.q, w, a, gq, mq);
+    for (i, gi) in g.iter_mut().enumerate() {
+        let v = gp[i] - gq[i];
+        let scale = mp[i] + mq[i];
+        *gi = if v.abs() <= 1e-13 * scale { 0.0 } else { v };
+    }
+    (1..g.len()).find(|&i| g[i] != 0.0)
 }
 
 /// g(r) = |P(rw)|² − |Q(rw)|² with coefficients at rounding level set to zero,
 /// from its lowest non-vanishing coefficient on (the factor r^k dropped);
 /// `None` when every coefficient vanishes (|R| = 1 along the whole ray).
-fn ray_polynomial(os: &OneStep, w: C64) -> Option<Vec<f64>> {
-    let (gp, mp) = modulus_squared(&os.p, w);
-    let (gq, mq) = modulus_squared(&os.q, w);
-    let n = gp.len().max(gq.len());
-    let mut g = vec![0.0; n];
-    for (i, gi) in g.iter_mut().enumerate() {
-        let v = gp.get(i).copied().unwrap_or(0.0) - gq.get(i).copied().unwrap_or(0.0);
-        let scale = mp.get(i).copied().unwrap_or(0.0) + mq.get(i).copied().unwrap_or(0.0);
-        *gi = if v.abs() <= 1e-13 * scale { 0.0 } else { v };
+fn ray_polynomial(os: &OneStep, w: C64) -> Option<RayPoly> {
+    let len = os.p.len().max(os.q.len());
+    let n = 2 * len - 1;
+    if n <= RAY_STACK {
+        let mut a = [C64::new(0.0, 0.0); RAY_STACK];
+        let mut parts = [[0.0f64; RAY_STACK]; 4];
+        let [gp, mp, gq, mq] = &mut parts;
+        let mut g = [0.0f64; RAY_STACK];
+        let k = fill_ray_polynomial(os, w, &mut a, (gp, mp), (gq, mq), &mut g[..n])?;
+        Some(RayPoly::Stack(g, k, n))
+    } else {
+        let mut a = vec![C64::new(0.0, 0.0); len];
+        let mut parts = vec![vec![0.0f64; n]; 4];
+        let [gp, mp, gq, mq] = &mut parts[..] else {
+            unreachable!()
+        };
+        let mut g = vec![0.0f64; n];
+        let k = fill_ray_polynomial(os, w, &mut a, (gp, mp), (gq, mq), &mut g)?;
+        Some(RayPoly::Heap(g, k))
     }
-    let k = (1..n).find(|&i| g[i] != 0.0)?;
-    g.drain(..k);
-    Some(g)
 }
 
 pub(super) fn one_step(os: &OneStep, w: C64) -> f64 {
