@@ -21,14 +21,9 @@
 //! of two entries, far from overflow.
 
 use super::cplx::EPS;
-use super::qr::iteration_cap;
+use super::qr::{iteration_cap, stall_floor, EXCEPTIONAL_EVERY, SMALL};
 use super::{eig2_in_range, LinalgError};
 use num_complex::Complex64 as C64;
-
-/// Every this many iterations without deflation, an exceptional shift.
-const EXCEPTIONAL_EVERY: usize = 10;
-/// Subdiagonal entries below this are negligible in any case.
-const SMALL: f64 = f64::MIN_POSITIVE / EPS;
 
 /// Eigenvalues of the real upper Hessenberg `h` (destroyed) into `out`
 /// (length N), in the order they deflate into their diagonal positions.
@@ -48,12 +43,7 @@ pub(crate) fn eigenvalues<const N: usize>(
     loop {
         let mut its = 0;
         loop {
-            let floor = if its >= EXCEPTIONAL_EVERY {
-                EPS * hmax
-            } else {
-                0.0
-            };
-            let l = deflation_point(h, i, floor);
+            let l = deflation_point(h, i, stall_floor(its, hmax));
             if l == i {
                 out[i] = C64::new(h[i][i], 0.0);
                 if i == 0 {

@@ -33,11 +33,11 @@ pub(crate) const fn iteration_cap(n: usize) -> usize {
 }
 
 /// Every this many iterations without deflation, an exceptional shift.
-const EXCEPTIONAL_EVERY: usize = 10;
+pub(super) const EXCEPTIONAL_EVERY: usize = 10;
 /// Weight of the subdiagonal in an exceptional shift (LAPACK's 3/4).
 const EXCEPTIONAL_WEIGHT: f64 = 0.75;
 /// Subdiagonal entries below this are negligible in any case.
-const SMALL: f64 = f64::MIN_POSITIVE / EPS;
+pub(super) const SMALL: f64 = f64::MIN_POSITIVE / EPS;
 
 /// Eigenvalues of the Hessenberg matrix `h` (destroyed) into `out`, in the order
 /// they deflate into their diagonal positions.
@@ -163,7 +163,7 @@ fn max_entry<H: Square>(h: &H) -> f64 {
 /// The absolute deflation floor after `its` iterations without deflation: none
 /// at first, ε·max|h_ij| once the iteration looks stalled.
 #[inline(always)]
-fn stall_floor(its: usize, hmax: f64) -> f64 {
+pub(super) fn stall_floor(its: usize, hmax: f64) -> f64 {
     if its >= EXCEPTIONAL_EVERY {
         EPS * hmax
     } else {

@@ -62,7 +62,6 @@ impl std::ops::Deref for RayPoly {
 
 /// Fills g (length n) from zeroed scratch; returns the index of its lowest
 /// non-vanishing coefficient after the constant one.
-#[allow(clippy::too_many_arguments)]
 fn fill_ray_polynomial(
     os: &OneStep,
     w: C64,
@@ -107,7 +106,12 @@ fn ray_polynomial(os: &OneStep, w: C64) -> Option<RayPoly> {
 }
 
 pub(super) fn one_step(os: &OneStep, w: C64) -> f64 {
-    let Some(gt) = ray_polynomial(os, w) else {
+    one_step_of(ray_polynomial(os, w))
+}
+
+/// [`one_step`] from g as [`ray_polynomial`] gives it.
+fn one_step_of(g: Option<RayPoly>) -> f64 {
+    let Some(gt) = g else {
         // |R| = 1 along the whole ray (or R ≡ 1): neutral, never leaves.
         return f64::INFINITY;
     };
@@ -189,23 +193,40 @@ const ROOT_CONDITION: f64 = 1e-12;
 /// the negativity certificate and the point above it checked unstable are.
 const ROOT_GAP: f64 = 4.0;
 
-/// The first exit along t·w from a guess of it (the exit of a nearby
-/// direction), without the companion matrix: Newton's method on g from the
-/// guess to a root r₁, accepted only when the ray is verified unstable at
-/// r₁(1 + δ) (g there above its rounding) and certified stable on
-/// (0, r₁(1 − δ)] ([`certified_negative`]), δ = [`ROOT_GAP`] times the root's
-/// relative uncertainty (at most [`ROOT_CONDITION`]). The true first exit is
-/// then within δ of r₁, as is what [`one_step`] computes. `None` when any
-/// check fails (a guess beyond a lobe, a touching or ill-conditioned root):
-/// the caller computes the exit in full.
-pub(super) fn one_step_from_guess(os: &OneStep, w: C64, guess: f64) -> Option<f64> {
+/// The first exit along t·w from guesses of it (the exits of nearby
+/// directions), without the companion matrix where one guess succeeds:
+/// Newton's method on g from each guess in turn to a root r₁, accepted only
+/// when the ray is verified unstable at r₁(1 + δ) (g there above its rounding)
+/// and certified stable on (0, r₁(1 − δ)] ([`certified_negative`]), δ =
+/// [`ROOT_GAP`] times the root's relative uncertainty (at most
+/// [`ROOT_CONDITION`]). The true first exit is then within δ of r₁, as is what
+/// [`one_step`] computes. Where every guess fails a check (a guess beyond a
+/// lobe, a touching or ill-conditioned root) the exit is computed in full from
+/// the same g.
+pub(super) fn one_step_near(os: &OneStep, w: C64, guesses: &[f64]) -> f64 {
+    let g = ray_polynomial(os, w);
+    if let Some(gt) = &g {
+        let usable = guesses.iter().filter(|x| x.is_finite() && **x > 0.0);
+        if let Some(r) = usable
+            .into_iter()
+            .find_map(|&x| first_exit_from_guess(gt, x))
+        {
+            return r;
+        }
+    }
+    one_step_of(g)
+}
+
+/// [`one_step_near`] with one guess, `None` where it fails (tests).
+#[cfg(test)]
+fn one_step_from_guess(os: &OneStep, w: C64, guess: f64) -> Option<f64> {
     if !(guess.is_finite() && guess > 0.0) {
         return None;
     }
     first_exit_from_guess(&ray_polynomial(os, w)?, guess)
 }
 
-/// [`one_step_from_guess`] for g itself (ascending coefficients, g(0) ≠ 0).
+/// One guess of [`one_step_near`] on g itself (ascending coefficients, g(0) ≠ 0).
 fn first_exit_from_guess(g: &[f64], guess: f64) -> Option<f64> {
     let d = g.len() - 1;
     if g[0] >= 0.0 || d == 0 {
@@ -316,10 +337,12 @@ fn locus_point(alpha: &[f64], beta: &[f64], om: f64) -> (C64, C64) {
 }
 
 /// The boundary locus of one method at its sample angles ([`locus_angles`]):
-/// ρ, σ, |ρ||σ| and |σ|² at each, none of which depends on the ray.
+/// ρ, σ, |ρ||σ| and |σ|² at each, none of which depends on the ray, with the
+/// method's coefficients (the key) and their Taylor shifts.
 struct LocusTable {
     alpha: Vec<f64>,
     beta: Vec<f64>,
+    shifted: (Vec<f64>, Vec<f64>),
     angles: Vec<f64>,
     points: Vec<(C64, C64, f64, f64)>,
 }
@@ -352,6 +375,7 @@ fn locus_table(ms: &Multistep) -> std::rc::Rc<LocusTable> {
         let table = std::rc::Rc::new(LocusTable {
             alpha: ms.alpha.clone(),
             beta: ms.beta.clone(),
+            shifted: (alpha, beta),
             angles,
             points,
         });
@@ -361,7 +385,8 @@ fn locus_table(ms: &Multistep) -> std::rc::Rc<LocusTable> {
 }
 
 pub(super) fn multistep(ms: &Multistep, w: C64) -> f64 {
-    let (alpha, beta) = (taylor_shift(&ms.alpha), taylor_shift(&ms.beta));
+    let table = locus_table(ms);
+    let (alpha, beta) = &table.shifted;
     // v(ω) = w̄ ρ σ̄ = (w̄ ρ/σ)|σ|²: a crossing is Im v = 0 with Re v > 0.
     let along = |rho: C64, sigma: C64, scale: f64, s2: f64| {
         let (a, b) = (w.conj() * rho, sigma.conj());
@@ -373,10 +398,9 @@ pub(super) fn multistep(ms: &Multistep, w: C64) -> f64 {
         (v.im, scale, r, noise)
     };
     let locus = |om: f64| {
-        let (rho, sigma) = locus_point(&alpha, &beta, om);
+        let (rho, sigma) = locus_point(alpha, beta, om);
         along(rho, sigma, rho.norm() * sigma.norm(), sigma.norm_sqr())
     };
-    let table = locus_table(ms);
     let om = &table.angles;
     let n = om.len() - 1;
     let samples: Vec<(f64, f64, f64, f64)> = table
@@ -439,7 +463,7 @@ pub(super) fn multistep(ms: &Multistep, w: C64) -> f64 {
                 // only the sign of Im v, computed as `locus` does, without
                 // the moduli it also returns
                 let same_side = |x: f64| {
-                    let (rho, sigma) = locus_point(&alpha, &beta, x);
+                    let (rho, sigma) = locus_point(alpha, beta, x);
                     ((w.conj() * rho) * sigma.conj()).im.signum() == s_lo
                 };
                 let (lo, hi) = crate::numeric::bracket::bisect(same_side, om[p], om[k], 0.0, 80);

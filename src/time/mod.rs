@@ -245,12 +245,14 @@ impl Method {
     /// the exit in full only when every guess fails.
     pub fn exit_radius_near(&self, w: C64, guesses: &[f64]) -> f64 {
         match &self.scheme {
-            Scheme::OneStep(os) => guesses
-                .iter()
-                .find_map(|&guess| exit::one_step_from_guess(os, w, guess))
-                .unwrap_or_else(|| exit::one_step(os, w)),
+            Scheme::OneStep(os) => exit::one_step_near(os, w, guesses),
             _ => self.exit_radius(w),
         }
+    }
+
+    /// Whether [`Method::exit_radius_near`] uses its guesses (one-step methods).
+    pub fn takes_exit_guesses(&self) -> bool {
+        matches!(self.scheme, Scheme::OneStep(_))
     }
 
     /// Stability interval on the imaginary axis, [0, y*): r* in direction +i.

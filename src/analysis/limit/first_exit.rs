@@ -94,6 +94,9 @@ impl<'m> ExitTimes<'m> {
             Dir::Zero => f64::INFINITY,
             Dir::Up => self.time(self.up, mu),
             Dir::Down => self.time(self.down, mu),
+            Dir::General(w) if !self.method.takes_exit_guesses() => {
+                self.time(self.method.exit_radius(w), mu)
+            }
             Dir::General(w) => {
                 // warm starts: the table's exits at the neighbouring angles,
                 // interpolated and each alone, and the exit along the half of
