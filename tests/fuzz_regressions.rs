@@ -168,3 +168,33 @@ fn stencil_with_huge_offsets_keeps_the_dispersion_rays_short() {
     assert_eq!(modes.len(), 3, "{json:#}");
     assert!(modes.iter().all(|m| m["name"].is_string()), "{json:#}");
 }
+
+/// case_text, timeout (> 2 s for one input; 1.1 s in the fuzzing build on an
+/// idle machine): the combustor case with its mean flow commented out (3-D
+/// Euler at rest, central2 in every axis, RK4), whose tiny scan runs the
+/// limit. Its long-wave search evaluates the first-loss closed form at a few
+/// thousand directions, and every evaluation classified the operator's terms
+/// again (a stencil's centrality test evaluates its symbol 32 times): two
+/// thirds of the time. Fixed: the term classes are computed once per operator
+/// (`Operator::term_classes`). The limit must still be the closed form: RK4's
+/// imaginary-axis limit 2√2 over c·√(Σ 1/h_d²) (the corner θ_d = ±π/2 of
+/// central2 in every axis; c² = γp/ρ with γ = 1.4, the model's default).
+#[test]
+fn euler_at_rest_rk4_limit_is_the_corner_closed_form() {
+    let text = include_str!("../fuzz/findings/euler-rk4-limit-long-wave-reclassified.toml");
+    assert_eq!(tiny::extra(text, &[]), Some(tiny::Extra::Limit));
+    let json = ran(replay(text, &[]));
+    let c = (1.4_f64 * 1.1e5 / 0.45).sqrt();
+    let root_sum: f64 = [2.0e-3_f64, 2.0e-3, 4.0e-3]
+        .iter()
+        .map(|h| h.powi(-2))
+        .sum::<f64>()
+        .sqrt();
+    let expected = 2.0 * 2.0_f64.sqrt() / (c * root_sum);
+    let got = json["limit"]["dt_max"].as_f64().expect("a bounded limit");
+    assert!(
+        (got - expected).abs() <= 1e-9 * expected,
+        "dt_max {got:e}, closed form {expected:e}"
+    );
+    assert_eq!(json["limit"]["kind"], "bounded", "{json:#}");
+}

@@ -82,29 +82,56 @@ pub fn classify(t: &Term, m: usize) -> TermClass {
 }
 
 impl Operator {
+    /// The class of each term, in the order of `terms` (computed once per
+    /// operator).
+    pub fn term_classes(&self) -> &[TermClass] {
+        self.term_classes
+            .get_or_init(|| self.terms.iter().map(|t| classify(t, self.m)).collect())
+    }
+
     /// Whether L splits into a neutral part and a scalar real part (no term of
     /// class *other*, and a zero or real skew constant part).
     pub fn splits(&self) -> bool {
-        self.constant_splits()
-            && self
-                .terms
-                .iter()
-                .all(|t| classify(t, self.m) != TermClass::Other)
+        self.constant_splits() && self.term_classes().iter().all(|c| *c != TermClass::Other)
     }
 
     /// Whether L(θ) is neutral by construction at every θ (the constant part
     /// and every term [`TermClass::Neutral`]): every eigenvalue is imaginary,
     /// and no search for a positive real part can find one.
     pub fn neutral_everywhere(&self) -> bool {
-        self.constant_splits()
-            && self
-                .terms
-                .iter()
-                .all(|t| classify(t, self.m) == TermClass::Neutral)
+        self.constant_splits() && self.term_classes().iter().all(|c| *c == TermClass::Neutral)
     }
 
     /// Whether the constant part is zero or real skew-symmetric (neutral).
     pub fn constant_splits(&self) -> bool {
         self.constant.iter().all(|z| *z == C64::new(0.0, 0.0)) || is_skew(&self.constant, self.m)
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::problem::Problem;
+
+    /// The classes are those of [`classify`], term by term, computed once and
+    /// shared by every later call (and by every evaluator built on the
+    /// operator): advection with central2 is neutral, its diffusion with a
+    /// scalar coefficient scalar-real.
+    #[test]
+    fn term_classes_are_computed_once_per_operator() {
+        let p = Problem::builder()
+            .spacing(&[0.4])
+            .system(crate::physics::advection(&[1.7], &[0.23]))
+            .method("euler")
+            .dt(1e-3)
+            .build()
+            .unwrap();
+        let op = p.operator();
+        let first = op.term_classes();
+        let fresh: Vec<TermClass> = op.terms.iter().map(|t| classify(t, op.m)).collect();
+        assert_eq!(first, fresh.as_slice());
+        assert_eq!(first[0], TermClass::Neutral);
+        assert!(matches!(first[1], TermClass::ScalarReal(_)), "{first:?}");
+        assert!(std::ptr::eq(first, op.term_classes()));
     }
 }

@@ -89,6 +89,7 @@ pub(super) fn assemble(
         constant: flat(&sys.source),
         terms,
         real_coefficients,
+        term_classes: Default::default(),
     })
 }
 

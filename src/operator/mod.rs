@@ -194,6 +194,10 @@ pub struct Operator {
     pub terms: Vec<Term>,
     /// Whether every coefficient is real in physical space, so L(−θ) = conj L(θ).
     pub real_coefficients: bool,
+    /// The class of each term ([`classes::classify`]), computed on first use:
+    /// it does not depend on θ, and classifying a stencil evaluates its symbol
+    /// dozens of times, so every evaluator of this operator shares it.
+    term_classes: std::sync::OnceLock<Vec<classes::TermClass>>,
 }
 
 /// Why the operator could not be assembled.

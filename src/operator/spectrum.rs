@@ -16,7 +16,7 @@
 //! imaginary parts ([`super::perturbed`]: hyperbolic long waves with biased
 //! stencils, whose real parts vanish like θ⁴ or θ⁶).
 
-use super::classes::{classify, TermClass};
+use super::classes::TermClass;
 use super::perturbed;
 use super::Operator;
 use crate::linalg::{EigSolver, LinalgError};
@@ -40,7 +40,7 @@ impl<'a> Spectrum<'a> {
         let m = op.m;
         Spectrum {
             op,
-            classes: op.terms.iter().map(|t| classify(t, m)).collect(),
+            classes: op.term_classes().to_vec(),
             split: op.splits(),
             constant_ok: op.constant_splits(),
             factors: Vec::with_capacity(op.terms.len()),

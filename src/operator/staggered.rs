@@ -209,5 +209,6 @@ pub(super) fn assemble(
         constant,
         terms: groups.into_iter().map(|(_, t)| t).collect(),
         real_coefficients,
+        term_classes: Default::default(),
     })
 }
