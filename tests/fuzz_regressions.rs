@@ -174,8 +174,8 @@ fn stencil_with_huge_offsets_keeps_the_dispersion_rays_short() {
 /// Euler at rest, central2 in every axis, RK4), whose tiny scan runs the
 /// limit. Its long-wave search evaluates the first-loss closed form at a few
 /// thousand directions, and every evaluation classified the operator's terms
-/// again (a stencil's centrality test evaluates its symbol 32 times): two
-/// thirds of the time. Fixed: the term classes are computed once per operator
+/// again (a stencil's centrality test compares its symbol with its mirror's
+/// at 16 points): two thirds of the time. Fixed: the term classes are computed once per operator
 /// (`Operator::term_classes`). The limit must still be the closed form: RK4's
 /// imaginary-axis limit 2√2 over c·√(Σ 1/h_d²) (the corner θ_d = ±π/2 of
 /// central2 in every axis; c² = γp/ρ with γ = 1.4, the model's default).
