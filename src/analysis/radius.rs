@@ -1,10 +1,10 @@
 //! The spectral-radius map at the problem's Δt: its parameters, its result (the
 //! map, its maximum and where, and the verdict against the tolerance). The map
-//! itself comes from the main sweep ([`super::sweep`]).
+//! itself comes from the main sweep (`super::sweep`).
 
 use crate::sample::Grid;
 
-/// The radius map at the problem's Δt (its verdict uses [`Plan::tolerance`]).
+/// The radius map at the problem's Δt (its verdict uses [`Plan::tolerance`](super::Plan::tolerance)).
 #[derive(Debug, Clone, Copy, Default, PartialEq)]
 pub struct RadiusParams;
 

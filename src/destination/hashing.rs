@@ -1,7 +1,7 @@
 //! A file written and checksummed in one pass.
 //!
 //! The inventory of an output folder gives every file's size and SHA-256
-//! ([`marker::seal`](super::marker::seal)). For the large arrays, reading each
+//! (`marker::seal`). For the large arrays, reading each
 //! file back to hash it cost as long as writing it; a [`HashingFile`] hashes
 //! the bytes as they go to the file instead, and flushes the file to disk when
 //! finished, as the read-back did. The seal reuses these sums for the files

@@ -8,16 +8,16 @@
 //! case, or for any case with `force`). Any other folder is refused, with or
 //! without `force`; a file or a symbolic link is refused too.
 //!
-//! While a run holds a destination it holds an exclusive lock ([`lock`]), so a
+//! While a run holds a destination it holds an exclusive lock (`lock`), so a
 //! second run into the same folder is refused instead of silently replacing the
 //! first. [`Destination::commit`] writes the new output into a hidden sibling
 //! folder, lists and checksums it, links every file the user keeps in the old
-//! folder into it ([`carry`]), and swaps the two folders with one atomic
-//! exchange ([`swap`]): at every instant the user's path holds either the old
+//! folder into it (`carry`), and swaps the two folders with one atomic
+//! exchange (`swap`): at every instant the user's path holds either the old
 //! complete output or the new complete one, each with the user's own files. The
 //! old output is then removed file by file — only files it lists as kgain's, and
 //! links of files the new folder also holds. Hidden folders left by a killed run
-//! are recovered by the next run into the same path ([`recover`]): anything in
+//! are recovered by the next run into the same path (`recover`): anything in
 //! them that kgain did not write is moved back, never deleted.
 
 mod carry;

@@ -33,7 +33,7 @@
 //! singular values and vectors from one-sided Jacobi (`jacobi`,
 //! `singular_vectors`), solutions from LU with partial pivoting (`lu`).
 //! Within this module nalgebra's complex Schur decomposition and SVD are used
-//! nowhere but in [`reference`], the slow references of the tests; nalgebra
+//! nowhere but in [`reference`](mod@reference), the slow references of the tests; nalgebra
 //! stays as a container type.
 //!
 //! Robustness, the same on every path: NaN or infinite input is

@@ -2,7 +2,7 @@
 //!
 //! Roots come from the eigenvalues of the companion matrix (degree ≥ 3) or closed
 //! forms (degree 1 and 2), then one Newton polish. Real polynomials of degree up
-//! to [`REAL_KERNEL_MAX`] use the real double-shift kernel ([`super::francis`])
+//! to [`REAL_KERNEL_MAX`] use the real double-shift kernel (`super::francis`)
 //! on a stack companion matrix, with no allocation. Used for stability functions,
 //! the characteristic polynomials of multistep methods and first-exit radii.
 

@@ -79,7 +79,7 @@ fn circle_point(j: usize, count: usize) -> [f64; 2] {
 
 /// Unit vectors for a dimension: ±x in 1-D; in 2-D `count` angles rounded up
 /// to a multiple of 8, so that the axes and diagonals are in the set (exactly,
-/// see [`circle_point`]); in 3-D
+/// see `circle_point`); in 3-D
 /// the 26 lattice directions (axes, face and body diagonals; the first `count`
 /// of them when fewer are asked for) followed by `count − 26` Fibonacci points.
 pub fn unit_vectors(dims: usize, count: usize) -> Vec<Vec<f64>> {

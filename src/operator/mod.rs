@@ -190,7 +190,9 @@ pub struct Operator {
     pub dims: usize,
     /// Row-major constant part (source on a collocated arrangement).
     pub constant: Vec<C64>,
-    /// θ-dependent terms.
+    /// θ-dependent terms. Their classes are cached on first use
+    /// ([`Operator::term_classes`]): change the terms only before the operator
+    /// is first evaluated, or assemble a new one.
     pub terms: Vec<Term>,
     /// Whether every coefficient is real in physical space, so L(−θ) = conj L(θ).
     pub real_coefficients: bool,

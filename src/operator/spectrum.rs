@@ -13,7 +13,7 @@
 //! eigenvalue within the roundoff level of zero is exactly zero. Where a real
 //! part of a system's eigenvalue is too small to be trusted this way, it may
 //! still be certified from a similarity that keeps it apart from the
-//! imaginary parts ([`super::perturbed`]: hyperbolic long waves with biased
+//! imaginary parts (`super::perturbed`: hyperbolic long waves with biased
 //! stencils, whose real parts vanish like θ⁴ or θ⁶).
 
 use super::classes::TermClass;
@@ -56,7 +56,7 @@ impl<'a> Spectrum<'a> {
     }
 
     /// The eigenvalues at θ into `out`; returns whether they can be trusted
-    /// (see [`Spectrum::finish`]).
+    /// (see `Spectrum::finish`).
     pub fn at(&mut self, theta: &[f64], out: &mut [C64]) -> Result<bool, LinalgError> {
         let op = self.op;
         self.finish(|t| op.terms[t].factor_at(theta), Some(theta), out)

@@ -74,7 +74,7 @@ impl GField {
 
     /// Sets column `j` from the responses `r[i]` (each a C-order array over the
     /// cells) to an impulse of size `amplitude` at cell `at`:
-    /// G_ij(θ) = e^{iθ·at} Σ_n r_i[n] e^{−iθ·n} / amplitude.
+    /// G_ij(θ) = e^{iθ·at} Σ_n r_i\[n\] e^{−iθ·n} / amplitude.
     pub fn set_column(&mut self, j: usize, responses: &[Vec<f64>], at: &[usize], amplitude: f64) {
         let mut planner = FftPlanner::<f64>::new();
         let spectra: Vec<Vec<C64>> = responses

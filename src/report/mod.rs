@@ -125,7 +125,7 @@ pub fn write(
         })
 }
 
-/// An error of [`write`].
+/// An error of [`write`](fn@write).
 #[derive(Debug, thiserror::Error)]
 pub enum WriteError {
     /// The destination was refused or could not be swapped.

@@ -1,5 +1,5 @@
 //! Sampling the wavevector space: grids ([`grid`]), the parallel sweep over a
-//! grid ([`sweep`]), the degree of parallelism a caller passes in ([`Par`]) and
+//! grid ([`sweep`](mod@sweep)), the degree of parallelism a caller passes in ([`Par`]) and
 //! how long work reports its progress ([`Progress`]).
 //!
 //! A sequential and a parallel sweep give bit-identical results. The library

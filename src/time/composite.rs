@@ -116,7 +116,7 @@ impl Composite {
     }
 }
 
-/// G(θ, Δt) of a composite scheme: I + [`increment`] for one-level schemes, the
+/// G(θ, Δt) of a composite scheme: I + [`increment`](super::increment) for one-level schemes, the
 /// companion matrix for CNAB2.
 pub fn amplification(
     c: &Composite,

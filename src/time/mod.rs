@@ -39,7 +39,7 @@ pub use methods::{builtin, method_names, MethodError};
 pub struct OneStep {
     /// Numerator coefficients of R.
     pub p: Vec<f64>,
-    /// Denominator coefficients of R (q[0] = 1).
+    /// Denominator coefficients of R (q\[0\] = 1).
     pub q: Vec<f64>,
 }
 

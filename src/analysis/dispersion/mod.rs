@@ -95,13 +95,13 @@ pub struct DispersionResult {
     /// Points per wavelength 2π/max_d |θ_d| of the curve samples (the same
     /// along every direction).
     pub ppw: Vec<f64>,
-    /// Phase-speed ratio c_num/c_exact, semi-discrete [direction][sample][mode].
+    /// Phase-speed ratio c_num/c_exact, semi-discrete \[direction\]\[sample\]\[mode\].
     pub phase_curves: Vec<Vec<Vec<f64>>>,
     /// The same, fully discrete.
     pub phase_curves_discrete: Vec<Vec<Vec<f64>>>,
     /// Group-speed ratio along the physical group velocity, semi-discrete.
     pub group_curves: Vec<Vec<Vec<f64>>>,
-    /// Decay-rate ratio Im ω_num / Im ω_exact, semi-discrete [direction][sample][mode].
+    /// Decay-rate ratio Im ω_num / Im ω_exact, semi-discrete \[direction\]\[sample\]\[mode\].
     pub decay_curves: Vec<Vec<Vec<f64>>>,
     /// The same, fully discrete.
     pub decay_curves_discrete: Vec<Vec<Vec<f64>>>,

@@ -61,7 +61,7 @@ pub fn sweep(ctx: &Context, f: &Frequencies, discrete_modes: usize) -> NodeArray
 }
 
 /// Whether the nodes of the second half of the grid may be copied from their
-/// mirror images −θ in the first (see [`mirror`]): real coefficients (L(−θ) is
+/// mirror images −θ in the first (see `mirror`): real coefficients (L(−θ) is
 /// the complex conjugate of L(θ), as for the radius map), no source or
 /// diffusion (the exact spectrum scales along the ray, so every mode order is
 /// ascending frequency, which the mirror reverses), one of kgain's own models

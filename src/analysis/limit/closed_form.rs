@@ -83,7 +83,7 @@ pub struct Branch {
     pub b: f64,
     /// Order of the damping.
     pub r: Option<u32>,
-    /// Relative uncertainty of `a` (see [`richardson`]).
+    /// Relative uncertainty of `a` (see `richardson`).
     pub a_spread: f64,
     /// Relative uncertainty of `b`, likewise (0 with `r` None).
     pub b_spread: f64,

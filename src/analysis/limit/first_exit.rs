@@ -134,7 +134,7 @@ impl<'m> ExitTimes<'m> {
     /// (AB2: Re z(ω) ∝ ω⁴); for a ray within an angle φ of the axis the
     /// crossing sits where that deviation equals φ, and rounding of the locus
     /// moves it by a relative (φ₀/φ)^{2/3} with φ₀ ≈ 1e-24 (measured on AB2:
-    /// 2e-5 at φ = 2e-17, 17 % at φ = 2e-23). Below φ = [`NEAR_AXIS`] the exit
+    /// 2e-5 at φ = 2e-17, 17 % at φ = 2e-23). Below φ = `NEAR_AXIS` the exit
     /// is not resolved to 1e-7, and the long-wave closed form of the method's
     /// principal root is the better value. One-step methods solve for the exit
     /// exactly (the polynomial's linear coefficient 2 Re w keeps a tiny real

@@ -3,7 +3,7 @@
 //! The root ζ(z) of Σⱼ (αⱼ − z βⱼ) ζʲ = 0 that tends to 1 as z → 0 is analytic
 //! there for a consistent method (ρ(1) = 0, ρ'(1) ≠ 0): ζ = Σₙ cₙ zⁿ with
 //! c₀ = 1. Collecting zⁿ, the unknown cₙ enters only through the terms j·cₙ of
-//! [ζʲ]ₙ, so cₙ = −(Σⱼ αⱼ [ζʲ]ₙ|_{cₙ=0} − Σⱼ βⱼ [ζʲ]ₙ₋₁)/ρ'(1), order by order.
+//! \[ζʲ\]ₙ, so cₙ = −(Σⱼ αⱼ \[ζʲ\]ₙ|_{cₙ=0} − Σⱼ βⱼ \[ζʲ\]ₙ₋₁)/ρ'(1), order by order.
 //! On the imaginary axis, with real cₙ, |ζ(iy)|² = Σ_N g_N y^N where
 //! g_N = (−1)^{N/2} Σ_{m=0}^{N} (−1)^m c_{N−m} c_m for even N and 0 for odd N:
 //! exact coefficients, free of the cancellation in |ζ|² − 1 evaluated at small y.

@@ -13,7 +13,7 @@
 //! 3. per wavevector, the first loss is a root of ρ(G(θ, ·)) − 1
 //!    ([`super::per_theta::PerTheta`]),
 //!    found by a ladder from a Δt known to be stable and bisection; the
-//!    limit's neighbourhood is refined with it in continuous θ ([`super::refine`])
+//!    limit's neighbourhood is refined with it in continuous θ (`refined` in [`super::per_theta`])
 //!    and long waves are handled by [`super::longwave`];
 //! 4. a uniform scan of Δt below the limit over the grid makes sure that a
 //!    stable window does not hide an earlier loss of stability.

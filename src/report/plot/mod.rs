@@ -5,14 +5,14 @@
 //! |λ| = 1 + tolerance contour and the worst wavevector ([`radius`]),
 //! `footprint.png` the Fourier footprint Δt·eig L(θ) over the time method's
 //! stability region (one-step and multistep methods, with the radius map;
-//! [`footprint`]),
+//! `footprint`),
 //! `limit_polar.png` the largest stable Courant number (or Δt) per wave
-//! direction ([`limit`]), `growth.png` the transient-growth envelope
-//! max_θ ‖Gⁿ‖₂ against n ([`growth`]), `departure.png` and `norm.png` the
-//! departure from normality and ‖G‖₂ over the grid ([`nonnormal`]),
+//! direction (`limit`), `growth.png` the transient-growth envelope
+//! max_θ ‖Gⁿ‖₂ against n (`growth`), `departure.png` and `norm.png` the
+//! departure from normality and ‖G‖₂ over the grid (`nonnormal`),
 //! `dispersion.png` the phase- and group-speed ratios of the mode that needs
-//! the finest resolution against points per wavelength ([`dispersion`]). The maps
-//! share one layout per dimension ([`field`]). A picture whose data the case
+//! the finest resolution against points per wavelength (`dispersion`). The maps
+//! share one layout per dimension (`field`). A picture whose data the case
 //! did not ask for is skipped. A parameter sweep's figure over one or two
 //! varied keys is drawn by [`sweep_chart::write_chart`] (a line chart or a
 //! heat map).
@@ -21,8 +21,8 @@
 //! `assets/fonts/LICENSE-DejaVu.txt`) and registered with plotters' ab_glyph
 //! font table, so no system font library or font file is needed at run time.
 //! All pictures share one layout (a title band naming the case, method and
-//! stencil over the plot), one palette ([`style`]) and one colour map
-//! ([`colormap`]).
+//! stencil over the plot), one palette (`style`) and one colour map
+//! (`colormap`).
 
 mod axis;
 mod canvas;

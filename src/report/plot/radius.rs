@@ -6,7 +6,7 @@
 //! drawn as a dashed line and the unstable stretches in crimson. 3-D: three
 //! heat maps on one colour scale, the planes θz, θy and θx = const through the
 //! worst wavevector, with the colour bar and the legend in the fourth quarter.
-//! The layout is [`field`]'s, shared with the non-normality maps.
+//! The layout is `field`'s, shared with the non-normality maps.
 //!
 //! A stable map within 1e-3 of 1 everywhere (a nearly neutral scheme: RK4 at a
 //! small Courant number, a weakly dissipative filter) looks flat on a linear

@@ -5,8 +5,8 @@
 //! map) or legend (lines).
 //!
 //! This file checks the spec and brings its values into drawing order (numeric
-//! axes sorted ascending, values permuted with them); [`super::sweep_lines`]
-//! and [`super::sweep_map`] draw. Numbers on a numeric axis must be finite and,
+//! axes sorted ascending, values permuted with them); `super::sweep_lines`
+//! and `super::sweep_map` draw. Numbers on a numeric axis must be finite and,
 //! when not zero, of magnitude 10⁻¹⁰⁰..10¹⁰⁰ (beyond that no tick spacing is
 //! representable); an axis that is not is treated as text. Figure values
 //! beyond ±10¹⁰⁰ are drawn, and counted in the notes, as ±∞.
@@ -17,7 +17,7 @@ use std::path::Path;
 /// One varied key as a chart axis.
 #[derive(Debug, Clone, PartialEq)]
 pub struct ChartAxis {
-    /// The dotted case key, e.g. "model.mach" or "model.velocity[0]".
+    /// The dotted case key, e.g. "model.mach" or "model.velocity\[0\]".
     pub key: String,
     /// Unit of the key's values ("" when dimensionless or unknown).
     pub unit: String,

@@ -1,7 +1,7 @@
 //! The report of a probe (`kgain run` on a case with a `[probe]` table): the
 //! measured matrices and every map as NPY arrays with the manifest
-//! ([`arrays`]), summary.json ([`json`]), pictures ([`pictures`]) and the
-//! terminal table ([`table`]). Like the case report, it computes nothing.
+//! (`arrays`), summary.json (`json`), pictures (`pictures`) and the
+//! terminal table (`table`). Like the case report, it computes nothing.
 
 mod arrays;
 mod json;
