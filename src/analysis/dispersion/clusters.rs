@@ -4,7 +4,7 @@
 //! computed one by the least total distance (an optimal assignment). Where
 //! every predicted value's nearest new value is a clear winner the nearest
 //! values are that optimum and no assignment is solved
-//! ([`pair_into`](super::frequencies::pair_into)). A repeated eigenvalue — the
+//! ([`pair_into`](super::ray::pair_into)). A repeated eigenvalue — the
 //! entropy and vorticity waves of the Euler equations travel at the same
 //! speed — defeats that test at every step: its two copies are equally near.
 //! Which copy goes to which mode cannot change any frequency beyond the

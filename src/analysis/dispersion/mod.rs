@@ -12,6 +12,7 @@ pub mod frequencies;
 pub mod maps;
 mod mirror;
 pub mod node;
+mod ray;
 pub mod resolution;
 pub mod shape;
 pub mod slopes;
