@@ -25,7 +25,8 @@ use num_complex::Complex64 as C64;
 /// A reusable eigenvalue evaluator for one operator (one per worker).
 pub struct Spectrum<'a> {
     op: &'a Operator,
-    classes: Vec<TermClass>,
+    /// The operator's term classes ([`Operator::term_classes`]).
+    classes: &'a [TermClass],
     split: bool,
     constant_ok: bool,
     factors: Vec<C64>,
@@ -40,7 +41,7 @@ impl<'a> Spectrum<'a> {
         let m = op.m;
         Spectrum {
             op,
-            classes: op.term_classes().to_vec(),
+            classes: op.term_classes(),
             split: op.splits(),
             constant_ok: op.constant_splits(),
             factors: Vec::with_capacity(op.terms.len()),

@@ -51,7 +51,9 @@ mod tests {
     use crate::time::methods::builtin;
     use num_complex::Complex64 as C64;
 
-    fn exit(name: &str, w: C64) -> f64 {
+    /// The exit radius of a built-in method along the direction of `w`
+    /// (shared with the submodules' tests).
+    pub(super) fn exit(name: &str, w: C64) -> f64 {
         builtin(name).unwrap().exit_radius(w / w.norm())
     }
 

@@ -229,12 +229,8 @@ pub(in crate::time) fn taylor_shift(p: &[f64]) -> Vec<f64> {
 
 #[cfg(test)]
 mod tests {
-    use crate::time::methods::builtin;
+    use super::super::tests::exit;
     use num_complex::Complex64 as C64;
-
-    fn exit(name: &str, w: C64) -> f64 {
-        builtin(name).unwrap().exit_radius(w / w.norm())
-    }
 
     /// The per-thread locus table follows the method asked for: exits taken
     /// alternately for AB2 and AB3 on one thread equal those taken with a
