@@ -21,7 +21,7 @@
 //! waves whose discrete speeds cross would swap names.
 
 pub(super) use super::ray::{assign, follow_ray, pair_into};
-use super::shape;
+use super::{shape, sorted};
 use crate::analysis::context::amplification_at;
 use crate::linalg::{self, EigSolver};
 use crate::operator::Operator;
@@ -72,6 +72,15 @@ impl Reference {
     }
 }
 
+/// `w` in ascending Re ω, None when a value is not finite.
+pub(super) fn ascending(mut w: Vec<C64>) -> Option<Vec<C64>> {
+    if !w.iter().all(|z| z.is_finite()) {
+        return None;
+    }
+    w.sort_by(|a, b| a.re.total_cmp(&b.re));
+    Some(w)
+}
+
 /// Semi-discrete and exact frequencies at θ, each in physical-mode order.
 pub struct Frequencies<'a> {
     problem: &'a Problem,
@@ -81,6 +90,9 @@ pub struct Frequencies<'a> {
     homogeneous: bool,
     /// For a `linear` system, the decomposition of A₁ that names its modes.
     reference: Option<Reference>,
+    /// Whether ascending frequency names the numerical modes wherever a ray
+    /// would be followed ([`sorted`]).
+    ascending_names: bool,
 }
 
 impl<'a> Frequencies<'a> {
@@ -99,6 +111,7 @@ impl<'a> Frequencies<'a> {
             op,
             homogeneous,
             reference,
+            ascending_names: sorted::ascending_names_modes(problem, op, homogeneous),
         }
     }
 
@@ -162,10 +175,34 @@ impl<'a> Frequencies<'a> {
         }
     }
 
-    /// The numerical ω at θ followed along the ray from θ = 0 (where shapes do
-    /// not decide).
+    /// The numerical ω at θ in the order following the ray from θ = 0 gives
+    /// them (where shapes do not decide): sorted by Re ω where that is the
+    /// same order ([`sorted`]), else [`Frequencies::numerical_followed`].
     pub fn numerical_by_ray(&self, theta: &[f64]) -> Vec<C64> {
+        if self.ascending_at(theta) {
+            if let Some(w) = ascending(self.numerical_raw(theta)) {
+                return w;
+            }
+        }
+        self.numerical_followed(theta)
+    }
+
+    /// The numerical ω at θ followed step by step along the ray from θ = 0,
+    /// also where sorting would name them.
+    pub fn numerical_followed(&self, theta: &[f64]) -> Vec<C64> {
         follow_ray(theta, |t, out| *out = self.numerical_raw(t))
+    }
+
+    /// Whether the case is one where ascending Re ω names the numerical modes
+    /// at every θ with an axis strictly inside (0, π) ([`sorted`]).
+    pub fn names_by_ascending_frequency(&self) -> bool {
+        self.ascending_names
+    }
+
+    /// Whether the ray to θ ends in ascending Re ω, so that sorting the
+    /// numerical ω at θ names them as following the ray would ([`sorted`]).
+    pub(super) fn ascending_at(&self, theta: &[f64]) -> bool {
+        self.ascending_names && sorted::off_the_zeros(theta)
     }
 
     /// (numerical, exact) ω at θ, both in physical-mode order.

@@ -16,6 +16,7 @@ mod ray;
 pub mod resolution;
 pub mod shape;
 pub mod slopes;
+pub mod sorted;
 pub mod stream;
 
 use super::context::Context;

@@ -351,7 +351,15 @@ impl NodeWork {
                 )
             })
             .flatten();
-        let num = match shaped {
+        let sorted = || {
+            f.ascending_at(theta)
+                .then(|| {
+                    self.numerical_raw(f, theta);
+                    super::frequencies::ascending(self.raw.clone())
+                })
+                .flatten()
+        };
+        let num = match shaped.or_else(sorted) {
             Some(num) => num,
             None => super::frequencies::follow_ray(theta, |point, out| {
                 self.numerical_raw(f, point);
