@@ -5,6 +5,7 @@ mod support;
 
 use kgain::analysis::dispersion::DispersionResult;
 use kgain::case::Case;
+use num_complex::Complex64 as C64;
 
 /// A named closed form of one variable.
 type Form1 = (&'static str, fn(f64) -> f64);
@@ -544,6 +545,55 @@ fn euler_group_velocities_are_exact_for_every_mode() {
                     "{name} numerical at {th:?}, axis {a}: {gn} vs {numerical}"
                 );
             }
+        }
+    }
+}
+
+#[test]
+fn forward_euler_discrete_group_velocity_is_its_closed_form() {
+    // Derived here: forward Euler + C2 advection has λ = 1 − iν sin θ, so the
+    // fully discrete ω_d = i ln λ/Δt has Re ω_d = atan(ν sin θ)/Δt and the
+    // group velocity h dRe ω_d/dθ = a cos θ/(1 + ν² sin² θ) (a = h = 1 here).
+    let (_, r) = run(&advection_1d("central2", "euler", 0.4));
+    let d = disp(&r);
+    let nu = r.dt;
+    for (i, th) in r.grid.coords[0].iter().enumerate() {
+        let want = th.cos() / (1.0 + nu * nu * th.sin().powi(2));
+        let got = d.node(i).group_discrete[0];
+        assert!((got - want).abs() <= 1e-13, "at {th}: {got} vs {want}");
+    }
+}
+
+#[test]
+fn discrete_group_velocity_is_continuous_through_the_branch_cut_at_theta_pi() {
+    // The bundled river case: upwind1 + forward Euler on a 2×2 system with
+    // speeds a = 1 and 1.1, each mode advected alone: λ_j = 1 − ν_j(1 − e^{−iθ}),
+    // ν_j = a_j Δt/h. Derived here: d ln λ_j/dθ = −iν_j e^{−iθ}/λ_j, so the group
+    // velocity of ω_d = i ln λ_j/Δt is h Re(dω_d/dθ) = a_j Re(e^{−iθ}/λ_j); at
+    // θ = ±π, λ_j = 1 − 2ν_j < 0 sits on the logarithm's branch cut, where
+    // differences of ω_d jumped by a period 2π/Δt (−3.8e6 instead of 1.57).
+    let text = std::fs::read_to_string("cases/river-sediment-growth.toml").expect("bundled case");
+    let case = support::case_with(&text, &["scan.analyses=[\"dispersion\"]".to_string()]);
+    let r = support::analyse_par(&case, 2);
+    let d = disp(&r);
+    let h = case.problem.spacing[0];
+    for (i, th) in r.grid.coords[0].iter().enumerate() {
+        for j in 0..2 {
+            // the mode's speed, from its exact group velocity (1 or 1.1)
+            let a = d.node(i).group_exact[j];
+            assert!(
+                (a - 1.0).abs() < 1e-12 || (a - 1.1).abs() < 1e-12,
+                "speed {a}"
+            );
+            let nu = a * r.dt / h;
+            let e = C64::new(0.0, -th).exp();
+            let lam = C64::new(1.0, 0.0) - (C64::new(1.0, 0.0) - e) * nu;
+            let want = a * (e / lam).re;
+            let got = d.node(i).group_discrete[j];
+            assert!(
+                (got - want).abs() <= 1e-12 * want.abs().max(1.0),
+                "mode {j} at {th}: {got} vs {want}"
+            );
         }
     }
 }

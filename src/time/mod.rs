@@ -285,6 +285,29 @@ impl OneStep {
             .fold(C64::new(0.0, 0.0), |a, c| a * z + c);
         p / q
     }
+
+    /// R′(z)/R(z) = P′/P − Q′/Q, the derivative of ln R: by Horner's rule with
+    /// the derivative carried along. NaN where R(z) = 0 (no logarithm).
+    pub fn log_derivative(&self, z: C64) -> C64 {
+        let ratio = |c: &[f64]| {
+            let zero = C64::new(0.0, 0.0);
+            let (value, slope) = c
+                .iter()
+                .rev()
+                .fold((zero, zero), |(v, s), k| (v * z + k, s * z + v));
+            slope / value
+        };
+        let out = if self.q.len() == 1 {
+            ratio(&self.p)
+        } else {
+            ratio(&self.p) - ratio(&self.q)
+        };
+        if out.is_finite() {
+            out
+        } else {
+            C64::new(f64::NAN, f64::NAN)
+        }
+    }
 }
 
 impl Multistep {
@@ -319,5 +342,42 @@ impl Multistep {
             .zip(&self.beta)
             .map(|(a, b)| C64::new(*a, 0.0) - z * b)
             .collect()
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn log_derivative_of_a_rational_function_is_its_closed_form() {
+        // R(z) = (1 + z/2)/(1 − z/2) (trapezoidal rule, derived here):
+        // ln R = ln(1 + z/2) − ln(1 − z/2), so R′/R = (1/2)/(1 + z/2) + (1/2)/(1 − z/2)
+        let trapezoid = OneStep {
+            p: vec![1.0, 0.5],
+            q: vec![1.0, -0.5],
+        };
+        // R(z) = 1 + z + z²/2 (Heun): R′/R = (1 + z)/(1 + z + z²/2)
+        let heun = OneStep {
+            p: vec![1.0, 1.0, 0.5],
+            q: vec![1.0],
+        };
+        for k in 0..20 {
+            let z = C64::new(-1.5 + 0.1 * k as f64, 0.3 * k as f64 - 2.0);
+            let one = C64::new(1.0, 0.0);
+            let want = 0.5 / (one + z * 0.5) + 0.5 / (one - z * 0.5);
+            assert!((trapezoid.log_derivative(z) - want).norm() <= 1e-14 * want.norm());
+            let want = (one + z) / (one + z + z * z * 0.5);
+            assert!((heun.log_derivative(z) - want).norm() <= 1e-14 * want.norm());
+        }
+    }
+
+    #[test]
+    fn log_derivative_is_nan_at_a_zero_of_r() {
+        let forward_euler = OneStep {
+            p: vec![1.0, 1.0],
+            q: vec![1.0],
+        };
+        assert!(forward_euler.log_derivative(C64::new(-1.0, 0.0)).is_nan());
     }
 }

@@ -362,7 +362,7 @@ impl<'a> Frequencies<'a> {
             };
             let (wp, wm) = (near(&tp), near(&tm));
             for j in 0..m {
-                g[j][ax] = (wp[j].re - wm[j].re) / (2.0 * delta) * h;
+                g[j][ax] = discrete_difference(wp[j].re, wm[j].re, dt) / (2.0 * delta) * h;
             }
         }
         g
@@ -452,6 +452,16 @@ impl<'a> Frequencies<'a> {
         }
         out
     }
+}
+
+/// a − b for two fully discrete frequencies, which are defined modulo 2π/Δt:
+/// the representative nearest zero, so that a difference straddling the
+/// branch cut (λ near the negative real axis, Re ω_d near ±π/Δt) does not
+/// jump by a period.
+pub fn discrete_difference(a: f64, b: f64, dt: f64) -> f64 {
+    let period = 2.0 * PI / dt;
+    let d = a - b;
+    d - period * (d / period).round()
 }
 
 /// ω = i ln λ / Δt on the branch whose real part is nearest `near`.

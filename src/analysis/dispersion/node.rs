@@ -17,9 +17,10 @@
 //! eigenvectors are ill-conditioned (a nearly defective symbol) and for
 //! composite schemes' fully discrete modes the differences are used.
 
-use super::frequencies::{pair_into, Frequencies};
+use super::frequencies::{discrete_difference, pair_into, Frequencies};
 use super::slopes::Slopes;
 use crate::linalg::EigSolver;
+use crate::time::Scheme;
 use num_complex::Complex64 as C64;
 
 /// Step of the central differences in θ (as in [`Frequencies::group_velocities`]).
@@ -244,8 +245,10 @@ impl NodeWork {
     }
 
     /// Fully discrete group velocities of a one-step or multistep method: the
-    /// principal frequency ω_d(ω) differentiated along dω/dθ_d by a central
-    /// difference of the scalar map (no eigenproblem).
+    /// principal frequency ω_d(ω) differentiated along dω/dθ_d (no
+    /// eigenproblem). A one-step method has ω_d = i ln R(z)/Δt with z = −iωΔt,
+    /// so dω_d/dθ_d = R′(z)/R(z) · dω/dθ_d in closed form; a multistep one
+    /// takes a central difference of the scalar map ω → ω_d.
     fn discrete_velocities(
         &mut self,
         f: &Frequencies,
@@ -255,11 +258,22 @@ impl NodeWork {
         group: &mut [f64],
     ) {
         let d = theta.len();
+        if let Scheme::OneStep(os) = &f.problem().method.scheme {
+            for (j, w) in num.iter().enumerate() {
+                let ratio = os.log_derivative(C64::new(0.0, -1.0) * w * dt);
+                for a in 0..d {
+                    let slope = ratio * self.numerical_slope[j * d + a];
+                    group[j * d + a] = slope.re * f.problem().spacing[a];
+                }
+            }
+            return;
+        }
         for (j, w) in num.iter().enumerate() {
             for a in 0..d {
                 let step = self.numerical_slope[j * d + a] * DELTA;
                 let (plus, minus) = (f.principal(w + step, dt), f.principal(w - step, dt));
-                group[j * d + a] = (plus.re - minus.re) / (2.0 * DELTA) * f.problem().spacing[a];
+                group[j * d + a] = discrete_difference(plus.re, minus.re, dt) / (2.0 * DELTA)
+                    * f.problem().spacing[a];
             }
         }
     }
@@ -302,7 +316,8 @@ impl NodeWork {
                     |k: usize| (self.plus[k][j].re - self.minus[k][j].re) / (2.0 * DELTA) * h;
                 group[at] = slope(0);
                 group_exact[at] = slope(1);
-                group_discrete[at] = slope(2);
+                let (plus, minus) = (self.plus[2][j].re, self.minus[2][j].re);
+                group_discrete[at] = discrete_difference(plus, minus, dt) / (2.0 * DELTA) * h;
             }
         }
         self.shifted = shifted;
