@@ -317,7 +317,14 @@ pub fn analyse(
             }
             None => {
                 let exits = ExitTimes::new(&problem.method);
-                let swept = sweep::spectral(&ctx, &exits, want_radius, plan.limit.is_some());
+                // growth and dispersion sweep the grid themselves (and note
+                // their own kernel failures): without a radius map or a limit
+                // there is nothing to sweep for here
+                let swept = if want_radius || plan.limit.is_some() {
+                    sweep::spectral(&ctx, &exits, want_radius, plan.limit.is_some())
+                } else {
+                    sweep::Swept::default()
+                };
                 let limit = plan
                     .limit
                     .as_ref()

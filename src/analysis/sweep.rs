@@ -17,6 +17,7 @@ use crate::sample::{self, Stage};
 const SLAB_NODES: usize = 1 << 18;
 
 /// What the sweep found.
+#[derive(Default)]
 pub(super) struct Swept {
     /// ρ(G) per node (empty when the radius was not asked for).
     pub map: Vec<f64>,
