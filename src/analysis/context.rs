@@ -6,6 +6,7 @@ use super::Plan;
 use crate::operator::Operator;
 use crate::problem::Problem;
 use crate::sample::{Grid, Par, Progress, Symmetry};
+use crate::time::{horner, Scheme};
 use nalgebra::DMatrix;
 use num_complex::Complex64 as C64;
 
@@ -75,8 +76,45 @@ pub fn amplification_at(problem: &Problem, op: &Operator, theta: &[f64], dt: f64
             theta,
             dt,
         ),
-        None => problem.method.amplification_matrix(
-            &(op.symbol_matrix(theta) * C64::new(problem.method.step_variable(dt), 0.0)),
-        ),
+        None => {
+            let step = C64::new(problem.method.step_variable(dt), 0.0);
+            if let Some(g) = explicit_on_stack(problem, op, theta, step) {
+                return g;
+            }
+            problem
+                .method
+                .amplification_matrix(&(op.symbol_matrix(theta) * step))
+        }
     }
+}
+
+/// G of an explicit one-step method with m ≤ [`horner::MAX`] from stack
+/// buffers ([`horner`]): the heap computation to rounding, with one matrix
+/// product fewer and none of its allocations. None for other methods and
+/// larger systems.
+fn explicit_on_stack(
+    problem: &Problem,
+    op: &Operator,
+    theta: &[f64],
+    step: C64,
+) -> Option<DMatrix<C64>> {
+    let Scheme::OneStep(os) = &problem.method.scheme else {
+        return None;
+    };
+    let m = op.m;
+    if os.q.len() != 1 || m > horner::MAX {
+        return None;
+    }
+    let n = m * m;
+    let zero = C64::new(0.0, 0.0);
+    let (mut z, mut g) = (
+        [zero; horner::MAX * horner::MAX],
+        [zero; horner::MAX * horner::MAX],
+    );
+    op.symbol_into(theta, &mut z[..n]);
+    for e in &mut z[..n] {
+        *e = *e * step;
+    }
+    horner::explicit_into(&os.p, os.q[0], &z[..n], m, &mut g[..n]);
+    Some(DMatrix::from_row_slice(m, m, &g[..n]))
 }

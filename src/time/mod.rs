@@ -20,6 +20,7 @@
 pub mod butcher;
 pub mod composite;
 mod exit;
+pub mod horner;
 pub mod increment;
 pub mod lowstorage;
 pub mod methods;
