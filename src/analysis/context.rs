@@ -113,7 +113,7 @@ fn explicit_on_stack(
     );
     op.symbol_into(theta, &mut z[..n]);
     for e in &mut z[..n] {
-        *e = *e * step;
+        *e *= step;
     }
     horner::explicit_into(&os.p, os.q[0], &z[..n], m, &mut g[..n]);
     Some(DMatrix::from_row_slice(m, m, &g[..n]))
