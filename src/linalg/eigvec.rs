@@ -30,6 +30,38 @@ pub(crate) fn pivot_floor(t: &[C64], n: usize) -> f64 {
 /// x_k a positive real (1 unless rescaled against growth); pivots smaller than
 /// `floor` in modulus are replaced by `floor`.
 pub(crate) fn back_substitute(t: &[C64], n: usize, k: usize, floor: f64, x: &mut [C64]) {
+    substitute(t, n, k, floor, None, x);
+}
+
+/// [`back_substitute`] that keeps a cluster's eigenvectors apart: a component
+/// x_i whose pivot t_ii − t_kk is at most `cluster.0` in modulus (t_ii in the
+/// cluster of t_kk) and whose right-hand side is at most `cluster.1` times the
+/// largest |x_j| so far is set to zero instead of dividing rounding by
+/// rounding. For an eigenvalue repeated in a complete eigenspace (a normal T
+/// with equal diagonal entries) the division gives an arbitrary, possibly
+/// nearly parallel, basis of that eigenspace; zero gives the one the Schur
+/// vectors span, orthonormal where T is normal. A right-hand side above the
+/// rounding level is still divided (close but distinct eigenvalues coupled by
+/// T, whose eigenvectors are genuinely nearly parallel).
+pub(crate) fn back_substitute_in_clusters(
+    t: &[C64],
+    n: usize,
+    k: usize,
+    floor: f64,
+    cluster: (f64, f64),
+    x: &mut [C64],
+) {
+    substitute(t, n, k, floor, Some(cluster), x);
+}
+
+fn substitute(
+    t: &[C64],
+    n: usize,
+    k: usize,
+    floor: f64,
+    cluster: Option<(f64, f64)>,
+    x: &mut [C64],
+) {
     let lam = t[k * n + k];
     x.fill(ZERO);
     x[k] = C64::new(1.0, 0.0);
@@ -40,6 +72,12 @@ pub(crate) fn back_substitute(t: &[C64], n: usize, k: usize, floor: f64, x: &mut
             rhs -= row[j] * x[j];
         }
         let mut d = row[i] - lam;
+        if let Some((gap, noise)) = cluster {
+            let largest = x[i + 1..=k].iter().map(|z| modulus(*z)).fold(0.0, f64::max);
+            if modulus(d) <= gap && modulus(rhs) <= noise * largest {
+                continue; // x[i] stays zero
+            }
+        }
         if abs1(d) < floor {
             d = C64::new(floor, 0.0);
         }

@@ -13,13 +13,17 @@
 //! largest one, so no entry in the f64 range overflows them.
 
 use super::cplx::{modulus, ZERO};
-use super::eigvec::{back_substitute, pivot_floor};
+use super::eigvec::{back_substitute_in_clusters, pivot_floor};
 use super::svd::SvdSolver;
 use super::LinalgError;
 use num_complex::Complex64 as C64;
 
 /// Eigenvalues within this fraction of ‖T‖_F of each other form a cluster.
 pub const CLUSTER: f64 = 1e-7;
+/// Inside a cluster, a right-hand side of the eigenvector back-substitution at
+/// most this many times ε‖T‖_F (times the vector's largest entry) is rounding:
+/// the Schur form of a normal matrix has off-diagonal entries of a few ε‖T‖_F.
+pub const ROUNDING: f64 = 1e3;
 /// Singular values of T − μI below this fraction of ‖T‖_F count as zero in the
 /// rank test of a cluster.
 pub const NULLITY: f64 = 1e-6;
@@ -55,13 +59,19 @@ pub fn departure(t: &[C64], m: usize) -> f64 {
 /// Unit eigenvectors of the row-major m×m upper triangular T into the columns
 /// of the row-major `y`: column k solves (T − t_kk I) y = 0 with y_j = 0 for
 /// j > k and y_k real and positive. Pivots below ε·max|t_ij| are raised to that
-/// bound, so a defective T gives finite, nearly parallel columns. `x` is a
-/// workspace of length m.
+/// bound, so a defective T gives finite, nearly parallel columns. Inside a
+/// cluster of eigenvalues (within [`CLUSTER`]·‖T‖_F) a component whose
+/// right-hand side is rounding ([`ROUNDING`]·ε‖T‖_F times the vector's size)
+/// is zero rather than rounding divided by rounding, so a repeated eigenvalue
+/// of a normal T gets orthonormal eigenvectors (see
+/// `back_substitute_in_clusters`). `x` is a workspace of length m.
 pub fn triangular_eigenvectors(t: &[C64], m: usize, x: &mut [C64], y: &mut [C64]) {
     assert!(t.len() == m * m && y.len() == m * m && x.len() == m);
     let floor = pivot_floor(t, m);
+    let scale = triangle_frobenius(t, m);
+    let cluster = (CLUSTER * scale, ROUNDING * f64::EPSILON * scale);
     for k in 0..m {
-        back_substitute(t, m, k, floor, x);
+        back_substitute_in_clusters(t, m, k, floor, cluster, x);
         let nrm = frobenius(x[..=k].iter().copied());
         let inv = 1.0 / nrm;
         for (i, z) in x.iter().enumerate() {
@@ -224,5 +234,28 @@ mod tests {
             c(5.0, 0.0),
         ];
         assert_eq!(eigvec_condition(&jordan, &mut ws), Ok(f64::INFINITY));
+    }
+
+    #[test]
+    fn a_repeated_eigenvalue_with_rounding_coupling_has_orthonormal_eigenvectors() {
+        // T normal up to rounding: equal eigenvalues (to 1e-17) coupled by 3e-17.
+        // Back-substitution would divide 3e-17 by 1e-17 and return nearly
+        // parallel vectors; the eigenspace is the whole plane, spanned by e₁, e₂.
+        let mut ws = ConditionWorkspace::new(2);
+        let t = [c(1.0, 0.0), c(3e-17, 0.0), ZERO, c(1.0 + 1e-16, 0.0)];
+        assert_eq!(eigvec_condition(&t, &mut ws), Ok(1.0));
+    }
+
+    #[test]
+    fn close_eigenvalues_coupled_above_rounding_keep_nearly_parallel_eigenvectors() {
+        // T = [[1, 1e-8], [0, 1 + 1e-10]] (derived here): the eigenvectors are e₁
+        // and (100, 1)/√10001, unit columns with cosine c = 100/√10001, so
+        // κ₂(V) = √((1 + c)/(1 − c)) ≈ 200: a genuine near-defect, not rounding.
+        let mut ws = ConditionWorkspace::new(2);
+        let t = [c(1.0, 0.0), c(1e-8, 0.0), ZERO, c(1.0 + 1e-10, 0.0)];
+        let cos = 100.0 / 10001f64.sqrt();
+        let want = ((1.0 + cos) / (1.0 - cos)).sqrt();
+        let got = eigvec_condition(&t, &mut ws).unwrap();
+        assert!((got - want).abs() <= 1e-6 * want, "{got} vs {want}");
     }
 }
