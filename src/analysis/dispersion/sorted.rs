@@ -13,7 +13,7 @@
 //! the direction of k* ≠ 0, so two different ones never cross. Along the ray
 //! sθ, s ∈ (0, 1], k*(sθ) is never zero when some axis has 0 < |θ_d| < π and
 //! κ_d has no zero in (0, π). The ascending order of Re ω is then the same at
-//! every point of the ray, and following the spectrum from θ = 0 ([`follow_ray`](super::ray::follow_ray))
+//! every point of the ray, and following the spectrum from θ = 0 (`ray::follow_ray`)
 //! ends in ascending order at θ: sorting the eigenvalues at θ gives the same
 //! names with one eigenproblem instead of about fifteen.
 //!
