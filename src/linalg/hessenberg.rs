@@ -125,13 +125,7 @@ mod tests {
     type Mat<const N: usize> = [[C64; N]; N];
 
     fn sample<const N: usize>(seed: u64) -> Mat<N> {
-        let mut s = seed;
-        let mut next = || {
-            s = s
-                .wrapping_mul(6364136223846793005)
-                .wrapping_add(1442695040888963407);
-            ((s >> 11) as f64 / (1u64 << 53) as f64) * 2.0 - 1.0
-        };
+        let mut next = crate::linalg::product::uniform_sequence(seed);
         let mut a = [[ZERO; N]; N];
         for row in a.iter_mut() {
             for z in row.iter_mut() {

@@ -56,6 +56,7 @@ mod jacobi;
 mod lu;
 pub mod nonnormal;
 pub mod poly;
+pub(crate) mod product;
 mod qr;
 pub mod reference;
 mod schur;
@@ -65,6 +66,7 @@ mod square;
 mod svd;
 
 pub use lu::{solve, LuSolver};
+pub use product::multiply_into;
 pub use schur::{schur, SchurSolver};
 pub use small::MAX_FIXED;
 pub use svd::{sigma_min, svd, Svd, SvdSolver, MAX_SWEEPS};

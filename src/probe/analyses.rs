@@ -71,13 +71,13 @@ pub fn growth(g: &GField, w: &[f64], w_inv: &[f64], steps: usize) -> Result<Grow
                 (SvdSolver::new(m), zero.clone(), zero.clone(), zero)
             },
             |(svd, a, p, next), node| {
-                multiply_into(&wc, g.at(node), &mut next[..], m);
-                multiply_into(&next[..], &wic, &mut a[..], m);
+                linalg::multiply_into(&wc, g.at(node), &mut next[..], m);
+                linalg::multiply_into(&next[..], &wic, &mut a[..], m);
                 set_identity(p, m);
                 let mut norms = Vec::with_capacity(steps + 1);
                 norms.push(1.0);
                 for _ in 0..steps {
-                    multiply_into(a, p, next, m);
+                    linalg::multiply_into(a, p, next, m);
                     std::mem::swap(p, next);
                     norms.push(svd.norm2(p)?);
                 }
@@ -112,19 +112,6 @@ fn set_identity(p: &mut [C64], m: usize) {
     p.fill(C64::new(0.0, 0.0));
     for i in 0..m {
         p[i * m + i] = C64::new(1.0, 0.0);
-    }
-}
-
-/// c = a b for row-major m×m matrices.
-fn multiply_into(a: &[C64], b: &[C64], c: &mut [C64], m: usize) {
-    c.fill(C64::new(0.0, 0.0));
-    for i in 0..m {
-        for k in 0..m {
-            let aik = a[i * m + k];
-            for j in 0..m {
-                c[i * m + j] += aik * b[k * m + j];
-            }
-        }
     }
 }
 

@@ -7,6 +7,7 @@
 //! [`Method::amplification_matrix`](super::Method::amplification_matrix)'s to
 //! rounding (the two differ in how they round, not in what they compute).
 
+use crate::linalg::multiply_into;
 use num_complex::Complex64 as C64;
 
 /// Largest m handled on the stack.
@@ -27,7 +28,7 @@ pub fn explicit_into(p: &[f64], q0: f64, z: &[C64], m: usize, out: &mut [C64]) {
         acc[i * m + i] = C64::new(*top, 0.0);
     }
     for c in rest.iter().rev() {
-        multiply(&acc[..n], z, &mut product[..n], m);
+        multiply_into(&acc[..n], z, &mut product[..n], m);
         acc[..n].copy_from_slice(&product[..n]);
         for i in 0..m {
             acc[i * m + i] += *c;
@@ -38,33 +39,13 @@ pub fn explicit_into(p: &[f64], q0: f64, z: &[C64], m: usize, out: &mut [C64]) {
     }
 }
 
-/// y = a b for row-major m×m `a`, `b`, each entry summed in k order.
-fn multiply(a: &[C64], b: &[C64], y: &mut [C64], m: usize) {
-    for i in 0..m {
-        for j in 0..m {
-            let mut acc = a[i * m] * b[j];
-            for k in 1..m {
-                acc += a[i * m + k] * b[k * m + j];
-            }
-            y[i * m + j] = acc;
-        }
-    }
-}
-
 #[cfg(test)]
 mod tests {
     use super::*;
     use nalgebra::DMatrix;
 
     fn random(m: usize, seed: u64) -> Vec<C64> {
-        // a small linear congruential sequence: reproducible, no dependency
-        let mut s = seed;
-        let mut next = || {
-            s = s
-                .wrapping_mul(6364136223846793005)
-                .wrapping_add(1442695040888963407);
-            ((s >> 11) as f64 / (1u64 << 53) as f64) * 2.0 - 1.0
-        };
+        let mut next = crate::linalg::product::uniform_sequence(seed);
         (0..m * m).map(|_| C64::new(next(), next())).collect()
     }
 

@@ -8,7 +8,7 @@
 //! whose eigenvalues are not differentiable) no slopes are given and the caller
 //! falls back to differences.
 
-use crate::linalg::{EigSolver, LuSolver};
+use crate::linalg::{multiply_into, EigSolver, LuSolver};
 use num_complex::Complex64 as C64;
 
 /// Eigenvalues closer than this fraction of the largest one form a cluster.
@@ -103,7 +103,7 @@ impl Slopes {
         let m = self.m;
         // product = A′ X; of X⁻¹ A′ X only the entries the clusters use (the
         // diagonal of simple eigenvalues, each cluster's block)
-        multiply(derivative, &self.vectors, &mut self.product, m);
+        multiply_into(derivative, &self.vectors, &mut self.product, m);
         let entry = |inverse: &[C64], product: &[C64], r: usize, c: usize| {
             let mut acc = C64::new(0.0, 0.0);
             for k in 0..m {
@@ -147,18 +147,5 @@ impl Slopes {
             }
         }
         true
-    }
-}
-
-/// c = a b for row-major m×m matrices.
-fn multiply(a: &[C64], b: &[C64], c: &mut [C64], m: usize) {
-    for i in 0..m {
-        for j in 0..m {
-            let mut acc = C64::new(0.0, 0.0);
-            for k in 0..m {
-                acc += a[i * m + k] * b[k * m + j];
-            }
-            c[i * m + j] = acc;
-        }
     }
 }
