@@ -73,9 +73,11 @@ fn substitute(
         }
         let mut d = row[i] - lam;
         if let Some((gap, noise)) = cluster {
-            let largest = x[i + 1..=k].iter().map(|z| modulus(*z)).fold(0.0, f64::max);
-            if modulus(d) <= gap && modulus(rhs) <= noise * largest {
-                continue; // x[i] stays zero
+            if modulus(d) <= gap {
+                let largest = x[i + 1..=k].iter().map(|z| modulus(*z)).fold(0.0, f64::max);
+                if modulus(rhs) <= noise * largest {
+                    continue; // x[i] stays zero
+                }
             }
         }
         if abs1(d) < floor {

@@ -15,7 +15,7 @@ pub const MAX: usize = 8;
 
 /// P(Z)/q₀ into `out` (row-major m×m, m ≤ [`MAX`]) for the row-major Z, with
 /// P's coefficients `p` in ascending powers: Horner's rule acc ← acc·Z + c·I
-/// from the highest coefficient down, starting from acc = 0.
+/// from the highest coefficient down, starting from acc = (highest)·I.
 pub fn explicit_into(p: &[f64], q0: f64, z: &[C64], m: usize, out: &mut [C64]) {
     let n = m * m;
     let zero = C64::new(0.0, 0.0);

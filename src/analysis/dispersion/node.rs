@@ -366,6 +366,8 @@ impl NodeWork {
                 )
             })
             .flatten();
+        // the eigenvalues-only kernel again, as `Frequencies::numerical_by_ray`
+        // takes them (the same bits as the reference implementation)
         let sorted = || {
             f.ascending_at(theta)
                 .then(|| {
